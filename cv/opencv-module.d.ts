@@ -1,0 +1,4 @@
+declare module '@techstark/opencv-js' {
+  const cv: unknown;
+  export default cv;
+}

@@ -1,0 +1,116 @@
+/**
+ * Public shapes of the plate-analysis core. Coordinates in every result are in ORIGINAL image
+ * pixels of the upright photo (x to the right, y down, origin at the top-left pixel's corner),
+ * whatever working resolution the pipeline used internally.
+ */
+
+/** An upright RGBA image, 4 bytes per pixel, row-major, as ImageData or a decoder gives it. */
+export interface RgbaImage {
+  readonly width: number;
+  readonly height: number;
+  readonly data: Uint8Array | Uint8ClampedArray;
+}
+
+/** CIE L*a*b* (D65, 2° observer) as [L*, a*, b*]. */
+export type Lab = readonly [number, number, number];
+
+/** The dish as an ellipse (a tilted camera turns the circle into an ellipse). */
+export interface Dish {
+  cx: number;
+  cy: number;
+  /** Semi-axes in pixels; rx is along `angleDeg`. */
+  rx: number;
+  ry: number;
+  angleDeg: number;
+  /** Mean radius, (rx + ry) / 2, for code that wants a circle. */
+  r: number;
+  /** Radius scale (fraction of the dish) inside which colonies are counted: the wall band is outside it. */
+  agarFraction: number;
+  /** Where the geometry came from. */
+  source: 'detected' | 'given';
+}
+
+export type ColonyClass = 0 | 1;
+
+export interface Colony {
+  x: number;
+  y: number;
+  /** Equivalent-circle radius, sqrt(area / π), in original pixels. */
+  r: number;
+  /** Area in original pixels². */
+  area: number;
+  cls: ColonyClass;
+  /** 0.5 (a coin toss between the two classes) to 1 (certain). */
+  confidence: number;
+  /** The colony came out of splitting a touching group. */
+  split: boolean;
+  /**
+   * Colonies this detection stands for: 1 for a single colony; more for a clump that could not
+   * be split, estimated from its area against the typical single-colony area.
+   */
+  count: number;
+  /** Colony colour, and its difference from the agar right around it. */
+  lab: Lab;
+  deltaLab: Lab;
+}
+
+export interface ColourClass {
+  cls: ColonyClass;
+  /** A short colour word ("blue", "cream", ...) or the palette's own name. */
+  name: string;
+  /** Typical colony colour as sRGB hex (#rrggbb). */
+  hex: string;
+  /** Mean colour difference from the agar. */
+  deltaLab: Lab;
+}
+
+/** The two marker colours of an experiment, relative to the agar they grow on. */
+export interface Palette {
+  version: 1;
+  colours: readonly [PaletteColour, PaletteColour];
+}
+
+export interface PaletteColour {
+  name: string;
+  hex: string;
+  /** Colony colour minus local agar colour, in L*a*b*. */
+  deltaLab: Lab;
+  /** Spread of that difference across the colonies it was learned from (ΔE units). */
+  spread: number;
+}
+
+export type QualityFlag =
+  | { kind: 'dish-not-found' }
+  | { kind: 'glare'; fraction: number }
+  | { kind: 'clumps-estimated'; clumps: number; colonies: number }
+  | { kind: 'low-confidence'; colonies: number }
+  | { kind: 'out-of-focus'; edgeWidthMm: number }
+  | { kind: 'one-colour'; reason: string };
+
+export interface PlateAnalysis {
+  width: number;
+  height: number;
+  /** Working pixels per original pixel (≤ 1). */
+  scale: number;
+  dish: Dish | null;
+  colonies: Colony[];
+  /** Colony totals per class name (clump estimates included). */
+  counts: Record<string, number>;
+  classes: ColourClass[];
+  /** The agar colour in the middle of the dish. */
+  agarLab: Lab;
+  flags: QualityFlag[];
+  /** Milliseconds per stage. */
+  timings: Record<string, number>;
+}
+
+export interface AnalyzeOptions {
+  /** Skip detection and use this dish (original pixels). */
+  dish?: Pick<Dish, 'cx' | 'cy' | 'rx' | 'ry' | 'angleDeg'>;
+  /** Classify against these two colours instead of clustering this plate alone. */
+  palette?: Palette;
+  /** Dish inner diameter in mm (default 90), used to turn mm sizes into pixels. */
+  dishDiameterMm?: number;
+  /** Report progress between stages (0..1). */
+  onProgress?: (stage: string, fraction: number) => void;
+}
