@@ -1,0 +1,33 @@
+/**
+ * `rivalplate COMMAND ...`: dispatches to one module per command. Each command module exports
+ * `run(args, io)` and resolves to the process exit code.
+ */
+import type { CommandIo } from './io.ts';
+import { processIo } from './io.ts';
+
+type Command = {
+  summary: string;
+  load: () => Promise<{ run: (args: string[], io: CommandIo) => Promise<number> }>;
+};
+
+const COMMANDS: Record<string, Command> = {};
+
+function usage(): string {
+  const lines = Object.entries(COMMANDS).map(([name, c]) => `  ${name.padEnd(10)} ${c.summary}`);
+  return ['Usage: rivalplate COMMAND [options]', '', 'Commands:', ...lines, ''].join('\n');
+}
+
+export async function main(argv: string[], io: CommandIo = processIo()): Promise<number> {
+  const [name, ...rest] = argv;
+  if (!name || name === '--help' || name === '-h') {
+    io.out(usage());
+    return name ? 0 : 2;
+  }
+  const command = COMMANDS[name];
+  if (!command) {
+    io.err(`rivalplate: unknown command "${name}"\n\n${usage()}`);
+    return 2;
+  }
+  const mod = await command.load();
+  return mod.run(rest, io);
+}
