@@ -1,0 +1,183 @@
+/**
+ * The table of record kinds: how each is checked, and whether it goes into a backup file and to
+ * the sync server. Photos are exported (a backup without them could not be re-analysed) but not
+ * synced as records: the server will take them as separate uploads.
+ */
+import {
+  blob,
+  bool,
+  type Check,
+  count,
+  isoTime,
+  list,
+  nonEmpty,
+  nullable,
+  num,
+  object,
+  oneOf,
+  pair,
+  positive,
+  SchemaError,
+  str,
+  triple,
+} from './check.ts';
+import type {
+  Analysis,
+  Assay,
+  ColonyRecord,
+  Corrections,
+  Edit,
+  Experiment,
+  Photo,
+  Plate,
+  RecordKind,
+  RecordsByKind,
+  Sample,
+  Stamp,
+} from './records.ts';
+
+const stamp = {
+  id: nonEmpty,
+  revision: (v: unknown, f: string) => {
+    const n = count(v, f);
+    if (n < 1) throw new SchemaError(f, `must be 1 or more, got ${n}`);
+    return n;
+  },
+  updatedAt: isoTime,
+} satisfies { [K in keyof Stamp]: Check<Stamp[K]> };
+
+const classIndex = oneOf(0, 1);
+
+const colony = object<ColonyRecord>({
+  id: nonEmpty,
+  x: num,
+  y: num,
+  r: positive,
+  cls: classIndex,
+  confidence: num,
+  count: (v, f) => {
+    const n = count(v, f);
+    if (n < 1) throw new SchemaError(f, `must be 1 or more, got ${n}`);
+    return n;
+  },
+  area: num,
+  split: bool,
+  lab: nullable(triple),
+  deltaLab: nullable(triple),
+});
+
+const edit: Check<Edit> = (v, f) => {
+  const op = oneOf('add', 'remove', 'reclass')((v as { op?: unknown } | null)?.op, `${f}.op`);
+  if (op === 'add') return object<Edit & { op: 'add' }>({ op: oneOf('add'), colony })(v, f);
+  if (op === 'remove')
+    return object<Edit & { op: 'remove' }>({ op: oneOf('remove'), colonyId: nonEmpty })(v, f);
+  return object<Edit & { op: 'reclass' }>({
+    op: oneOf('reclass'),
+    colonyId: nonEmpty,
+    cls: classIndex,
+  })(v, f);
+};
+
+const experiment = object<Experiment>({
+  ...stamp,
+  name: nonEmpty,
+  demo: bool,
+  lines: list(nonEmpty),
+  referenceName: nonEmpty,
+  transferDilution: positive,
+  defaultDilutionFold: positive,
+  defaultVolumeUl: positive,
+  palette: nullable(
+    object({
+      version: oneOf(1),
+      colours: pair(object({ name: str, hex: str, deltaLab: triple, spread: num })),
+      source: oneOf('taught', 'learned'),
+    }),
+  ),
+});
+
+const assay = object<Assay>({
+  ...stamp,
+  experimentId: nonEmpty,
+  line: nonEmpty,
+  generation: num,
+  replicate: count,
+  group: str,
+  testClass: classIndex,
+  foldDilutionSinceStart: positive,
+  days: positive,
+});
+
+const sample = object<Sample>({
+  ...stamp,
+  experimentId: nonEmpty,
+  assayId: nonEmpty,
+  timepoint: oneOf('start', 'end'),
+});
+
+const plate = object<Plate>({
+  ...stamp,
+  experimentId: nonEmpty,
+  assayId: nonEmpty,
+  sampleId: nonEmpty,
+  dilutionFold: positive,
+  volumeUl: positive,
+  photoId: nullable(nonEmpty),
+  typedCounts: nullable(object({ test: count, reference: count })),
+  reviewed: bool,
+});
+
+const photo = object<Photo>({
+  ...stamp,
+  plateId: nonEmpty,
+  name: str,
+  blob: blob,
+  preview: blob,
+  width: positive,
+  height: positive,
+});
+
+const analysis = object<Analysis>({
+  ...stamp,
+  plateId: nonEmpty,
+  photoId: nonEmpty,
+  width: positive,
+  height: positive,
+  agarLab: triple,
+  dish: nullable(object({ cx: num, cy: num, rx: positive, ry: positive, angleDeg: num })),
+  colonies: list(colony),
+  classes: pair(object({ cls: classIndex, name: str, hex: str, deltaLab: triple })),
+  flags: list(object({ kind: nonEmpty, detail: str })),
+  paletteUsed: bool,
+  ms: num,
+});
+
+const corrections = object<Corrections>({
+  ...stamp,
+  plateId: nonEmpty,
+  analysisId: nonEmpty,
+  edits: list(edit),
+  undone: list(edit),
+});
+
+export interface KindInfo<T> {
+  check: Check<T>;
+  /** Written into a backup file. */
+  exported: boolean;
+  /** Sent to the lab's sync server as a record. */
+  synced: boolean;
+  /** Field holding the parent record's id, used for look-ups by parent. */
+  parent: keyof T | null;
+}
+
+export const KINDS: { [K in RecordKind]: KindInfo<RecordsByKind[K]> } = {
+  experiments: { check: experiment, exported: true, synced: true, parent: null },
+  assays: { check: assay, exported: true, synced: true, parent: 'experimentId' },
+  samples: { check: sample, exported: true, synced: true, parent: 'assayId' },
+  plates: { check: plate, exported: true, synced: true, parent: 'experimentId' },
+  photos: { check: photo, exported: true, synced: false, parent: 'plateId' },
+  analyses: { check: analysis, exported: true, synced: true, parent: 'plateId' },
+  corrections: { check: corrections, exported: true, synced: true, parent: 'plateId' },
+};
+
+export const RECORD_KINDS = Object.keys(KINDS) as RecordKind[];

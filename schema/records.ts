@@ -1,0 +1,188 @@
+/**
+ * Every record Rivalplate keeps, as stored in IndexedDB, written to a backup file and (later)
+ * exchanged with the lab's sync server. Each record carries a client-made id, a revision that
+ * grows by one on every change, and the time of its last change, so two copies of a record can
+ * be reconciled without a central counter.
+ */
+
+/** Which of the analysis core's two colour classes a colony belongs to. */
+export type ClassIndex = 0 | 1;
+
+export interface Stamp {
+  /** Made on the device that created the record (crypto.randomUUID). */
+  id: string;
+  /** 1 when created, +1 on every change. */
+  revision: number;
+  /** ISO 8601 time of the last change. */
+  updatedAt: string;
+}
+
+export interface PaletteColourRecord {
+  name: string;
+  hex: string;
+  /** Colony colour minus local agar colour, CIE L*a*b*. */
+  deltaLab: [number, number, number];
+  spread: number;
+}
+
+export interface PaletteRecord {
+  version: 1;
+  colours: [PaletteColourRecord, PaletteColourRecord];
+  /** Taught by tapping one colony of each colour, or learned from analysed plates. */
+  source: 'taught' | 'learned';
+}
+
+export interface Experiment extends Stamp {
+  name: string;
+  /** Bundled example data, shown with a banner and never mixed into a lab's own exports. */
+  demo: boolean;
+  /** The evolved lines under test, e.g. ["L1", "L2"]. */
+  lines: string[];
+  referenceName: string;
+  /** Fold dilution at each daily transfer of the evolution (e.g. 100). */
+  transferDilution: number;
+  /** Prefills for a new plate. */
+  defaultDilutionFold: number;
+  defaultVolumeUl: number;
+  palette: PaletteRecord | null;
+}
+
+/** One competition culture: a test line against the marked reference. */
+export interface Assay extends Stamp {
+  experimentId: string;
+  line: string;
+  generation: number;
+  replicate: number;
+  group: string;
+  /** The colour class of the test strain; the other class is the reference. */
+  testClass: ClassIndex;
+  /** Total fold dilution between the start and end samples (1 = same flask, no transfer). */
+  foldDilutionSinceStart: number;
+  days: number;
+}
+
+export type Timepoint = 'start' | 'end';
+
+export interface Sample extends Stamp {
+  experimentId: string;
+  assayId: string;
+  timepoint: Timepoint;
+}
+
+export interface TypedCounts {
+  test: number;
+  reference: number;
+}
+
+export interface Plate extends Stamp {
+  experimentId: string;
+  assayId: string;
+  sampleId: string;
+  dilutionFold: number;
+  volumeUl: number;
+  /** The photo in the photo store, or null for a plate counted by eye and typed in. */
+  photoId: string | null;
+  typedCounts: TypedCounts | null;
+  /** The person has looked over the automatic count (it then enters the accuracy figure). */
+  reviewed: boolean;
+}
+
+/** Binary data as a Blob has it; named here by shape because this realm has no DOM types. */
+export interface BinaryData {
+  readonly size: number;
+  readonly type: string;
+  arrayBuffer(): Promise<ArrayBuffer>;
+}
+
+/** The original photo, kept whole for re-analysis, and a screen-sized preview made from it. */
+export interface Photo extends Stamp {
+  plateId: string;
+  name: string;
+  blob: BinaryData;
+  preview: BinaryData;
+  /** Upright size of the original, in pixels. */
+  width: number;
+  height: number;
+}
+
+export interface ColonyRecord {
+  id: string;
+  /** Original upright photo pixels. */
+  x: number;
+  y: number;
+  r: number;
+  cls: ClassIndex;
+  confidence: number;
+  /** Colonies this detection stands for (more than 1 for an unsplit clump). */
+  count: number;
+  /** Area in original pixels². */
+  area: number;
+  /** Came out of splitting a touching group. */
+  split: boolean;
+  /** Colony colour and its difference from the nearby agar, CIE L*a*b*; null when added by hand. */
+  lab: [number, number, number] | null;
+  deltaLab: [number, number, number] | null;
+}
+
+export interface DishRecord {
+  cx: number;
+  cy: number;
+  rx: number;
+  ry: number;
+  angleDeg: number;
+}
+
+export interface ClassRecord {
+  cls: ClassIndex;
+  name: string;
+  hex: string;
+  deltaLab: [number, number, number];
+}
+
+/** An image-quality remark of the analysis: its kind and the numbers that go with it. */
+export interface FlagRecord {
+  kind: string;
+  detail: string;
+}
+
+/** What the automatic analysis found on a photo, before any correction. */
+export interface Analysis extends Stamp {
+  plateId: string;
+  photoId: string;
+  /** Upright size of the photo analysed; all coordinates are in its pixels. */
+  width: number;
+  height: number;
+  agarLab: [number, number, number];
+  dish: DishRecord | null;
+  colonies: ColonyRecord[];
+  classes: [ClassRecord, ClassRecord];
+  flags: FlagRecord[];
+  /** Classified against the experiment's palette rather than this plate alone. */
+  paletteUsed: boolean;
+  ms: number;
+}
+
+export type Edit =
+  | { op: 'add'; colony: ColonyRecord }
+  | { op: 'remove'; colonyId: string }
+  | { op: 'reclass'; colonyId: string; cls: ClassIndex };
+
+/** What the person changed on top of one analysis, in order, with the undone steps for redo. */
+export interface Corrections extends Stamp {
+  plateId: string;
+  analysisId: string;
+  edits: Edit[];
+  undone: Edit[];
+}
+
+export interface RecordsByKind {
+  experiments: Experiment;
+  assays: Assay;
+  samples: Sample;
+  plates: Plate;
+  photos: Photo;
+  analyses: Analysis;
+  corrections: Corrections;
+}
+
+export type RecordKind = keyof RecordsByKind;

@@ -1,0 +1,91 @@
+import { type IDBPDatabase, openDB } from 'idb';
+import { KINDS, RECORD_KINDS } from '../../schema/kinds.ts';
+import type { RecordKind, RecordsByKind } from '../../schema/records.ts';
+import { restoreRecord } from '../../schema/restore.ts';
+import type { RecordStore } from './record-store.ts';
+
+const DB_VERSION = 1;
+const PARENT_INDEX = 'byParent';
+
+/** One object store per record kind, keyed by id, with an index on the parent id. */
+async function open(name: string): Promise<IDBPDatabase> {
+  return openDB(name, DB_VERSION, {
+    upgrade(db) {
+      for (const kind of RECORD_KINDS) {
+        if (db.objectStoreNames.contains(kind)) continue;
+        const os = db.createObjectStore(kind, { keyPath: 'id' });
+        const parent = KINDS[kind].parent;
+        if (parent) os.createIndex(PARENT_INDEX, String(parent));
+      }
+    },
+  });
+}
+
+export async function openIdbStore(name = 'rivalplate'): Promise<RecordStore> {
+  const db = await open(name);
+  const listeners = new Set<() => void>();
+  const problems: string[] = [];
+  const changed = () => {
+    for (const l of listeners) l();
+  };
+
+  function restored<K extends RecordKind>(kind: K, raw: unknown[]): RecordsByKind[K][] {
+    const out: RecordsByKind[K][] = [];
+    for (const item of raw) {
+      const id = (item as { id?: unknown } | null)?.id;
+      const r = restoreRecord(kind, item, `stored ${kind} record ${String(id)}`);
+      if (r.ok) out.push(r.record);
+      else problems.push(r.error);
+    }
+    return out;
+  }
+
+  return {
+    problems,
+    async put(kind, record) {
+      const tx = db.transaction(kind, 'readwrite');
+      await Promise.all([tx.store.put(record), tx.done]);
+      changed();
+    },
+    async putBatch(batch) {
+      const kinds = RECORD_KINDS.filter((k) => batch[k]?.length);
+      if (kinds.length === 0) return;
+      const tx = db.transaction(kinds, 'readwrite');
+      const puts: Promise<unknown>[] = [];
+      try {
+        for (const k of kinds) for (const r of batch[k] ?? []) puts.push(tx.objectStore(k).put(r));
+      } catch (e) {
+        // A put can throw at once (a record without its key); that alone does not abort the
+        // transaction, so the records before it would commit. Abort so a batch is all or nothing;
+        // the aborted requests' rejections are expected and consumed here.
+        tx.abort();
+        await Promise.allSettled([...puts, tx.done]);
+        throw e;
+      }
+      await Promise.all([...puts, tx.done]);
+      changed();
+    },
+    async remove(ids) {
+      const kinds = RECORD_KINDS.filter((k) => ids[k]?.length);
+      if (kinds.length === 0) return;
+      const tx = db.transaction(kinds, 'readwrite');
+      const dels = kinds.flatMap((k) => (ids[k] ?? []).map((id) => tx.objectStore(k).delete(id)));
+      await Promise.all([...dels, tx.done]);
+      changed();
+    },
+    async get(kind, id) {
+      const raw = await db.get(kind, id);
+      return raw === undefined ? undefined : restored(kind, [raw])[0];
+    },
+    async children(kind, parentId) {
+      return restored(kind, await db.getAllFromIndex(kind, PARENT_INDEX, parentId));
+    },
+    async all(kind) {
+      return restored(kind, await db.getAll(kind));
+    },
+    subscribe(listener) {
+      listeners.add(listener);
+      return () => listeners.delete(listener);
+    },
+  };
+}

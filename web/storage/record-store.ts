@@ -1,0 +1,24 @@
+import type { RecordKind, RecordsByKind } from '../../schema/records.ts';
+
+/** A batch of records of several kinds, written in one transaction (all or nothing). */
+export type RecordBatch = { [K in RecordKind]?: RecordsByKind[K][] };
+
+/**
+ * Where the app keeps its records. Every write resolves only once its transaction has
+ * completed, so a record the UI shows as saved survives the tab being closed. Every read passes
+ * the schema's restore gate; a record that fails it is reported through `problems`, not returned.
+ */
+export interface RecordStore {
+  put<K extends RecordKind>(kind: K, record: RecordsByKind[K]): Promise<void>;
+  putBatch(batch: RecordBatch): Promise<void>;
+  /** Deletes the records named, all in one transaction. */
+  remove(ids: { [K in RecordKind]?: string[] }): Promise<void>;
+  get<K extends RecordKind>(kind: K, id: string): Promise<RecordsByKind[K] | undefined>;
+  /** Records whose parent field (see schema KINDS) holds `parentId`. */
+  children<K extends RecordKind>(kind: K, parentId: string): Promise<RecordsByKind[K][]>;
+  all<K extends RecordKind>(kind: K): Promise<RecordsByKind[K][]>;
+  /** Calls `listener` after every completed write; returns the unsubscribe function. */
+  subscribe(listener: () => void): () => void;
+  /** Records that failed the restore gate since the store opened, as messages. */
+  readonly problems: readonly string[];
+}
