@@ -1,0 +1,59 @@
+import { describe, expect, it } from 'vitest';
+import type { PlateAnalysis } from '../cv/types.ts';
+import { analysisToOriginal, dishToDecoded } from './rescale.ts';
+
+const decoded: PlateAnalysis = {
+  width: 2400,
+  height: 1800,
+  scale: 0.5,
+  dish: {
+    cx: 1200,
+    cy: 900,
+    rx: 800,
+    ry: 780,
+    angleDeg: 10,
+    r: 790,
+    agarFraction: 0.95,
+    source: 'detected',
+  },
+  colonies: [
+    {
+      x: 100,
+      y: 50,
+      r: 4,
+      area: 50,
+      cls: 1,
+      confidence: 0.9,
+      split: false,
+      count: 1,
+      lab: [80, 0, 10],
+      deltaLab: [-5, 2, -20],
+    },
+  ],
+  counts: { blue: 0, cream: 1 },
+  classes: [],
+  agarLab: [85, 0, 15],
+  flags: [],
+  timings: {},
+};
+
+describe('analysisToOriginal', () => {
+  it('scales positions and lengths by k, areas by k², and keeps colours and counts', () => {
+    const out = analysisToOriginal(decoded, 1.6667, 4000, 3000);
+    expect(out.width).toBe(4000);
+    expect(out.scale).toBeCloseTo(0.5 / 1.6667, 6);
+    expect(out.dish?.cx).toBeCloseTo(2000, 1);
+    expect(out.dish?.angleDeg).toBe(10);
+    const c = out.colonies[0]!;
+    expect([c.x, c.y, c.r]).toEqual([100 * 1.6667, 50 * 1.6667, 4 * 1.6667]);
+    expect(c.area).toBeCloseTo(50 * 1.6667 ** 2, 6);
+    expect(c.deltaLab).toEqual([-5, 2, -20]);
+    expect(out.counts).toEqual(decoded.counts);
+  });
+
+  it('a dish placed in original pixels round-trips through the decoded copy', () => {
+    const d = { cx: 2000, cy: 1500, rx: 1300, ry: 1290, angleDeg: 0 };
+    const back = dishToDecoded(d, 2);
+    expect(back).toEqual({ cx: 1000, cy: 750, rx: 650, ry: 645, angleDeg: 0 });
+  });
+});
