@@ -159,6 +159,14 @@ export interface OpenCv {
   findContours(image: Mat, contours: MatVector, hierarchy: Mat, mode: number, method: number): void;
   contourArea(contour: Mat): number;
   convexHull(points: Mat, hull: Mat, clockwise?: boolean, returnPoints?: boolean): void;
+  drawContours(
+    image: Mat,
+    contours: MatVector,
+    contourIdx: number,
+    color: Scalar,
+    thickness: number,
+  ): void;
+  transform(src: Mat, dst: Mat, m: Mat): void;
 
   CV_8U: number;
   CV_8UC1: number;
@@ -177,6 +185,7 @@ export interface OpenCv {
   COLOR_RGB2Lab: number;
   INTER_AREA: number;
   INTER_LINEAR: number;
+  INTER_NEAREST: number;
   THRESH_BINARY: number;
   THRESH_BINARY_INV: number;
   THRESH_OTSU: number;
@@ -199,4 +208,6 @@ export interface OpenCv {
   CC_STAT_WIDTH: number;
   CC_STAT_HEIGHT: number;
   CC_STAT_AREA: number;
+  FILLED: number;
+  COLOR_RGB2HSV: number;
 }

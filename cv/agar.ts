@@ -1,0 +1,174 @@
+import type { WorkingFrame } from './frame.ts';
+import type { Keep } from './mat-scope.ts';
+import { withMats } from './mat-scope.ts';
+import type { Mat, OpenCv } from './opencv.ts';
+import type { Size } from './opencv-slice.ts';
+import type { Dish, Lab } from './types.ts';
+
+/**
+ * The agar and its local colour.
+ *
+ * Input: the working RGB image (CV_8UC3) and the dish in working pixels.
+ * Output (Mats owned by the caller's scope):
+ *  - `lab`: the image in CIE L*a*b* (CV_32FC3, L* 0..100),
+ *  - `background`: the agar colour expected at each pixel with colonies removed (CV_32FC3), a
+ *    median filter over a window several colonies wide, computed at quarter resolution. This
+ *    flattens a one-sided lamp, vignetting and a colour cast, since colonies are judged against the
+ *    agar right around them and not against one global agar colour;
+ *  - `deltaE`: ΔE*ab of each pixel from that background (CV_32FC1),
+ *  - `countMask`: where colonies may be counted (agar inside the wall band, minus glare), 8-bit 0/255,
+ *  - `glareFraction`: share of the agar under lid glare (bright, nearly colourless patches much
+ *    larger than a colony), which is excluded from counting and reported.
+ */
+export interface AgarModel {
+  lab: Mat;
+  background: Mat;
+  deltaE: Mat;
+  countMask: Mat;
+  glareFraction: number;
+  agarLab: Lab;
+}
+
+/** Window of the background median, in millimetres: wider than any single colony or pair. */
+const BACKGROUND_WINDOW_MM = 9;
+/** Glare: L* above this (a cream agar sits near 90), chroma below GLARE_CHROMA, and big. */
+const GLARE_L = 94;
+const GLARE_CHROMA = 7;
+const GLARE_MIN_DIAMETER_MM = 4;
+
+export function modelAgar(
+  cv: OpenCv,
+  keep: Keep,
+  rgb: Mat,
+  dish: Pick<Dish, 'cx' | 'cy' | 'rx' | 'ry' | 'angleDeg' | 'agarFraction'>,
+  frame: WorkingFrame,
+): AgarModel {
+  const agarMask = keep(ellipseMask(cv, rgb.rows, rgb.cols, dish, dish.agarFraction));
+  const lab8 = keep(new cv.Mat());
+  cv.cvtColor(rgb, lab8, cv.COLOR_RGB2Lab);
+  const lab = keep(labToFloat(cv, lab8));
+
+  const quarter = keep(quarterAgar(cv, lab8, agarMask));
+  const glare = keep(glareMask(cv, quarter, agarMask, frame));
+  const agarArea = Math.max(1, cv.countNonZero(agarMask));
+  const glareFraction = cv.countNonZero(glare) / agarArea;
+
+  const background = keep(
+    medianBackground(cv, quarter, { width: rgb.cols, height: rgb.rows }, frame),
+  );
+  const deltaE = keep(labDistance(cv, lab, background));
+
+  const countMask = keep(new cv.Mat());
+  const notGlare = keep(new cv.Mat());
+  cv.bitwise_not(glare, notGlare);
+  cv.bitwise_and(agarMask, notGlare, countMask);
+
+  const centre = background.data32F;
+  const ci = (Math.round(dish.cy) * background.cols + Math.round(dish.cx)) * 3;
+  const agarLab: Lab = [centre[ci] ?? 0, centre[ci + 1] ?? 0, centre[ci + 2] ?? 0];
+  return { lab, background, deltaE, countMask, glareFraction, agarLab };
+}
+
+/** An 8-bit 0/255 mask of the dish ellipse scaled by `fraction`. */
+export function ellipseMask(
+  cv: OpenCv,
+  rows: number,
+  cols: number,
+  d: Pick<Dish, 'cx' | 'cy' | 'rx' | 'ry' | 'angleDeg'>,
+  fraction: number,
+): Mat {
+  const mask = cv.Mat.zeros(rows, cols, cv.CV_8UC1);
+  cv.ellipse(
+    mask,
+    new cv.Point(d.cx, d.cy),
+    new cv.Size(d.rx * fraction, d.ry * fraction),
+    d.angleDeg,
+    0,
+    360,
+    [255, 0, 0, 0],
+    -1,
+  );
+  return mask;
+}
+
+/** opencv's 8-bit Lab stores L*·255/100, a*+128, b*+128; this undoes that into real units. */
+function labToFloat(cv: OpenCv, lab8: Mat): Mat {
+  return withMats((keep) => {
+    const f = keep(new cv.Mat());
+    lab8.convertTo(f, cv.CV_32F);
+    const m = keep(
+      cv.matFromArray(3, 4, cv.CV_32F, [100 / 255, 0, 0, 0, 0, 1, 0, -128, 0, 0, 1, -128]),
+    );
+    const out = new cv.Mat();
+    cv.transform(f, out, m);
+    return out;
+  });
+}
+
+/** The working Lab image at quarter resolution, with everything outside the agar set to the agar mean. */
+function quarterAgar(cv: OpenCv, lab8: Mat, agarMask: Mat): Mat {
+  return withMats((keep) => {
+    // Outside the agar (wall, bench) would drag the median near the rim: fill it with the agar mean.
+    const filled = keep(lab8.clone());
+    const outside = keep(new cv.Mat());
+    cv.bitwise_not(agarMask, outside);
+    filled.setTo(cv.mean(lab8, agarMask), outside);
+    const quarter = new cv.Mat();
+    const qw = Math.max(1, Math.round(lab8.cols / 4));
+    const qh = Math.max(1, Math.round(lab8.rows / 4));
+    cv.resize(filled, quarter, new cv.Size(qw, qh), 0, 0, cv.INTER_AREA);
+    return quarter;
+  });
+}
+
+function medianBackground(cv: OpenCv, quarter: Mat, full: Size, frame: WorkingFrame): Mat {
+  return withMats((keep) => {
+    const k = oddAtLeast(3, BACKGROUND_WINDOW_MM / frame.mmPerPx / 4);
+    const median = keep(new cv.Mat());
+    cv.medianBlur(quarter, median, k);
+    const up = keep(new cv.Mat());
+    cv.resize(median, up, new cv.Size(full.width, full.height), 0, 0, cv.INTER_LINEAR);
+    return labToFloat(cv, up);
+  });
+}
+
+function labDistance(cv: OpenCv, lab: Mat, background: Mat): Mat {
+  return withMats((keep) => {
+    const diff = keep(new cv.Mat());
+    cv.subtract(lab, background, diff);
+    cv.multiply(diff, diff, diff);
+    const sum = keep(cv.matFromArray(1, 3, cv.CV_32F, [1, 1, 1]));
+    const sq = keep(new cv.Mat());
+    cv.transform(diff, sq, sum);
+    const out = new cv.Mat();
+    cv.sqrt(sq, out);
+    return out;
+  });
+}
+
+/** Glare is found at quarter resolution (the patches are large and soft), then scaled up. */
+function glareMask(cv: OpenCv, quarter: Mat, agarMask: Mat, frame: WorkingFrame): Mat {
+  return withMats((keep) => {
+    const c = Math.round(GLARE_CHROMA);
+    const size = [quarter.rows, quarter.cols, cv.CV_8UC3] as const;
+    const lo = keep(new cv.Mat(...size, [Math.round(GLARE_L * 2.55), 128 - c, 128 - c, 0]));
+    const hi = keep(new cv.Mat(...size, [255, 128 + c, 128 + c, 0]));
+    const bright = keep(new cv.Mat());
+    cv.inRange(quarter, lo, hi, bright);
+    // Keep only patches bigger than a colony: an opening with a disc of that size removes the rest,
+    // then the soft halo around each patch is taken in with a dilation by the same disc.
+    const k = oddAtLeast(3, GLARE_MIN_DIAMETER_MM / frame.mmPerPx / 4);
+    const disc = keep(cv.getStructuringElement(cv.MORPH_ELLIPSE, new cv.Size(k, k)));
+    cv.morphologyEx(bright, bright, cv.MORPH_OPEN, disc);
+    cv.dilate(bright, bright, disc);
+    const out = new cv.Mat();
+    cv.resize(bright, out, new cv.Size(agarMask.cols, agarMask.rows), 0, 0, cv.INTER_NEAREST);
+    cv.bitwise_and(out, agarMask, out);
+    return out;
+  });
+}
+
+export function oddAtLeast(min: number, v: number): number {
+  const n = Math.max(min, Math.round(v));
+  return n % 2 === 1 ? n : n + 1;
+}

@@ -1,0 +1,185 @@
+import { modelAgar } from './agar.ts';
+import { selectCandidates } from './candidates.ts';
+import { classify } from './classify.ts';
+import { now } from './clock.ts';
+import { detectDish, givenDish } from './dish.ts';
+import { edgeWidthMm } from './focus.ts';
+import { segmentForeground } from './foreground.ts';
+import { frameForDish, inscribedDish, toOriginal, type WorkingFrame } from './frame.ts';
+import { checkImage } from './image-input.ts';
+import type { Keep } from './mat-scope.ts';
+import { withMats } from './mat-scope.ts';
+import { measureRegions } from './measure.ts';
+import { loadOpenCv, type Mat, type OpenCv } from './opencv.ts';
+import { splitTouching } from './split.ts';
+import { colonyFlags, countsByClass } from './summary.ts';
+import type {
+  AnalyzeOptions,
+  Colony,
+  Dish,
+  PlateAnalysis,
+  QualityFlag,
+  RgbaImage,
+} from './types.ts';
+
+/** Edges wider than this (mm) mean the photo is out of focus (see focus.ts). */
+const BLURRED_EDGE_MM = 0.3;
+const DEFAULT_DISH_MM = 90;
+
+/**
+ * Analyses one plate photo: dish → working frame → agar model → foreground → split → measure →
+ * select → classify. Every opencv object lives in one scope and is freed when the analysis ends,
+ * whether it succeeds or throws.
+ *
+ * Input: an upright RGBA image (any size). Output: PlateAnalysis in the image's own pixels.
+ */
+export async function analyzePlate(
+  image: RgbaImage,
+  options: AnalyzeOptions = {},
+): Promise<PlateAnalysis> {
+  checkImage(image);
+  const { cv } = await loadOpenCv();
+  return withMats((keep) => runPipeline(cv, keep, image, options));
+}
+
+function runPipeline(
+  cv: OpenCv,
+  keep: Keep,
+  image: RgbaImage,
+  options: AnalyzeOptions,
+): PlateAnalysis {
+  const timings: Record<string, number> = {};
+  let last = now();
+  const stage = (name: string, fraction: number) => {
+    const t = now();
+    timings[name] = t - last;
+    last = t;
+    options.onProgress?.(name, fraction);
+  };
+  const flags: QualityFlag[] = [];
+
+  const src = keep(cv.matFromImageData(image));
+  stage('load', 0.1);
+  let dish: Dish | null = options.dish ? givenDish(options.dish) : detectDish(cv, src);
+  if (!dish) flags.push({ kind: 'dish-not-found' });
+  const geometry = dish ?? inscribedDish(image.width, image.height);
+  const frame = frameForDish(
+    geometry,
+    image.width,
+    image.height,
+    options.dishDiameterMm ?? DEFAULT_DISH_MM,
+  );
+  stage('dish', 0.2);
+
+  const rgb = keep(workingImage(cv, keep, src, frame));
+  const dishW = toWorkingDish(geometry, frame);
+  stage('working-image', 0.3);
+
+  const agar = modelAgar(cv, keep, rgb, dishW, frame);
+  if (agar.glareFraction > 0.005)
+    flags.push({ kind: 'glare', fraction: round(agar.glareFraction, 3) });
+  stage('background', 0.45);
+
+  const fg = segmentForeground(cv, keep, agar, frame);
+  stage('foreground', 0.6);
+  const split = splitTouching(cv, keep, rgb, fg.mask, frame);
+  stage('split', 0.75);
+  const measured = measureRegions(
+    split.regions,
+    split.regionCount,
+    split.components,
+    split.componentCount,
+    split.distance,
+    agar.lab,
+    agar.background,
+    agar.deltaE,
+  );
+  const { candidates } = selectCandidates(
+    measured.regions,
+    measured.components,
+    split.typicalRadius,
+    frame.mmPerPx,
+  );
+  stage('measure', 0.85);
+
+  const samples = candidates.map((c) => ({
+    lab: c.region.lab,
+    deltaLab: subtract(c.region.lab, c.region.backgroundLab),
+  }));
+  const classes = classify(samples, options.palette);
+  const colonies: Colony[] = candidates.map((c, i) => {
+    const [x, y] = toOriginal(frame, c.region.x, c.region.y);
+    const area = c.region.area / frame.scale ** 2;
+    return {
+      x: round(x, 1),
+      y: round(y, 1),
+      r: round(Math.sqrt(area / Math.PI), 2),
+      area: Math.round(area),
+      cls: classes.cls[i]!,
+      confidence: round(classes.confidence[i]!, 3),
+      split: c.split,
+      count: c.count,
+      lab: roundLab(samples[i]!.lab),
+      deltaLab: roundLab(samples[i]!.deltaLab),
+    };
+  });
+  stage('classify', 0.95);
+
+  flags.push(...colonyFlags(colonies, classes.oneColour));
+  const meanContrast =
+    candidates.reduce((s, c) => s + c.region.contrast, 0) / Math.max(1, candidates.length);
+  const edge = edgeWidthMm(cv, agar.deltaE, fg.mask, meanContrast, frame.mmPerPx);
+  if (edge !== null && edge > BLURRED_EDGE_MM)
+    flags.push({ kind: 'out-of-focus', edgeWidthMm: round(edge, 3) });
+  stage('focus', 1);
+
+  if (dish) dish = { ...dish, cx: round(dish.cx, 1), cy: round(dish.cy, 1) };
+  return {
+    width: image.width,
+    height: image.height,
+    scale: frame.scale,
+    dish,
+    colonies,
+    counts: countsByClass(colonies, classes.classes),
+    classes: classes.classes,
+    agarLab: roundLab(agar.agarLab),
+    flags,
+    timings,
+  };
+}
+
+function workingImage(cv: OpenCv, keep: Keep, src: Mat, frame: WorkingFrame): Mat {
+  const { x, y, width, height } = frame.roi;
+  const crop = keep(src.roi(new cv.Rect(x, y, width, height)));
+  const small = keep(new cv.Mat());
+  cv.resize(crop, small, new cv.Size(frame.width, frame.height), 0, 0, cv.INTER_AREA);
+  const rgb = new cv.Mat();
+  cv.cvtColor(small, rgb, cv.COLOR_RGBA2RGB);
+  // Light smoothing: sensor noise and JPEG blocks would otherwise set the detection threshold.
+  cv.GaussianBlur(rgb, rgb, new cv.Size(3, 3), 0.8);
+  return rgb;
+}
+
+function toWorkingDish(d: Dish, f: WorkingFrame): Dish {
+  return {
+    ...d,
+    cx: (d.cx - f.roi.x) * f.scale,
+    cy: (d.cy - f.roi.y) * f.scale,
+    rx: d.rx * f.scale,
+    ry: d.ry * f.scale,
+    r: d.r * f.scale,
+  };
+}
+
+function subtract(a: readonly number[], b: readonly number[]): [number, number, number] {
+  return [a[0]! - b[0]!, a[1]! - b[1]!, a[2]! - b[2]!];
+}
+
+function roundLab(l: readonly number[]): [number, number, number] {
+  return [round(l[0]!, 2), round(l[1]!, 2), round(l[2]!, 2)];
+}
+
+function round(v: number, digits: number): number {
+  const f = 10 ** digits;
+  return Math.round(v * f) / f;
+}

@@ -1,0 +1,132 @@
+import { centroid, isTwoColours, kmeans2, type Point } from './cluster.ts';
+import { labToHex } from './colour.ts';
+import { colourName, distinctNames } from './colour-name.ts';
+import type { ColonyClass, ColourClass, Lab, Palette, PaletteColour } from './types.ts';
+
+/**
+ * Sorting colonies into the two marker colours.
+ *
+ * Each colony's colour is taken relative to the agar right around it (ΔL*, Δa*, Δb*), which
+ * cancels most of the lighting and the agar's own tint. The feature halves ΔL* against the
+ * chromatic axes: marker colours differ mainly in hue and chroma, while residual shading moves
+ * lightness. Without a palette a plate is clustered on its own (cluster.ts decides one colour or
+ * two); with a palette every colony goes to the nearer palette colour, distances scaled by each
+ * colour's own spread, so a 97:3 or 100:0 plate is classified like any other.
+ */
+export interface ColourSample {
+  lab: Lab;
+  deltaLab: Lab;
+}
+
+export interface Classification {
+  cls: ColonyClass[];
+  confidence: number[];
+  classes: ColourClass[];
+  /** Why a plate was taken as one colour (no palette and no second colour found). */
+  oneColour: string | null;
+}
+
+/** Below this confidence a colony's class is doubtful. */
+export const LOW_CONFIDENCE = 0.75;
+/** Smallest spread used to scale distances, in feature units: real colours always vary this much. */
+const MIN_SPREAD = 2;
+
+export function colourFeature(d: Lab): Point {
+  return [0.5 * d[0], d[1], d[2]];
+}
+
+export function classify(samples: readonly ColourSample[], palette?: Palette): Classification {
+  if (samples.length === 0) {
+    return {
+      cls: [],
+      confidence: [],
+      classes: palette ? paletteClasses(palette) : [],
+      oneColour: null,
+    };
+  }
+  const features = samples.map((s) => colourFeature(s.deltaLab));
+  const model = palette ?? paletteFrom(samples);
+  if (!model) {
+    const lab = meanLab(samples.map((s) => s.lab));
+    const delta = meanLab(samples.map((s) => s.deltaLab));
+    return {
+      cls: samples.map(() => 0),
+      confidence: samples.map(() => 1),
+      classes: [{ cls: 0, name: colourName(lab), hex: labToHex(lab), deltaLab: delta }],
+      oneColour: 'no second colony colour stands apart from the spread of the first',
+    };
+  }
+  const centres = model.colours.map((c) => colourFeature(c.deltaLab));
+  const spreads = model.colours.map((c) => Math.max(MIN_SPREAD, c.spread));
+  const cls: ColonyClass[] = [];
+  const confidence: number[] = [];
+  for (const f of features) {
+    const d0 = distance(f, centres[0]!) / spreads[0]!;
+    const d1 = distance(f, centres[1]!) / spreads[1]!;
+    const k: ColonyClass = d0 <= d1 ? 0 : 1;
+    cls.push(k);
+    const total = d0 + d1;
+    confidence.push(total === 0 ? 0.5 : (k === 0 ? d1 : d0) / total);
+  }
+  return { cls, confidence, classes: paletteClasses(model), oneColour: null };
+}
+
+/**
+ * Learns two marker colours from colonies (of one plate or pooled over a batch), or null when they
+ * show only one colour. Class 0 is the darker colour relative to the agar.
+ */
+export function paletteFrom(samples: readonly ColourSample[]): Palette | null {
+  const features = samples.map((s) => colourFeature(s.deltaLab));
+  const clusters = kmeans2(features);
+  if (!clusters || !isTwoColours(clusters)) return null;
+  const groups = [0, 1].map((k) => samples.filter((_, i) => clusters.assignment[i] === k));
+  const colours = groups.map((g, k) => ({
+    lab: meanLab(g.map((s) => s.lab)),
+    deltaLab: meanLab(g.map((s) => s.deltaLab)),
+    spread: clusters.spreads[k as 0 | 1],
+  }));
+  colours.sort((a, b) => a.deltaLab[0] - b.deltaLab[0]);
+  const [c0, c1] = colours as [(typeof colours)[0], (typeof colours)[0]];
+  const [n0, n1] = distinctNames(c0.lab, c1.lab);
+  return {
+    version: 1,
+    colours: [
+      { name: n0, hex: labToHex(c0.lab), deltaLab: c0.deltaLab, spread: c0.spread },
+      { name: n1, hex: labToHex(c1.lab), deltaLab: c1.deltaLab, spread: c1.spread },
+    ],
+  };
+}
+
+/** A palette taught by pointing at one colony of each colour. */
+export function paletteFromSamples(
+  a: ColourSample,
+  b: ColourSample,
+  names?: [string, string],
+): Palette {
+  const [na, nb] = names ?? distinctNames(a.lab, b.lab);
+  const colour = (s: ColourSample, name: string): PaletteColour => ({
+    name,
+    hex: labToHex(s.lab),
+    deltaLab: s.deltaLab,
+    // One example says nothing about spread; assume the typical colony-to-colony variation.
+    spread: 3,
+  });
+  return { version: 1, colours: [colour(a, na), colour(b, nb)] };
+}
+
+function paletteClasses(p: Palette): ColourClass[] {
+  return p.colours.map((c, k) => ({
+    cls: k as ColonyClass,
+    name: c.name,
+    hex: c.hex,
+    deltaLab: c.deltaLab,
+  }));
+}
+
+function distance(p: Point, q: Point): number {
+  return Math.hypot(p[0] - q[0], p[1] - q[1], p[2] - q[2]);
+}
+
+function meanLab(labs: readonly Lab[]): Lab {
+  return centroid(labs);
+}

@@ -1,0 +1,92 @@
+import type { AgarModel } from './agar.ts';
+import { oddAtLeast } from './agar.ts';
+import type { WorkingFrame } from './frame.ts';
+import type { Keep } from './mat-scope.ts';
+import { withMats } from './mat-scope.ts';
+import type { Mat, OpenCv } from './opencv.ts';
+
+/**
+ * Colony foreground: pixels that differ from the local agar by more than the noise allows.
+ *
+ * The threshold adapts to each photo: it is a multiple of the median ΔE over the counting area
+ * (most of the agar is bare, so the median measures noise plus residual lighting), never below
+ * MIN_CONTRAST ΔE. Pale colonies only a few ΔE lighter than the agar pass; sensor noise and JPEG
+ * ringing do not. Then: an opening removes single-pixel noise, holes (the highlight on a domed
+ * colony) are filled, and ring-shaped objects (air bubbles: a dark rim round an agar-coloured
+ * centre) are dropped whole.
+ *
+ * Output: an 8-bit 0/255 mask in working pixels; `bubbles` counts the rings dropped.
+ */
+const MIN_CONTRAST = 3;
+const NOISE_MULTIPLE = 4;
+/** A ring: its holes cover more than this share of its outline's area. */
+const RING_HOLE_SHARE = 0.3;
+
+export interface Foreground {
+  mask: Mat;
+  threshold: number;
+  bubbles: number;
+}
+
+export function segmentForeground(
+  cv: OpenCv,
+  keep: Keep,
+  agar: AgarModel,
+  frame: WorkingFrame,
+): Foreground {
+  const noise = medianWithin(agar.deltaE, agar.countMask);
+  const threshold = Math.max(MIN_CONTRAST, NOISE_MULTIPLE * noise);
+  const mask = keep(new cv.Mat());
+  withMats((k) => {
+    const above = k(new cv.Mat());
+    cv.threshold(agar.deltaE, above, threshold, 255, cv.THRESH_BINARY);
+    above.convertTo(mask, cv.CV_8U);
+    cv.bitwise_and(mask, agar.countMask, mask);
+    const size = oddAtLeast(3, 0.2 / frame.mmPerPx);
+    const disc = k(cv.getStructuringElement(cv.MORPH_ELLIPSE, new cv.Size(size, size)));
+    cv.morphologyEx(mask, mask, cv.MORPH_OPEN, disc);
+  });
+  const bubbles = fillHolesDropRings(cv, mask);
+  return { mask, threshold, bubbles };
+}
+
+/**
+ * Median of a float image inside a mask, from every 3rd pixel of every 3rd row: plenty for a
+ * noise level and an order of magnitude cheaper than sorting a megapixel.
+ */
+function medianWithin(img: Mat, mask: Mat): number {
+  const v = img.data32F;
+  const m = mask.data;
+  const samples: number[] = [];
+  for (let y = 1; y < img.rows; y += 3) {
+    const row = y * img.cols;
+    for (let x = 1; x < img.cols; x += 3) if (m[row + x]) samples.push(v[row + x]!);
+  }
+  if (samples.length === 0) return 0;
+  samples.sort((a, b) => a - b);
+  return samples[samples.length >> 1]!;
+}
+
+/** Redraws each outer contour filled, unless its holes make it a ring. Returns the rings dropped. */
+function fillHolesDropRings(cv: OpenCv, mask: Mat): number {
+  return withMats((keep) => {
+    const contours = keep(new cv.MatVector());
+    const hierarchy = keep(new cv.Mat());
+    const work = keep(mask.clone());
+    cv.findContours(work, contours, hierarchy, cv.RETR_CCOMP, cv.CHAIN_APPROX_SIMPLE);
+    const h = hierarchy.data32S; // [next, previous, firstChild, parent] per contour
+    let rings = 0;
+    for (let i = 0; i < contours.size(); i++) {
+      if (h[4 * i + 3]! !== -1) continue; // a hole; handled with its parent
+      const outer = keep(contours.get(i));
+      const outerArea = cv.contourArea(outer);
+      let holes = 0;
+      for (let c = h[4 * i + 2]!; c !== -1; c = h[4 * c]!)
+        holes += cv.contourArea(keep(contours.get(c)));
+      const ring = outerArea > 0 && holes / outerArea > RING_HOLE_SHARE;
+      if (ring) rings++;
+      cv.drawContours(mask, contours, i, ring ? [0, 0, 0, 0] : [255, 0, 0, 0], -1);
+    }
+    return rings;
+  });
+}

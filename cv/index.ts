@@ -1,0 +1,9 @@
+/**
+ * The plate-analysis core: pure TypeScript over RGBA pixels and opencv.js, the same in Node and in
+ * a browser worker.
+ */
+export { analyzePlate } from './analyze.ts';
+export { MAX_PIXELS, PlateImageError } from './image-input.ts';
+export { loadOpenCv } from './opencv.ts';
+export { classifyWithPalette, learnPalette, paletteFromExamples } from './palette.ts';
+export type * from './types.ts';

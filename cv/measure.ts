@@ -1,0 +1,100 @@
+import type { Mat } from './opencv.ts';
+import type { Lab } from './types.ts';
+
+/**
+ * Per-region measurements in working pixels, from one pass over the region labels.
+ * opencv.js offers per-label area and centroid (connectedComponentsWithStats) but no per-label
+ * colour means; one loop over the ~1 MP working image gathers all of it at once instead of a
+ * masked cv.mean per colony.
+ */
+export interface RegionStats {
+  id: number;
+  area: number;
+  x: number;
+  y: number;
+  /** Mean colour of the region and of the agar background under it. */
+  lab: Lab;
+  backgroundLab: Lab;
+  /** Mean ΔE from the background over the region. */
+  contrast: number;
+  component: number;
+}
+
+export interface ComponentStats {
+  id: number;
+  area: number;
+  /** Largest distance-map value: half the blob's thickness. */
+  halfWidth: number;
+  regions: number;
+}
+
+export function measureRegions(
+  regions: Mat,
+  regionCount: number,
+  components: Mat,
+  componentCount: number,
+  distance: Mat,
+  lab: Mat,
+  background: Mat,
+  deltaE: Mat,
+): { regions: RegionStats[]; components: ComponentStats[] } {
+  const n = regionCount + 1;
+  const area = new Float64Array(n);
+  const sx = new Float64Array(n);
+  const sy = new Float64Array(n);
+  const sLab = new Float64Array(3 * n);
+  const sBg = new Float64Array(3 * n);
+  const sDe = new Float64Array(n);
+  const comp = new Int32Array(n);
+  const cArea = new Float64Array(componentCount + 1);
+  const cHalf = new Float32Array(componentCount + 1);
+
+  const r = regions.data32S;
+  const c = components.data32S;
+  const d = distance.data32F;
+  const L = lab.data32F;
+  const B = background.data32F;
+  const E = deltaE.data32F;
+  const w = regions.cols;
+  for (let i = 0; i < r.length; i++) {
+    const ci = c[i]!;
+    if (ci > 0) {
+      cArea[ci]!++;
+      if (d[i]! > cHalf[ci]!) cHalf[ci] = d[i]!;
+    }
+    const id = r[i]!;
+    if (id <= 0) continue;
+    area[id]!++;
+    sx[id]! += i % w;
+    sy[id]! += (i / w) | 0;
+    for (let k = 0; k < 3; k++) {
+      sLab[3 * id + k]! += L[3 * i + k]!;
+      sBg[3 * id + k]! += B[3 * i + k]!;
+    }
+    sDe[id]! += E[i]!;
+    comp[id] = ci;
+  }
+
+  const compRegions = new Int32Array(componentCount + 1);
+  const out: RegionStats[] = [];
+  for (let id = 1; id < n; id++) {
+    const a = area[id]!;
+    if (a === 0) continue;
+    compRegions[comp[id]!]!++;
+    out.push({
+      id,
+      area: a,
+      x: sx[id]! / a + 0.5,
+      y: sy[id]! / a + 0.5,
+      lab: [sLab[3 * id]! / a, sLab[3 * id + 1]! / a, sLab[3 * id + 2]! / a],
+      backgroundLab: [sBg[3 * id]! / a, sBg[3 * id + 1]! / a, sBg[3 * id + 2]! / a],
+      contrast: sDe[id]! / a,
+      component: comp[id]!,
+    });
+  }
+  const comps: ComponentStats[] = [];
+  for (let id = 1; id <= componentCount; id++) {
+    comps.push({ id, area: cArea[id]!, halfWidth: cHalf[id]!, regions: compRegions[id]! });
+  }
+  return { regions: out, components: comps };
+}

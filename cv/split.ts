@@ -1,0 +1,97 @@
+import { oddAtLeast } from './agar.ts';
+import type { WorkingFrame } from './frame.ts';
+import type { Keep } from './mat-scope.ts';
+import { withMats } from './mat-scope.ts';
+import type { Mat, OpenCv } from './opencv.ts';
+
+/**
+ * Splits touching and slightly overlapping colonies: marker-controlled watershed (Beucher &
+ * Meyer 1993) seeded at the peaks of the Euclidean distance transform of the foreground, the
+ * usual recipe for touching round objects. A peak is a pixel that equals the maximum of the
+ * distance map within a disc of 0.7 typical colony radii, so two equal colonies whose centres are
+ * closer than that merge into one seed, while a pair at 0.7× the sum of their radii still splits.
+ *
+ * Output: `regions` (CV_32S, 1..n per colony candidate, 0 elsewhere), `components` (CV_32S, the
+ * connected foreground blobs before splitting), `distance` (CV_32F), and the typical radius used.
+ */
+export interface Split {
+  regions: Mat;
+  regionCount: number;
+  components: Mat;
+  componentCount: number;
+  distance: Mat;
+  typicalRadius: number;
+}
+
+export function splitTouching(
+  cv: OpenCv,
+  keep: Keep,
+  rgb: Mat,
+  mask: Mat,
+  frame: WorkingFrame,
+): Split {
+  const distance = keep(new cv.Mat());
+  cv.distanceTransform(mask, distance, cv.DIST_L2, cv.DIST_MASK_5);
+  const components = keep(new cv.Mat());
+  const componentCount = cv.connectedComponents(mask, components, 8, cv.CV_32S) - 1;
+  const typicalRadius = typicalPeak(distance, components, componentCount) || 0.6 / frame.mmPerPx;
+
+  const regions = keep(new cv.Mat());
+  const regionCount = withMats((k) => {
+    const size = oddAtLeast(3, 1.4 * typicalRadius);
+    const disc = k(cv.getStructuringElement(cv.MORPH_ELLIPSE, new cv.Size(size, size)));
+    const dilated = k(new cv.Mat());
+    cv.dilate(distance, dilated, disc);
+    const peaks = k(new cv.Mat());
+    cv.compare(distance, dilated, peaks, cv.CMP_GE);
+    const floor = k(new cv.Mat());
+    cv.threshold(distance, floor, Math.max(1.5, 0.3 * typicalRadius), 255, cv.THRESH_BINARY);
+    const floor8 = k(new cv.Mat());
+    floor.convertTo(floor8, cv.CV_8U);
+    cv.bitwise_and(peaks, floor8, peaks);
+    const n = cv.connectedComponents(peaks, regions, 8, cv.CV_32S) - 1;
+
+    // Watershed wants every pixel known to be background labelled too: outside a slightly grown mask.
+    const grown = k(new cv.Mat());
+    cv.dilate(mask, grown, k(cv.getStructuringElement(cv.MORPH_ELLIPSE, new cv.Size(5, 5))));
+    const outside = k(new cv.Mat());
+    cv.bitwise_not(grown, outside);
+    regions.setTo([n + 1, 0, 0, 0], outside);
+    cv.watershed(rgb, regions);
+    // Background and the -1 ridge lines back to 0, so labels are exactly the colony regions.
+    const bg = k(new cv.Mat());
+    const bgLabel = k(new cv.Mat(regions.rows, regions.cols, cv.CV_32S, [n + 1, 0, 0, 0]));
+    cv.compare(regions, bgLabel, bg, cv.CMP_EQ);
+    regions.setTo([0, 0, 0, 0], bg);
+    const ridge = k(new cv.Mat());
+    const zero = k(new cv.Mat(regions.rows, regions.cols, cv.CV_32S, [0, 0, 0, 0]));
+    cv.compare(regions, zero, ridge, cv.CMP_GT);
+    cv.bitwise_not(ridge, ridge);
+    regions.setTo([0, 0, 0, 0], ridge);
+    // Keep the watershed inside the foreground: it may flood a pixel or two past the mask edge.
+    const notMask = k(new cv.Mat());
+    cv.bitwise_not(mask, notMask);
+    regions.setTo([0, 0, 0, 0], notMask);
+    return n;
+  });
+  return { regions, regionCount, components, componentCount, distance, typicalRadius };
+}
+
+/**
+ * Median over blobs of their largest distance-map value, i.e. the radius of the typical colony
+ * (most blobs are single colonies). One pass over the label image: opencv has no per-label max.
+ */
+function typicalPeak(distance: Mat, labels: Mat, n: number): number {
+  if (n === 0) return 0;
+  const peak = new Float32Array(n + 1);
+  const d = distance.data32F;
+  const l = labels.data32S;
+  for (let i = 0; i < l.length; i++) {
+    const id = l[i]!;
+    if (id > 0 && d[i]! > peak[id]!) peak[id] = d[i]!;
+  }
+  const values = Array.from(peak.subarray(1))
+    .filter((v) => v > 1)
+    .sort((a, b) => a - b);
+  return values.length ? values[values.length >> 1]! : 0;
+}
