@@ -31,13 +31,14 @@ describe('rgbToLab', () => {
   });
 
   it('round-trips through labToRgb for a spread of colours', () => {
-    for (const rgb of [
+    const colours: [number, number, number][] = [
       [12, 200, 90],
       [240, 230, 200],
       [40, 60, 180],
       [250, 250, 250],
-    ] as const) {
-      expect(labToRgb(rgbToLab(...rgb))).toEqual([...rgb]);
+    ];
+    for (const [r, g, b] of colours) {
+      expect(labToRgb(rgbToLab(r, g, b))).toEqual([r, g, b]);
     }
   });
 });
