@@ -10,7 +10,12 @@ type Command = {
   load: () => Promise<{ run: (args: string[], io: CommandIo) => Promise<number> }>;
 };
 
-const COMMANDS: Record<string, Command> = {};
+const COMMANDS: Record<string, Command> = {
+  fitness: {
+    summary: 'relative fitness, replicate statistics and trajectories from a CSV of plate counts',
+    load: () => import('./fitness-command.ts'),
+  },
+};
 
 function usage(): string {
   const lines = Object.entries(COMMANDS).map(([name, c]) => `  ${name.padEnd(10)} ${c.summary}`);

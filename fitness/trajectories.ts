@@ -185,6 +185,69 @@ function tooExact(rss: number, w: readonly number[]): boolean {
   return !(rss > 1e-24 * Math.max(1, scale));
 }
 
+/** JᵀJ (as s00, s01, s11) and Jᵀr of a two-parameter model at params. */
+function normalEquations(
+  model: Model,
+  params: number[],
+  t: readonly number[],
+  w: readonly number[],
+) {
+  const f = model.f(params);
+  const jac = model.jac(params);
+  let s00 = 0;
+  let s01 = 0;
+  let s11 = 0;
+  let g0 = 0;
+  let g1 = 0;
+  t.forEach((ti, i) => {
+    const [j0, j1] = jac(ti) as [number, number];
+    const r = w[i]! - f(ti);
+    s00 += j0 * j0;
+    s01 += j0 * j1;
+    s11 += j1 * j1;
+    g0 += j0 * r;
+    g1 += j1 * r;
+  });
+  return { s00, s01, s11, g0, g1 };
+}
+
+/**
+ * Gauss–Newton steps with step halving after the Levenberg–Marquardt run, so the optimum is met
+ * to the precision the standard errors need (the LM run's stopping rule is coarse). A step is
+ * taken only when it lowers the RSS and keeps b > 0.
+ */
+function polish(
+  model: Model,
+  start: number[],
+  startRss: number,
+  t: readonly number[],
+  w: readonly number[],
+) {
+  let params = start;
+  let rss = startRss;
+  for (let iteration = 0; iteration < 100; iteration++) {
+    const { s00, s01, s11, g0, g1 } = normalEquations(model, params, t, w);
+    const det = s00 * s11 - s01 * s01;
+    if (!(det > 0) || !Number.isFinite(det)) break;
+    const d0 = (s11 * g0 - s01 * g1) / det;
+    const d1 = (s00 * g1 - s01 * g0) / det;
+    let improved = false;
+    for (let scale = 1; scale > 1e-10; scale /= 2) {
+      const trial = [params[0]! + scale * d0, params[1]! + scale * d1];
+      if (!(trial[1]! > 0)) continue;
+      const trialRss = rssOf(model.f(trial), t, w);
+      if (trialRss < rss) {
+        improved = rss - trialRss > 1e-15 * rss;
+        params = trial;
+        rss = trialRss;
+        break;
+      }
+    }
+    if (!improved) break;
+  }
+  return { params, rss };
+}
+
 function fitCurve(model: Model, points: readonly TrajectoryPoint[]): CurveFit | ModelFailure {
   const t = points.map((p) => p.generation);
   const w = points.map((p) => p.w);
@@ -226,6 +289,7 @@ function fitCurve(model: Model, points: readonly TrajectoryPoint[]): CurveFit | 
     params = [best.a, best.b];
     rss = best.rss;
   }
+  ({ params, rss } = polish(model, params, rss, t, w));
   if (tooExact(rss, w))
     return { model: model.name, reason: 'the curve passes through every value exactly' };
   if (n <= 2) return { model: model.name, reason: 'no residual degrees of freedom' };

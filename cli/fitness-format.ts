@@ -1,0 +1,183 @@
+/** Readable tables for `rivalplate fitness` (the --json output is fitness/report.ts). */
+import type { Analysis, Comparison } from '../fitness/analysis.ts';
+import type { Anova, TTest } from '../fitness/replicate-stats.ts';
+import { formatForReport, type RoundingRule } from '../fitness/rounding.ts';
+import type { CurveFit, ModelFailure, StepFit } from '../fitness/trajectories.ts';
+
+export interface TextOptions {
+  /** Publication rounding of densities; 'none' prints three significant digits. */
+  rounding: RoundingRule | 'none';
+}
+
+/** Left-aligned text columns, right-aligned numbers, two spaces apart. */
+export function table(header: string[], rows: string[][]): string {
+  const widths = header.map((h, i) => Math.max(h.length, ...rows.map((r) => (r[i] ?? '').length)));
+  const numeric = header.map(
+    (_, i) => rows.length > 0 && rows.every((r) => /^[-+−\d.(]|^—$/.test(r[i] ?? '')),
+  );
+  const line = (cells: string[]) =>
+    cells
+      .map((c, i) => (numeric[i] ? c.padStart(widths[i]!) : c.padEnd(widths[i]!)))
+      .join('  ')
+      .trimEnd();
+  return [line(header), line(widths.map((w) => '-'.repeat(w))), ...rows.map(line)].join('\n');
+}
+
+const f = (x: number | null | undefined, digits = 4) =>
+  x === null || x === undefined ? '—' : x.toFixed(digits);
+const ci = (c: [number, number] | null) => (c ? `(${c[0].toFixed(4)}, ${c[1].toFixed(4)})` : '—');
+
+function p(x: number | null | undefined): string {
+  if (x === null || x === undefined) return '—';
+  return x < 1e-4 ? '< 0.0001' : x.toFixed(4);
+}
+
+const pEq = (x: number) => (x < 1e-4 ? 'p < 0.0001' : `p = ${x.toFixed(4)}`);
+const dfText = (df: number) => (Number.isInteger(df) ? String(df) : df.toFixed(1));
+
+function density(x: number, options: TextOptions): string {
+  return options.rounding === 'none' ? x.toPrecision(3) : formatForReport(x, options.rounding);
+}
+
+function testText(test: TTest | Anova | null): string {
+  if (test === null) return 'not computable (too few assays or no spread)';
+  if ('f' in test)
+    return `F(${test.dfBetween}, ${test.dfWithin}) = ${test.f.toFixed(3)}, ${pEq(test.p)}`;
+  return `t(${dfText(test.df)}) = ${test.t.toFixed(3)}, ${pEq(test.p)}`;
+}
+
+function comparisonText(c: Comparison): string {
+  const name = c.test === 'welch' ? "Welch's two-sample t-test" : 'one-way ANOVA';
+  const groups = c.groups.length > 6 ? `${c.groups.length} groups` : c.groups.join(', ');
+  return [`${name} across ${groups}`, `  W: ${testText(c.W)}`, `  r: ${testText(c.r)}`].join('\n');
+}
+
+function modelRow(m: CurveFit | StepFit | ModelFailure, label: string): string[] {
+  if ('reason' in m) return [label, `not fitted: ${m.reason}`, '', '', '', ''];
+  let params: string;
+  if (m.model === 'step') {
+    const heights = m.segments.map((s) => `${s.from}–${s.to}: ${s.w.toFixed(3)}`).join('; ');
+    params = `${m.changePoints} change point(s); ${heights}`;
+  } else {
+    params = m.parameters
+      .map(
+        (q) =>
+          `${q.name} = ${q.estimate.toPrecision(4)} ± ${q.se.toPrecision(2)}${q.poorlyDetermined ? ' (poorly determined)' : ''}`,
+      )
+      .join(', ');
+    if (!m.converged) params += ' (not converged)';
+  }
+  return [label, params, m.residualSe.toFixed(4), f(m.aic, 2), f(m.bic, 2), String(m.k)];
+}
+
+export function analysisText(a: Analysis, options: TextOptions): string {
+  const out: string[] = [];
+  out.push(
+    `Assays: ${a.assays.length} computed${a.errors.length ? `, ${a.errors.length} failed` : ''}`,
+  );
+  out.push(
+    table(
+      [
+        'assay',
+        'group',
+        'gen',
+        'W',
+        'W 95% CI (counting)',
+        'r',
+        'r/day',
+        's/gen',
+        'start test/ref CFU/mL',
+        'flags',
+      ],
+      a.assays.map((x) => [
+        x.assay,
+        x.group,
+        String(x.generation),
+        f(x.W),
+        ci(x.W_ci),
+        f(x.r),
+        f(x.rPerDay),
+        f(x.sPerGeneration),
+        `${density(x.start.test.cfuPerMl, options)} / ${density(x.start.reference.cfuPerMl, options)}`,
+        x.flags.map((g) => g.code).join(' '),
+      ]),
+    ),
+  );
+  const flagged = a.assays.filter((x) => x.flags.length > 0);
+  if (flagged.length > 0) {
+    out.push('', 'Flags:');
+    for (const x of flagged) for (const g of x.flags) out.push(`  assay ${x.assay}: ${g.message}`);
+  }
+  if (a.errors.length > 0) {
+    out.push('', 'Assays that could not be computed:');
+    for (const e of a.errors) out.push(`  ${e.message}`);
+  }
+  out.push(
+    '',
+    'Groups (mean of replicate assays, 95% CI from Student t, two-sided one-sample t-tests)',
+  );
+  out.push(
+    table(
+      ['group', 'n', 'mean W', 'SD', 'SE', '95% CI', 'p (W=1)', 'mean r', 'SD r', 'p (r=0)'],
+      a.groups.map((g) => [
+        g.group,
+        String(g.W.n),
+        f(g.W.mean),
+        f(g.W.sd),
+        f(g.W.se),
+        ci(g.W.ci),
+        p(g.W_vs_1?.p),
+        f(g.r.mean),
+        f(g.r.sd),
+        p(g.r_vs_0?.p),
+      ]),
+    ),
+  );
+  if (a.markerEffect) {
+    const m = a.markerEffect;
+    out.push(
+      '',
+      `Marker effect (group ${m.group}, n = ${m.n}): mean W ${f(m.W.mean)} ${ci(m.W.ci)}, W = 1: ${testText(m.W_vs_1)}; mean r ${f(m.r.mean)}, r = 0: ${testText(m.r_vs_0)}`,
+      m.applied
+        ? '  The other assays are corrected by it (W divided by its mean W, r minus its mean r).'
+        : '  Not applied to the other assays (use --correct-marker).',
+    );
+  }
+  if (a.reciprocal.length > 0) {
+    out.push('', 'Reciprocal pairs (mean per marker, then the average of the marker means)');
+    out.push(
+      table(
+        ['line', 'gen', 'by marker', 'mean W', 'mean r'],
+        a.reciprocal.map((r) => [
+          r.line,
+          String(r.generation),
+          r.byMarker.map((m) => `${m.marker}: ${m.meanW.toFixed(4)} (n=${m.n})`).join('; '),
+          f(r.meanW),
+          f(r.meanR),
+        ]),
+      ),
+    );
+  }
+  if (a.comparison) out.push('', comparisonText(a.comparison));
+  for (const t of a.trajectories) {
+    out.push('', `Trajectory of ${t.line} (${t.points.length} assays; w against generations)`);
+    out.push(
+      table(
+        ['model', 'parameters ± SE', 'resid SE', 'AIC', 'BIC', 'k'],
+        [
+          modelRow(t.hyperbolic, 'hyperbolic  w = 1 + a·t/(t + b)'),
+          modelRow(t.powerLaw, 'power law   w = (b·t + 1)^a'),
+          modelRow(t.step, 'step        piecewise constant'),
+        ],
+      ),
+    );
+    const best = t.ranking[0];
+    if (best) {
+      const next = t.ranking[1];
+      out.push(
+        `  lowest AIC: ${best.model}${next ? ` (next: ${next.model}, ΔAIC ${next.deltaAic.toFixed(2)})` : ''}`,
+      );
+    }
+  }
+  return `${out.join('\n')}\n`;
+}

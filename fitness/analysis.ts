@@ -1,0 +1,267 @@
+/**
+ * A whole experiment: every assay, replicate groups, the marker effect, reciprocal pairs, group
+ * comparisons and per-line trajectories.
+ */
+import {
+  type AssayInput,
+  type AssayOptions,
+  type AssayResult,
+  computeAssay,
+} from './competition.ts';
+import { FitnessError } from './errors.ts';
+import {
+  type Anova,
+  oneSampleTTest,
+  oneWayAnova,
+  type Summary,
+  summarise,
+  type TTest,
+  welchTTest,
+} from './replicate-stats.ts';
+import {
+  type CurveFit,
+  fitHyperbolic,
+  fitPowerLaw,
+  fitStep,
+  type ModelFailure,
+  type StepFit,
+} from './trajectories.ts';
+
+export const DEFAULT_MARKER_CONTROL_GROUP = 'marker-control';
+
+export interface AnalysisOptions extends AssayOptions {
+  /** Group whose assays compete the reference against itself with the other marker. */
+  markerControlGroup?: string;
+  /**
+   * Divide each other assay's W by the marker controls' mean W and subtract their mean r
+   * (off by default). Needs at least one marker-control assay.
+   */
+  correctMarker?: boolean;
+  /** Groups to compare; default all groups except the marker controls. */
+  compare?: string[];
+  maxChangePoints?: number;
+}
+
+export interface GroupResult {
+  group: string;
+  W: Summary;
+  W_vs_1: TTest | null;
+  r: Summary;
+  r_vs_0: TTest | null;
+}
+
+export interface MarkerEffect {
+  group: string;
+  n: number;
+  W: Summary;
+  W_vs_1: TTest | null;
+  r: Summary;
+  r_vs_0: TTest | null;
+  /** True when the other assays were corrected by it. */
+  applied: boolean;
+}
+
+export interface ReciprocalResult {
+  line: string;
+  generation: number;
+  /** Mean W per marker the test strain carried. */
+  byMarker: { marker: string; n: number; meanW: number; meanR: number }[];
+  /** Average of the per-marker means: each marker weighs the same. */
+  meanW: number;
+  meanR: number;
+}
+
+export interface Comparison {
+  groups: string[];
+  test: 'welch' | 'anova';
+  W: TTest | Anova | null;
+  r: TTest | Anova | null;
+}
+
+export interface LineTrajectory {
+  line: string;
+  points: { generation: number; w: number; assay: string }[];
+  hyperbolic: CurveFit | ModelFailure;
+  powerLaw: CurveFit | ModelFailure;
+  step: StepFit | ModelFailure;
+  /** Fitted models ranked by AIC, with differences from the best. */
+  ranking: { model: string; aic: number; bic: number; deltaAic: number; deltaBic: number }[];
+}
+
+export interface Uncorrected {
+  W: number;
+  r: number;
+  W_ci: [number, number] | null;
+}
+
+export interface AnalysedAssay extends AssayResult {
+  /** Present when the marker correction was applied: the values before it. */
+  uncorrected?: Uncorrected;
+}
+
+export interface Analysis {
+  assays: AnalysedAssay[];
+  errors: { assay: string; message: string }[];
+  groups: GroupResult[];
+  markerEffect: MarkerEffect | null;
+  reciprocal: ReciprocalResult[];
+  comparison: Comparison | null;
+  trajectories: LineTrajectory[];
+}
+
+function by<T>(items: readonly T[], key: (t: T) => string): Map<string, T[]> {
+  const map = new Map<string, T[]>();
+  for (const item of items) {
+    const k = key(item);
+    const list = map.get(k);
+    if (list) list.push(item);
+    else map.set(k, [item]);
+  }
+  return map;
+}
+
+function groupResult(group: string, assays: readonly AssayResult[]): GroupResult {
+  const W = assays.map((a) => a.W);
+  const r = assays.map((a) => a.r);
+  return {
+    group,
+    W: summarise(W),
+    W_vs_1: oneSampleTTest(W, 1),
+    r: summarise(r),
+    r_vs_0: oneSampleTTest(r, 0),
+  };
+}
+
+function applyMarkerCorrection(a: AssayResult, meanW: number, meanR: number): AnalysedAssay {
+  const W = a.W / meanW;
+  const r = a.r - meanR;
+  return {
+    ...a,
+    W,
+    r,
+    rPerDay: r / a.days,
+    sPerGeneration: r / a.generationsRef,
+    W_ci: a.W_ci ? [a.W_ci[0] / meanW, a.W_ci[1] / meanW] : null,
+    countingSe: { ...a.countingSe, W: a.countingSe.W / meanW },
+    uncorrected: { W: a.W, r: a.r, W_ci: a.W_ci },
+    flags: [
+      ...a.flags,
+      {
+        code: 'marker-corrected',
+        message: `corrected for the marker effect: W ${a.W.toFixed(4)} / ${meanW.toFixed(4)}, r ${a.r.toFixed(4)} − ${meanR.toFixed(4)}`,
+      },
+    ],
+  };
+}
+
+function trajectory(
+  line: string,
+  assays: readonly AssayResult[],
+  maxChangePoints: number,
+): LineTrajectory {
+  const points = assays.map((a) => ({ generation: a.generation, w: a.W, assay: a.assay }));
+  const hyperbolic = fitHyperbolic(points);
+  const powerLaw = fitPowerLaw(points);
+  const step = fitStep(points, maxChangePoints);
+  const fitted = [hyperbolic, powerLaw, step].filter((m): m is CurveFit | StepFit => 'aic' in m);
+  const bestAic = Math.min(...fitted.map((m) => m.aic));
+  const bestBic = Math.min(...fitted.map((m) => m.bic));
+  const ranking = fitted
+    .map((m) => ({
+      model: m.model,
+      aic: m.aic,
+      bic: m.bic,
+      deltaAic: m.aic - bestAic,
+      deltaBic: m.bic - bestBic,
+    }))
+    .sort((a, b) => a.aic - b.aic);
+  return { line, points, hyperbolic, powerLaw, step, ranking };
+}
+
+export function analyse(inputs: readonly AssayInput[], options: AnalysisOptions = {}): Analysis {
+  const controlGroup = options.markerControlGroup ?? DEFAULT_MARKER_CONTROL_GROUP;
+  const errors: Analysis['errors'] = [];
+  const raw: AssayResult[] = [];
+  for (const input of inputs) {
+    try {
+      raw.push(computeAssay(input, options));
+    } catch (e) {
+      if (!(e instanceof FitnessError)) throw e;
+      errors.push({ assay: input.assay, message: e.message });
+    }
+  }
+  const controls = raw.filter((a) => a.group === controlGroup);
+  let markerEffect: MarkerEffect | null = null;
+  let assays: AnalysedAssay[] = raw;
+  if (controls.length > 0) {
+    const g = groupResult(controlGroup, controls);
+    markerEffect = { ...g, n: controls.length, applied: Boolean(options.correctMarker) };
+    if (options.correctMarker) {
+      assays = raw.map((a) =>
+        a.group === controlGroup ? a : applyMarkerCorrection(a, g.W.mean, g.r.mean),
+      );
+    }
+  } else if (options.correctMarker) {
+    throw new FitnessError(
+      `marker correction asked for, but no assay of group "${controlGroup}" could be computed`,
+    );
+  }
+  const groups = [...by(assays, (a) => a.group)].map(([group, list]) => groupResult(group, list));
+  const tested = assays.filter((a) => a.group !== controlGroup);
+
+  const compareNames = options.compare ?? [...new Set(tested.map((a) => a.group))];
+  const byGroup = by(assays, (a) => a.group);
+  for (const name of compareNames) {
+    if (!byGroup.has(name))
+      throw new FitnessError(`no computed assay in group "${name}" to compare`);
+  }
+  let comparison: Comparison | null = null;
+  const values = (field: 'W' | 'r') =>
+    compareNames.map((name) => byGroup.get(name)!.map((a) => a[field]));
+  if (compareNames.length === 2) {
+    const [wa, wb] = values('W') as [number[], number[]];
+    const [ra, rb] = values('r') as [number[], number[]];
+    comparison = {
+      groups: compareNames,
+      test: 'welch',
+      W: welchTTest(wa, wb),
+      r: welchTTest(ra, rb),
+    };
+  } else if (compareNames.length > 2) {
+    comparison = {
+      groups: compareNames,
+      test: 'anova',
+      W: oneWayAnova(values('W')),
+      r: oneWayAnova(values('r')),
+    };
+  }
+
+  const reciprocal: ReciprocalResult[] = [];
+  for (const list of by(
+    tested.filter((a) => a.testMarker),
+    (a) => `${a.line}\u0000${a.generation}`,
+  ).values()) {
+    const markers = by(list, (a) => a.testMarker!);
+    if (markers.size < 2) continue;
+    const byMarker = [...markers].map(([marker, ms]) => ({
+      marker,
+      n: ms.length,
+      meanW: ms.reduce((s, a) => s + a.W, 0) / ms.length,
+      meanR: ms.reduce((s, a) => s + a.r, 0) / ms.length,
+    }));
+    reciprocal.push({
+      line: list[0]!.line,
+      generation: list[0]!.generation,
+      byMarker,
+      meanW: byMarker.reduce((s, m) => s + m.meanW, 0) / byMarker.length,
+      meanR: byMarker.reduce((s, m) => s + m.meanR, 0) / byMarker.length,
+    });
+  }
+
+  const trajectories: LineTrajectory[] = [];
+  for (const [line, list] of by(tested, (a) => a.line)) {
+    if (new Set(list.map((a) => a.generation)).size < 2) continue;
+    trajectories.push(trajectory(line, list, options.maxChangePoints ?? 3));
+  }
+  return { assays, errors, groups, markerEffect, reciprocal, comparison, trajectories };
+}

@@ -1,0 +1,169 @@
+/**
+ * The analysis as one plain JSON document (snake_case keys, null for a statistic that does not
+ * exist). This is the `rivalplate fitness --json` output; README "Fitness from a CSV" lists it.
+ */
+import type { Analysis, Comparison, LineTrajectory } from './analysis.ts';
+import type { Anova, Summary, TTest } from './replicate-stats.ts';
+import type { CurveFit, ModelFailure, StepFit } from './trajectories.ts';
+
+const summaryFields = (prefix: string, s: Summary, test: TTest | null, mu0: number) => ({
+  [`mean_${prefix}`]: s.mean,
+  [`sd_${prefix}`]: s.sd,
+  [`se_${prefix}`]: s.se,
+  [`ci_${prefix}`]: s.ci,
+  [`t_${prefix}_vs_${mu0}`]: test?.t ?? null,
+  [`df_${prefix}_vs_${mu0}`]: test?.df ?? null,
+  [`p_${prefix}_vs_${mu0}`]: test?.p ?? null,
+});
+
+function testJson(test: TTest | Anova | null) {
+  if (test === null) return null;
+  if ('f' in test)
+    return { F: test.f, df_between: test.dfBetween, df_within: test.dfWithin, p: test.p };
+  return { t: test.t, df: test.df, p: test.p };
+}
+
+function comparisonJson(c: Comparison | null) {
+  if (c === null) return null;
+  return { groups: c.groups, test: c.test, W: testJson(c.W), r: testJson(c.r) };
+}
+
+function fitJson(m: CurveFit | StepFit | ModelFailure) {
+  if ('reason' in m) return { fitted: false, reason: m.reason };
+  const common = {
+    fitted: true,
+    n: m.n,
+    k: m.k,
+    rss: m.rss,
+    residual_se: m.residualSe,
+    log_lik: m.logLik,
+    AIC: m.aic,
+    BIC: m.bic,
+    residuals: m.residuals,
+  };
+  if (m.model === 'step') {
+    return {
+      ...common,
+      change_points: m.changePoints,
+      steps: m.steps,
+      segments: m.segments,
+      bic_by_change_points: m.bicByChangePoints.map((b) => ({
+        change_points: b.changePoints,
+        BIC: b.bic,
+      })),
+    };
+  }
+  return {
+    ...common,
+    formula: m.formula,
+    converged: m.converged,
+    parameters: Object.fromEntries(m.parameters.map((p) => [p.name, p.estimate])),
+    standard_errors: Object.fromEntries(m.parameters.map((p) => [p.name, p.se])),
+    poorly_determined: m.parameters.filter((p) => p.poorlyDetermined).map((p) => p.name),
+  };
+}
+
+function trajectoryJson(t: LineTrajectory) {
+  return {
+    line: t.line,
+    points: t.points,
+    models: {
+      hyperbolic: fitJson(t.hyperbolic),
+      power_law: fitJson(t.powerLaw),
+      step: fitJson(t.step),
+    },
+    ranking: t.ranking.map((r) => ({
+      model: r.model,
+      AIC: r.aic,
+      BIC: r.bic,
+      delta_AIC: r.deltaAic,
+      delta_BIC: r.deltaBic,
+    })),
+  };
+}
+
+export function analysisJson(analysis: Analysis) {
+  return {
+    assays: analysis.assays.map((a) => ({
+      assay: a.assay,
+      group: a.group,
+      line: a.line,
+      generation: a.generation,
+      replicate: a.replicate,
+      ...(a.testMarker ? { test_marker: a.testMarker } : {}),
+      W: a.W,
+      r: a.r,
+      r_per_day: a.rPerDay,
+      m_test: a.mTest,
+      m_ref: a.mRef,
+      s_per_generation: a.sPerGeneration,
+      generations_ref: a.generationsRef,
+      D: a.D,
+      days: a.days,
+      W_ci: a.W_ci,
+      se_counting: {
+        W: a.countingSe.W,
+        r: a.countingSe.r,
+        m_test: a.countingSe.mTest,
+        m_ref: a.countingSe.mRef,
+      },
+      densities: Object.fromEntries(
+        (['start', 'end'] as const).map((s) => [
+          s,
+          {
+            test_cfu_per_ml: a[s].test.cfuPerMl,
+            test_ci95: a[s].test.ci95,
+            reference_cfu_per_ml: a[s].reference.cfuPerMl,
+            reference_ci95: a[s].reference.ci95,
+            test_colonies: a[s].test.colonies,
+            reference_colonies: a[s].reference.colonies,
+            plates: a[s].plates,
+          },
+        ]),
+      ),
+      ...(a.uncorrected ? { uncorrected: a.uncorrected } : {}),
+      flags: a.flags,
+    })),
+    errors: analysis.errors,
+    groups: analysis.groups.map((g) => ({
+      group: g.group,
+      n: g.W.n,
+      ...summaryFields('W', g.W, g.W_vs_1, 1),
+      ...summaryFields('r', g.r, g.r_vs_0, 0),
+    })),
+    marker_effect: analysis.markerEffect && {
+      group: analysis.markerEffect.group,
+      n: analysis.markerEffect.n,
+      applied: analysis.markerEffect.applied,
+      ...summaryFields('W', analysis.markerEffect.W, analysis.markerEffect.W_vs_1, 1),
+      ...summaryFields('r', analysis.markerEffect.r, analysis.markerEffect.r_vs_0, 0),
+    },
+    reciprocal: analysis.reciprocal.map((r) => ({
+      line: r.line,
+      generation: r.generation,
+      by_marker: r.byMarker.map((m) => ({
+        marker: m.marker,
+        n: m.n,
+        mean_W: m.meanW,
+        mean_r: m.meanR,
+      })),
+      mean_W: r.meanW,
+      mean_r: r.meanR,
+    })),
+    comparison: comparisonJson(analysis.comparison),
+    trajectories: analysis.trajectories.map(trajectoryJson),
+  };
+}
+
+/** Throws if a number anywhere in the document is NaN or ±Infinity (JSON would turn it to null). */
+export function assertAllFinite(value: unknown, path = '$'): void {
+  if (typeof value === 'number') {
+    if (!Number.isFinite(value)) throw new Error(`non-finite number at ${path}: ${value}`);
+  } else if (Array.isArray(value)) {
+    value.forEach((v, i) => {
+      assertAllFinite(v, `${path}[${i}]`);
+    });
+  } else if (value && typeof value === 'object') {
+    for (const [k, v] of Object.entries(value)) assertAllFinite(v, `${path}.${k}`);
+  }
+}
