@@ -93,6 +93,23 @@ export function plateDensity(colonies: number, dilutionFold: number, volumeMl: n
   return (colonies * dilutionFold) / volumeMl;
 }
 
+/**
+ * Pooled density of several plates of one sample: ΣC / Σ(V_i / f_i) CFU/mL. For equal volumes at
+ * two successive ten-fold dilutions this is the plate-count weighted mean ΣC / (V·(n1 + 0.1·n2)·d).
+ */
+export function pooledCfuPerMl(
+  plates: readonly { colonies: number; dilutionFold: number; volumeMl: number }[],
+): number {
+  let colonies = 0;
+  let cultureMl = 0;
+  for (const p of plates) {
+    colonies += p.colonies;
+    cultureMl += p.volumeMl / p.dilutionFold;
+  }
+  if (!(cultureMl > 0)) throw new FitnessError('no plated volume to pool');
+  return colonies / cultureMl;
+}
+
 /** Called only with colonies > 0 (sampleDensity checks). */
 function strainDensity(colonies: number, cultureMl: number): StrainDensity {
   const [lo, hi] = poissonExactInterval(colonies);

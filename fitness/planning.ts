@@ -156,12 +156,26 @@ export function planReplicates(request: ReplicatesRequest): ReplicatesPlan {
   const observed = request.observedCountingSe ?? 0;
   const betweenAssaySd = Math.sqrt(Math.max(0, assaySd ** 2 - observed ** 2));
   const sd = Math.sqrt(betweenAssaySd ** 2 + countingSe ** 2);
-  const c = request.design === 'two-sample' ? 2 : 1;
+  const n = replicatesNeeded(difference, sd, request.design ?? 'one-sample', alpha, power);
+  return { n, sdPerAssay: sd, countingSe, betweenAssaySd };
+}
+
+/**
+ * Smallest n with |δ| ≥ (t(1 − α/2; ν) + t(power; ν))·σ·√(c/n) (see planReplicates). At least 2.
+ */
+export function replicatesNeeded(
+  difference: number,
+  sd: number,
+  design: 'one-sample' | 'two-sample',
+  alpha = 0.05,
+  power = 0.8,
+): number {
+  const c = design === 'two-sample' ? 2 : 1;
   for (let n = 2; n <= 100_000; n++) {
     const df = c === 2 ? 2 * n - 2 : n - 1;
     const needed =
       (studentTQuantile(1 - alpha / 2, df) + studentTQuantile(power, df)) * sd * Math.sqrt(c / n);
-    if (Math.abs(difference) >= needed) return { n, sdPerAssay: sd, countingSe, betweenAssaySd };
+    if (Math.abs(difference) >= needed) return n;
   }
   throw new FitnessError('replicates planner: more than 100,000 assays would be needed');
 }

@@ -1,0 +1,133 @@
+import { describe, expect, it } from 'vitest';
+import { type AssayInput, computeAssay } from './competition.ts';
+import type { Plate } from './densities.ts';
+
+const plate = (label: string, fold: number, test: number, ref: number): Plate => ({
+  label,
+  dilutionFold: fold,
+  volumeMl: 0.1,
+  testColonies: test,
+  referenceColonies: ref,
+});
+
+function assay(start: Plate[], end: Plate[], D: number, days = 1): AssayInput {
+  return {
+    assay: 'A1',
+    group: 'g',
+    line: 'L1',
+    generation: 500,
+    replicate: '1',
+    days,
+    foldDilutionSinceStart: D,
+    start,
+    end,
+  };
+}
+
+describe('computeAssay', () => {
+  it('reproduces the worked example of shared/check-values.md §3', () => {
+    // Start 50 test and 50 reference colonies, end 60 and 40, same dilution, D = 100 (values
+    // computed there by arithmetic, not published): W = ln 120 / ln 80 = 1.092529,
+    // r = ln 1.5 = 0.405465, s = 0.064136 per generation of the reference.
+    const a = computeAssay(
+      assay([plate('row 2', 1e4, 50, 50)], [plate('row 3', 1e4, 60, 40)], 100),
+    );
+    expect(a.mTest).toBeCloseTo(Math.log(120), 12);
+    expect(a.mRef).toBeCloseTo(Math.log(80), 12);
+    expect(a.W).toBeCloseTo(1.092529, 6);
+    expect(a.r).toBeCloseTo(0.405465, 6);
+    expect(a.sPerGeneration).toBeCloseTo(0.064136, 6);
+    expect(a.sPerGeneration).toBeCloseTo((a.W - 1) * Math.LN2, 12);
+    expect(a.generationsRef).toBeCloseTo(Math.log2(80), 12);
+    expect(a.flags).toEqual([]);
+  });
+
+  it('uses densities, so the dilutions of the start and end plates matter', () => {
+    // 1:10⁴ at the start, 1:10⁶ at the end: 100-fold growth of the reference.
+    const a = computeAssay(
+      assay([plate('row 2', 1e4, 80, 100)], [plate('row 3', 1e6, 120, 100)], 1, 1),
+    );
+    expect(a.mRef).toBeCloseTo(Math.log(100), 12);
+    expect(a.mTest).toBeCloseTo(Math.log(150), 12);
+    expect(a.rPerDay).toBe(a.r);
+  });
+
+  it('lets D enter W but cancel in r', () => {
+    const start = [plate('row 2', 1e4, 80, 100)];
+    const end = [plate('row 3', 1e4, 120, 100)];
+    const one = computeAssay(assay(start, end, 100, 1));
+    const two = computeAssay(assay(start, end, 1e4, 2));
+    expect(two.r).toBeCloseTo(one.r, 12);
+    expect(two.W).not.toBeCloseTo(one.W, 3);
+    expect(two.rPerDay).toBeCloseTo(one.r / 2, 12);
+  });
+
+  it('carries counting noise: delta-method SE and a bootstrap interval that agree for large counts', () => {
+    const a = computeAssay(
+      assay(
+        [plate('row 2', 1e3, 2000, 2100), plate('row 3', 1e3, 1900, 2050)],
+        [plate('row 4', 1e5, 2600, 1800)],
+        1,
+      ),
+    );
+    const varMTest = 1 / 3900 + 1 / 2600;
+    const varMRef = 1 / 4150 + 1 / 1800;
+    expect(a.countingSe.r).toBeCloseTo(Math.sqrt(varMTest + varMRef), 12);
+    expect(a.countingSe.W).toBeCloseTo(Math.sqrt(varMTest + a.W ** 2 * varMRef) / a.mRef, 12);
+    const [lo, hi] = a.W_ci!;
+    expect(lo).toBeLessThan(a.W);
+    expect(hi).toBeGreaterThan(a.W);
+    // Large counts: the percentile interval is close to W ± 1.96·SE (within 10 % in width).
+    expect((hi - lo) / (2 * 1.959964 * a.countingSe.W)).toBeGreaterThan(0.9);
+    expect((hi - lo) / (2 * 1.959964 * a.countingSe.W)).toBeLessThan(1.1);
+    // Fixed seed: the same interval every time; another seed gives a slightly different one.
+    const input = assay(
+      [plate('row 2', 1e3, 2000, 2100), plate('row 3', 1e3, 1900, 2050)],
+      [plate('row 4', 1e5, 2600, 1800)],
+      1,
+    );
+    const again = computeAssay(input);
+    const reseeded = computeAssay(input, { seed: 1 });
+    expect(reseeded.W_ci).not.toEqual(a.W_ci);
+    expect(Math.abs(reseeded.W_ci![0] - lo)).toBeLessThan(0.1 * (hi - lo));
+    expect(again.W_ci).toEqual(a.W_ci);
+  });
+
+  it('gives no interval, flagged, when the counts are too small for one', () => {
+    const a = computeAssay(assay([plate('row 2', 10, 1, 1)], [plate('row 3', 1000, 1, 1)], 1));
+    expect(a.W_ci).toBeNull();
+    expect(a.flags.map((f) => f.code)).toContain('ci-undefined');
+    expect(Number.isFinite(a.W)).toBe(true);
+  });
+
+  it('reports a declining test strain as a flagged result', () => {
+    const a = computeAssay(
+      assay([plate('row 2', 1e4, 100, 100)], [plate('row 3', 1e4, 40, 200)], 1),
+    );
+    expect(a.mTest).toBeLessThan(0);
+    expect(a.W).toBeLessThan(0);
+    expect(a.flags.map((f) => f.code)).toContain('test-declined');
+  });
+
+  it('names the assay and the plates when W is undefined or a count is zero', () => {
+    expect(() =>
+      computeAssay(assay([plate('row 2', 1e4, 100, 100)], [plate('row 3', 1e4, 150, 90)], 1)),
+    ).toThrow(/assay A1: the reference did not grow .*row 2, row 3/);
+    expect(() =>
+      computeAssay(assay([plate('row 2', 1e4, 100, 100)], [plate('row 3', 1e6, 0, 90)], 1)),
+    ).toThrow(/assay A1, end sample: no test colony on row 3/);
+    expect(() =>
+      computeAssay(assay([plate('row 2', 1e4, 100, 100)], [plate('row 3', 1e6, 10, 90)], 0.5)),
+    ).toThrow(/assay A1: fold dilution since start/);
+    expect(() =>
+      computeAssay(assay([plate('row 2', 1e4, 100, 100)], [plate('row 3', 1e6, 10, 90)], 1, 0)),
+    ).toThrow(/assay A1: days/);
+  });
+
+  it('flags plates outside the countable range with the range named', () => {
+    const a = computeAssay(assay([plate('row 2', 1e4, 10, 9)], [plate('row 3', 1e6, 150, 120)], 1));
+    expect(a.flags[0]).toMatchObject({ code: 'out-of-range' });
+    expect(a.flags[0]!.message).toMatch(/FDA BAM ch\. 3 \(25–250\).*row 2 \(19, too-few\)/);
+    expect(a.flags[0]!.message).not.toMatch(/row 3/);
+  });
+});

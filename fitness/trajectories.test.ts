@@ -1,0 +1,165 @@
+import { describe, expect, it } from 'vitest';
+import {
+  type CurveFit,
+  fitHyperbolic,
+  fitPowerLaw,
+  fitStep,
+  leastSquaresLogLik,
+  type StepFit,
+  type TrajectoryPoint,
+} from './trajectories.ts';
+
+const gens = [0, 500, 1000, 1500, 2000, 5000, 10000];
+const ws = [1.0, 1.08, 1.15, 1.19, 1.21, 1.3, 1.36, 0.98, 1.1, 1.13, 1.22, 1.19, 1.33, 1.34];
+const points: TrajectoryPoint[] = ws.map((w, i) => ({ generation: gens[i % 7]!, w }));
+
+const fitted = (m: unknown): CurveFit => {
+  if (!m || typeof m !== 'object' || !('parameters' in m))
+    throw new Error(`not fitted: ${JSON.stringify(m)}`);
+  return m as CurveFit;
+};
+
+// Reference fits computed once with SciPy 1.10.1 (Debian bookworm python3-scipy):
+//   scipy.optimize.curve_fit(f, t, w, p0=..., xtol=ftol=gtol=1e-15) for
+//   f = 1 + a·t/(t + b) (p0 = [0.4, 2000]) and f = (b·t + 1)**a (p0 = [0.08, 0.005]);
+//   SE = sqrt(diag(pcov)); AIC and BIC from logLik = −n/2·(ln 2π + 1 + ln(RSS/n)) with k = 3.
+describe('curve fits against SciPy curve_fit', () => {
+  it('hyperbolic model', () => {
+    const m = fitted(fitHyperbolic(points));
+    expect(m.parameters[0]!.estimate).toBeCloseTo(0.42019696162871045, 6);
+    expect(m.parameters[1]!.estimate / 1866.3851675853907).toBeCloseTo(1, 6);
+    expect(m.parameters[0]!.se).toBeCloseTo(0.018491274638281163, 6);
+    expect(m.parameters[1]!.se / 220.65115395696162).toBeCloseTo(1, 5);
+    expect(m.rss).toBeCloseTo(0.003620417335002043, 12);
+    expect(m.aic).toBeCloseTo(-69.9128473191636, 6);
+    expect(m.bic).toBeCloseTo(-67.99567533031782, 6);
+    expect(m.k).toBe(3);
+    expect(m.converged).toBe(true);
+    expect(m.parameters.some((p) => p.poorlyDetermined)).toBe(false);
+  });
+
+  it('power-law model', () => {
+    const m = fitted(fitPowerLaw(points));
+    expect(m.parameters[0]!.estimate).toBeCloseTo(0.08025038602164089, 7);
+    expect(m.parameters[1]!.estimate / 0.004751680725065566).toBeCloseTo(1, 5);
+    expect(m.parameters[0]!.se).toBeCloseTo(0.0072176653465711085, 7);
+    expect(m.parameters[1]!.se / 0.0012964784243318255).toBeCloseTo(1, 5);
+    expect(m.aic).toBeCloseTo(-65.09349755269926, 6);
+    expect(m.bic).toBeCloseTo(-63.17632556385349, 6);
+  });
+
+  it('the log-likelihood is the one statsmodels reports for least squares', () => {
+    // statsmodels 0.13.5 (Debian python3-statsmodels): sm.OLS(y, ones).fit().llf for
+    // y = [1.0, 1.08, 1.15, 1.19, 1.21, 1.30, 1.36] is 5.268350066536355.
+    const y = [1.0, 1.08, 1.15, 1.19, 1.21, 1.3, 1.36];
+    const mean = y.reduce((s, v) => s + v, 0) / y.length;
+    const rss = y.reduce((s, v) => s + (v - mean) ** 2, 0);
+    expect(leastSquaresLogLik(rss, y.length)).toBeCloseTo(5.268350066536355, 10);
+  });
+
+  it('recovers known parameters from exact-model data with small noise', () => {
+    // Point checks (check-values §4): hyp(1000; a = 0.5, b = 1000) = 1.25,
+    // pow(1000; a = 0.1, b = 0.01) = 11^0.1 = 1.270982.
+    const noise = [0.002, -0.001, 0.0015, -0.002, 0.001, -0.0005, 0.0008, -0.0012];
+    const ts = [0, 250, 500, 1000, 2000, 3000, 5000, 8000];
+    const hyp = fitted(
+      fitHyperbolic(
+        ts.map((t, i) => ({ generation: t, w: 1 + (0.5 * t) / (t + 1000) + noise[i]! })),
+      ),
+    );
+    expect(hyp.parameters[0]!.estimate).toBeCloseTo(0.5, 1);
+    expect(hyp.parameters[1]!.estimate / 1000).toBeCloseTo(1, 1);
+    const pow = fitted(
+      fitPowerLaw(ts.map((t, i) => ({ generation: t, w: (0.01 * t + 1) ** 0.1 + noise[i]! }))),
+    );
+    expect(pow.parameters[0]!.estimate).toBeCloseTo(0.1, 1);
+    expect((0.01 * 1000 + 1) ** 0.1).toBeCloseTo(1.270982, 6);
+  });
+
+  it('says when a parameter is poorly determined, and when a model cannot be fitted', () => {
+    // Flat, noisy data: the curvature b is not identified.
+    const flat = [0, 500, 1000, 1500, 2000].flatMap((t, i) => [
+      { generation: t, w: 1.1 + (i % 2 ? 0.03 : -0.03) },
+      { generation: t, w: 1.1 + (i % 2 ? -0.02 : 0.02) },
+    ]);
+    const m = fitted(fitHyperbolic(flat));
+    expect(m.parameters.some((p) => p.poorlyDetermined)).toBe(true);
+    expect(fitHyperbolic(points.slice(0, 2))).toMatchObject({
+      model: 'hyperbolic',
+      reason: expect.any(String),
+    });
+    expect(
+      fitPowerLaw([
+        { generation: 500, w: 1.1 },
+        { generation: 500, w: 1.2 },
+        { generation: 500, w: 1.15 },
+      ]),
+    ).toMatchObject({
+      reason: expect.stringContaining('2 generations'),
+    });
+  });
+});
+
+/** All segmentations with k change points between distinct generations, by brute force. */
+function bruteForceRss(data: TrajectoryPoint[], k: number): number {
+  const distinct = [...new Set(data.map((p) => p.generation))].sort((x, y) => x - y);
+  let best = Number.POSITIVE_INFINITY;
+  const choose = (from: number, left: number, cuts: number[]) => {
+    if (left === 0) {
+      const bounds = [
+        Number.NEGATIVE_INFINITY,
+        ...cuts.map((c) => distinct[c]!),
+        Number.POSITIVE_INFINITY,
+      ];
+      let rss = 0;
+      for (let s = 0; s + 1 < bounds.length; s++) {
+        const seg = data.filter((p) => p.generation >= bounds[s]! && p.generation < bounds[s + 1]!);
+        const m = seg.reduce((acc, p) => acc + p.w, 0) / seg.length;
+        rss += seg.reduce((acc, p) => acc + (p.w - m) ** 2, 0);
+      }
+      best = Math.min(best, rss);
+      return;
+    }
+    for (let c = from; c < distinct.length; c++) choose(c + 1, left - 1, [...cuts, c]);
+  };
+  choose(1, k, []);
+  return best;
+}
+
+describe('step model', () => {
+  it('finds the optimal segmentation (checked by brute force) and picks k by BIC', () => {
+    const data: TrajectoryPoint[] = [
+      0, 0, 250, 250, 500, 500, 750, 750, 1000, 1000, 1500, 1500, 2000, 2000,
+    ].map((t, i) => ({
+      generation: t,
+      w:
+        (t < 600 ? 1.05 : t < 1200 ? 1.2 : 1.32) +
+        (i % 3 === 0 ? 0.01 : i % 3 === 1 ? -0.008 : 0.003),
+    }));
+    const fit = fitStep(data, 3) as StepFit;
+    expect(fit.model).toBe('step');
+    expect(fit.changePoints).toBe(2);
+    expect(fit.steps).toEqual([
+      { after: 500, before: 750 },
+      { after: 1000, before: 1500 },
+    ]);
+    expect(fit.rss).toBeCloseTo(bruteForceRss(data, 2), 12);
+    for (const b of fit.bicByChangePoints) {
+      const rss = bruteForceRss(data, b.changePoints);
+      const p = 2 * b.changePoints + 2;
+      expect(b.bic).toBeCloseTo(
+        -2 * leastSquaresLogLik(rss, data.length) + p * Math.log(data.length),
+        8,
+      );
+    }
+    expect(fit.segments.map((s) => s.w.toFixed(2))).toEqual(['1.05', '1.20', '1.32']);
+    expect(fit.residuals).toHaveLength(data.length);
+  });
+
+  it('keeps replicates of one generation together and copes with unordered input', () => {
+    const data = points.slice().reverse();
+    const fit = fitStep(data) as StepFit;
+    expect(fit.rss).toBeCloseTo(bruteForceRss(data, fit.changePoints), 12);
+    for (const s of fit.steps) expect(s.after).toBeLessThan(s.before);
+  });
+});
