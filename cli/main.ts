@@ -15,6 +15,10 @@ const COMMANDS: Record<string, Command> = {
     summary: 'relative fitness, replicate statistics and trajectories from a CSV of plate counts',
     load: () => import('./fitness-command.ts'),
   },
+  server: {
+    summary: "the lab's sync server (start), and its labs and tokens (add-lab, add-token)",
+    load: () => import('./server-command.ts'),
+  },
 };
 
 function usage(): string {

@@ -16,7 +16,7 @@ const MAY_IMPORT: Record<string, string[]> = {
   worker: ['worker', 'cv'],
   web: ['web', 'worker', 'fitness', 'schema'],
   server: ['server', 'fitness', 'schema'],
-  cli: ['cli', 'cv', 'fitness', 'schema'],
+  cli: ['cli', 'cv', 'fitness', 'schema', 'server'],
 };
 const FORBIDDEN_PACKAGES: Record<string, RegExp> = {
   cv: /^(react|react-dom|idb|comlink|workbox-|sharp|node:)/,

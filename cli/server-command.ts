@@ -1,0 +1,167 @@
+/**
+ * `rivalplate server ...`: run the lab's sync server and manage its labs and tokens.
+ *
+ *   server start [--port N] [--host H] [--data DIR] [--app DIR] [--tls-cert F --tls-key F]
+ *                [--max-db-mb N]
+ *   server add-lab NAME [--no-photos] [--photo-max-mb N]
+ *   server add-token LAB
+ */
+import { readFileSync } from 'node:fs';
+import { resolve } from 'node:path';
+import { parseArgs } from 'node:util';
+import { buildSyncServer } from '../server/app.ts';
+import { openDataFolder } from '../server/data-folder.ts';
+import { SyncRefusal } from '../server/refusal.ts';
+import { newToken, tokenHash } from '../server/tokens.ts';
+import type { CommandIo } from './io.ts';
+
+const USAGE = `Usage:
+  rivalplate server start [--port 8640] [--host 127.0.0.1] [--data DIR] [--app DIR]
+                          [--tls-cert FILE --tls-key FILE] [--max-db-mb N]
+  rivalplate server add-lab NAME [--no-photos] [--photo-max-mb 20] [--data DIR]
+  rivalplate server add-token LAB [--data DIR]`;
+
+const DEFAULT_DATA = 'rivalplate-data';
+const DEFAULT_PORT = 8640;
+const MB = 1024 * 1024;
+
+/** A whole number option, or an error message naming it. */
+function wholeNumber(name: string, text: string | undefined, fallback: number): number | string {
+  if (text === undefined) return fallback;
+  const n = Number(text);
+  return Number.isInteger(n) && n > 0
+    ? n
+    : `--${name} expects a whole number above 0, got "${text}"`;
+}
+
+async function start(args: string[], io: CommandIo): Promise<number> {
+  const { values } = parseArgs({
+    args,
+    options: {
+      port: { type: 'string' },
+      host: { type: 'string', default: '127.0.0.1' },
+      data: { type: 'string', default: DEFAULT_DATA },
+      app: { type: 'string', default: 'dist' },
+      'tls-cert': { type: 'string' },
+      'tls-key': { type: 'string' },
+      'max-db-mb': { type: 'string' },
+    },
+  });
+  const port = wholeNumber('port', values.port, DEFAULT_PORT);
+  const maxMb = wholeNumber('max-db-mb', values['max-db-mb'], 0);
+  if (typeof port === 'string' || typeof maxMb === 'string') {
+    io.err(`rivalplate server: ${typeof port === 'string' ? port : maxMb}`);
+    return 2;
+  }
+  if (Boolean(values['tls-cert']) !== Boolean(values['tls-key'])) {
+    io.err('rivalplate server: --tls-cert and --tls-key go together');
+    return 2;
+  }
+  const tls = values['tls-cert']
+    ? { cert: readFileSync(values['tls-cert']), key: readFileSync(values['tls-key']!) }
+    : undefined;
+  const dataDir = resolve(io.cwd, values.data);
+  const { store, file } = openDataFolder(dataDir, maxMb ? maxMb * MB : undefined);
+  const app = await buildSyncServer({
+    store,
+    appDir: resolve(io.cwd, values.app),
+    log: true,
+    ...(tls ? { tls } : {}),
+  });
+  const url = await app.listen({ port, host: values.host });
+  io.out(`Sync server on ${url} (data in ${file})`);
+
+  // Stops on Ctrl-C or a service manager's TERM, closing the database cleanly.
+  await new Promise<void>((done) => {
+    const stop = () => {
+      process.off('SIGINT', stop);
+      process.off('SIGTERM', stop);
+      done();
+    };
+    process.on('SIGINT', stop);
+    process.on('SIGTERM', stop);
+  });
+  await app.close();
+  await store.close();
+  return 0;
+}
+
+async function addLab(args: string[], io: CommandIo): Promise<number> {
+  const { values, positionals } = parseArgs({
+    args,
+    allowPositionals: true,
+    options: {
+      data: { type: 'string', default: DEFAULT_DATA },
+      'no-photos': { type: 'boolean', default: false },
+      'photo-max-mb': { type: 'string' },
+    },
+  });
+  const name = positionals[0]?.trim();
+  const maxMb = wholeNumber('photo-max-mb', values['photo-max-mb'], 20);
+  if (!name || positionals.length > 1 || typeof maxMb === 'string') {
+    io.err(typeof maxMb === 'string' ? `rivalplate server: ${maxMb}` : USAGE);
+    return 2;
+  }
+  const { store } = openDataFolder(resolve(io.cwd, values.data));
+  try {
+    await store.addLab(name, { photosEnabled: !values['no-photos'], photoMaxBytes: maxMb * MB });
+    io.out(
+      `Lab "${name}" added (photos ${values['no-photos'] ? 'stay on the phones' : `up to ${maxMb} MB each`}).`,
+    );
+    return 0;
+  } finally {
+    await store.close();
+  }
+}
+
+async function addToken(args: string[], io: CommandIo): Promise<number> {
+  const { values, positionals } = parseArgs({
+    args,
+    allowPositionals: true,
+    options: { data: { type: 'string', default: DEFAULT_DATA } },
+  });
+  const name = positionals[0];
+  if (!name || positionals.length > 1) {
+    io.err(USAGE);
+    return 2;
+  }
+  const { store } = openDataFolder(resolve(io.cwd, values.data));
+  try {
+    const lab = await store.findLab(name);
+    if (!lab) {
+      io.err(`rivalplate server: no lab named "${name}"; add it first with "server add-lab"`);
+      return 1;
+    }
+    const token = newToken();
+    await store.addToken(lab.id, tokenHash(token));
+    io.out(`Token for lab "${name}" (shown this once; the server keeps only its hash):\n${token}`);
+    return 0;
+  } finally {
+    await store.close();
+  }
+}
+
+const SUBCOMMANDS: Record<string, (args: string[], io: CommandIo) => Promise<number>> = {
+  start,
+  'add-lab': addLab,
+  'add-token': addToken,
+};
+
+export async function run(args: string[], io: CommandIo): Promise<number> {
+  const [sub, ...rest] = args;
+  const command = sub ? SUBCOMMANDS[sub] : undefined;
+  if (!command) {
+    io.err(USAGE);
+    return 2;
+  }
+  try {
+    return await command(rest, io);
+  } catch (e) {
+    // parseArgs reports unknown or malformed options by throwing; a refusal names a bad name.
+    if (e instanceof SyncRefusal || (e as { code?: string }).code?.startsWith('ERR_PARSE_ARGS')) {
+      io.err(`rivalplate server: ${(e as Error).message}`);
+      return 2;
+    }
+    throw e;
+  }
+}

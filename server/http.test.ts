@@ -1,0 +1,335 @@
+/**
+ * The sync protocol over real HTTP on loopback against a real SQLite file. Bearer tokens are
+ * checked as RFC 6750 describes them; status codes are those of RFC 9110 (and 507 of RFC 4918).
+ */
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { PullResponse, PushResponse, SyncErrorBody } from '../schema/sync-protocol.ts';
+import { SYNC_LIMITS } from '../schema/sync-protocol.ts';
+import { call, startTestServer, type TestServer } from '../tests/sync/harness.ts';
+import {
+  benchSession,
+  changeOf,
+  experiment,
+  plate,
+  revised,
+  tombstoneOf,
+} from '../tests/sync/marrowfield.ts';
+
+let server: TestServer;
+beforeAll(async () => {
+  server = await startTestServer();
+});
+afterAll(async () => {
+  await server.close();
+});
+
+const push = (token: string | null, body: unknown) =>
+  call<PushResponse & SyncErrorBody>(`${server.sync}/push`, token, { body });
+const pull = (token: string, since = '0', limit?: number) =>
+  call<PullResponse>(
+    `${server.sync}/changes?since=${since}${limit ? `&limit=${limit}` : ''}`,
+    token,
+  );
+const revisionCount = (lab: string) =>
+  (
+    server.rows(
+      'SELECT count(*) AS n FROM revisions JOIN labs ON labs.id = revisions.lab_id WHERE labs.name = ?',
+      lab,
+    )[0] as { n: number }
+  ).n;
+
+describe('push and pull', () => {
+  it('round-trips a bench session: every record comes back with one head and its body', async () => {
+    const token = await server.lab('round-trip');
+    const changes = benchSession(3);
+    const pushed = await push(token, { device: 'phone-a', changes });
+    expect(pushed.status).toBe(200);
+    expect(pushed.json.accepted).toHaveLength(7);
+    expect(pushed.json.conflicts).toEqual([]);
+
+    const pulled = await pull(token);
+    expect(pulled.status).toBe(200);
+    expect(pulled.json.more).toBe(false);
+    expect(pulled.json.records.map((r) => `${r.kind}/${r.id}`)).toEqual(
+      changes.map((c) => `${c.kind}/${c.id}`),
+    );
+    for (const [i, record] of pulled.json.records.entries()) {
+      expect(record.heads).toHaveLength(1);
+      expect(record.heads[0]!.body).toEqual(changes[i]!.body);
+      expect(record.heads[0]!.hash).toBe(pushed.json.accepted[i]!.hash);
+      expect(record.heads[0]!.device).toBe('phone-a');
+    }
+  });
+
+  it('the same batch pushed twice changes nothing the second time', async () => {
+    const token = await server.lab('twice');
+    const body = { device: 'phone-a', changes: benchSession(5) };
+    const first = await push(token, body);
+    const before = revisionCount('twice');
+    const second = await push(token, body);
+    expect(second.status).toBe(200);
+    expect(second.json.accepted.map((r) => r.hash)).toEqual(first.json.accepted.map((r) => r.hash));
+    expect(second.json.accepted.every((r) => r.repeat)).toBe(true);
+    expect(revisionCount('twice')).toBe(before);
+    expect(before).toBe(9);
+    const { json } = await pull(token);
+    expect(json.records).toHaveLength(9);
+  });
+
+  it('a repeat is recognised whatever the order of the keys in its body', async () => {
+    const token = await server.lab('key-order');
+    const p = plate('mf-plate-ko');
+    const reordered = Object.fromEntries(Object.entries(p).reverse());
+    await push(token, { device: 'a', changes: [changeOf('plates', p)] });
+    const again = await push(token, {
+      device: 'a',
+      changes: [{ ...changeOf('plates', p), body: reordered }],
+    });
+    expect(again.json.accepted[0]!.repeat).toBe(true);
+    expect(revisionCount('key-order')).toBe(1);
+  });
+
+  it('an edit on top of the head replaces it; a deletion travels as a tombstone', async () => {
+    const token = await server.lab('edits');
+    const p1 = plate('mf-plate-e');
+    const h1 = (await push(token, { device: 'a', changes: [changeOf('plates', p1)] })).json
+      .accepted[0]!.hash;
+    const p2 = revised(p1, { reviewed: true }, 10);
+    const h2 = (await push(token, { device: 'a', changes: [changeOf('plates', p2, [h1])] })).json
+      .accepted[0]!.hash;
+    let { json } = await pull(token);
+    expect(json.records[0]!.heads.map((h) => h.hash)).toEqual([h2]);
+
+    const gone = await push(token, {
+      device: 'a',
+      changes: [tombstoneOf('plates', p1.id, 3, 11, [h2])],
+    });
+    expect(gone.json.accepted).toHaveLength(1);
+    ({ json } = await pull(token));
+    expect(json.records[0]!.heads).toMatchObject([{ deleted: true, body: null, revision: 3 }]);
+  });
+});
+
+describe('two phones editing the same plate offline', () => {
+  it('keeps both revisions as a conflict until a revision replacing both resolves it', async () => {
+    const token = await server.lab('two-phones');
+    const base = plate('mf-plate-7');
+    const h0 = (await push(token, { device: 'phone-a', changes: [changeOf('plates', base)] })).json
+      .accepted[0]!.hash;
+
+    const onA = revised(base, { typedCounts: { test: 120, reference: 97 } }, 20);
+    const onB = revised(base, { typedCounts: { test: 112, reference: 101 } }, 21);
+    const a = await push(token, { device: 'phone-a', changes: [changeOf('plates', onA, [h0])] });
+    const b = await push(token, { device: 'phone-b', changes: [changeOf('plates', onB, [h0])] });
+    expect(a.json.accepted).toHaveLength(1);
+    expect(b.json.conflicts).toHaveLength(1);
+
+    const { json } = await pull(token);
+    const heads = json.records.find((r) => r.id === 'mf-plate-7')!.heads;
+    expect(heads.map((h) => h.device).sort()).toEqual(['phone-a', 'phone-b']);
+    expect(heads.map((h) => h.body)).toEqual(expect.arrayContaining([onA, onB]));
+
+    const merged = { ...revised(onB, { typedCounts: { test: 120, reference: 101 } }, 30) };
+    const resolve = await push(token, {
+      device: 'phone-b',
+      changes: [
+        changeOf(
+          'plates',
+          merged,
+          heads.map((h) => h.hash),
+        ),
+      ],
+    });
+    expect(resolve.json.accepted).toHaveLength(1);
+    const after = await pull(token, json.cursor);
+    expect(after.json.records).toHaveLength(1);
+    expect(after.json.records[0]!.heads.map((h) => h.body)).toEqual([merged]);
+    // Nothing was thrown away on the way: the base, both edits and the resolution.
+    expect(revisionCount('two-phones')).toBe(4);
+  });
+});
+
+describe('pull cursor', () => {
+  it('resumes where the last page ended and brings only what changed after it', async () => {
+    const token = await server.lab('cursor');
+    await push(token, { device: 'a', changes: benchSession(8) });
+    const seen: string[] = [];
+    let cursor = '0';
+    const pages: number[] = [];
+    for (;;) {
+      const { json } = await pull(token, cursor, 5);
+      pages.push(json.records.length);
+      seen.push(...json.records.map((r) => r.id));
+      cursor = json.cursor;
+      if (!json.more) break;
+    }
+    expect(pages).toEqual([5, 5, 2]);
+    expect(new Set(seen).size).toBe(12);
+
+    const quiet = await pull(token, cursor);
+    expect(quiet.json).toEqual({ records: [], cursor, more: false });
+    await push(token, { device: 'a', changes: [changeOf('plates', plate('mf-plate-late'))] });
+    const late = await pull(token, cursor);
+    expect(late.json.records.map((r) => r.id)).toEqual(['mf-plate-late']);
+  });
+});
+
+describe('labs are kept apart', () => {
+  it("a token of one lab sees none of another lab's records or photos", async () => {
+    const tokenA = await server.lab('lab-a');
+    const tokenB = await server.lab('lab-b');
+    await push(tokenB, { device: 'b', changes: benchSession(2) });
+    const started = await call(`${server.sync}/photos`, tokenB, {
+      body: {
+        photoId: 'mf-photo-b',
+        plateId: 'mf-plate-1',
+        bytes: 3,
+        type: 'image/jpeg',
+        sha256: 'a'.repeat(64),
+      },
+    });
+    expect(started.status).toBe(200);
+
+    expect((await pull(tokenA)).json.records).toEqual([]);
+    const photo = await call<SyncErrorBody>(`${server.sync}/photos/mf-photo-b/upload`, tokenA);
+    expect(photo.status).toBe(404);
+    // Lab A's own records with the same ids are its own: lab B's stay as they were.
+    await push(tokenA, { device: 'a', changes: [changeOf('experiments', experiment())] });
+    const b = await pull(tokenB);
+    expect(b.json.records).toHaveLength(6);
+    expect(b.json.records.every((r) => r.heads[0]!.device === 'b')).toBe(true);
+  });
+});
+
+describe('refusals: a clear 4xx, and nothing written', () => {
+  it('no token, a malformed header, an unknown token', async () => {
+    await server.lab('refusals');
+    const before = revisionCount('refusals');
+    const body = { device: 'a', changes: benchSession(1) };
+    const none = await push(null, body);
+    expect(none.status).toBe(401);
+    expect(none.json.error).toBe('no-token');
+    const basic = await fetch(`${server.sync}/changes`, {
+      headers: { authorization: 'Basic eDp5' },
+    });
+    expect(basic.status).toBe(401);
+    const unknown = await push('rpt_not-a-real-token', body);
+    expect(unknown.status).toBe(401);
+    expect(unknown.json).toEqual({
+      error: 'bad-token',
+      message: 'this token is not known to the server: ask for a new one',
+    });
+    expect(revisionCount('refusals')).toBe(before);
+  });
+
+  it('a body that is not JSON, or not an object of the right shape', async () => {
+    const token = await server.lab('malformed');
+    const cut = await call<SyncErrorBody>(`${server.sync}/push`, token, { raw: '{"device":"a",' });
+    expect(cut.status).toBe(400);
+    expect(cut.json.error).toBe('invalid-request');
+    expect(cut.json.message).toMatch(/not valid JSON/);
+    const list = await push(token, [1, 2]);
+    expect(list.status).toBe(400);
+    expect(list.json.message).toMatch(/^body: expected an object/);
+    const text = await call<SyncErrorBody>(`${server.sync}/push`, token, {
+      raw: 'x',
+      type: 'text/plain',
+    });
+    expect(text.status).toBe(415);
+    expect(text.json.error).toBe('unsupported-type');
+    expect(revisionCount('malformed')).toBe(0);
+  });
+
+  it('wrong types name the field and the record, and refuse the whole batch', async () => {
+    const token = await server.lab('types');
+    const changes = benchSession(3);
+    const bad = changes[5]!;
+    changes[5] = { ...bad, body: { ...(bad.body as object), dilutionFold: '1e5' } as never };
+    const r = await push(token, { device: 'a', changes });
+    expect(r.status).toBe(400);
+    expect(r.json.message).toBe(
+      'body.changes[5] (plates mf-plate-2).body.dilutionFold: expected a number, got "1e5"',
+    );
+    const cases: [unknown, RegExp][] = [
+      [{ ...changes[0], kind: 'photos' }, /changes\[0\]\.kind: expected one of experiments, /],
+      [{ ...changes[0], revision: 0 }, /changes\[0\]\.revision: must be 1 or more/],
+      [{ ...changes[0], replaces: ['abc'] }, /changes\[0\]\.replaces\[0\]: expected a SHA-256/],
+      [{ ...changes[0], id: 'other' }, /\(experiments other\)\.body\.id: must equal/],
+      [{ ...changes[0], deleted: true }, /\.body: must be null for a deletion/],
+    ];
+    for (const [change, message] of cases) {
+      const answer = await push(token, { device: 'a', changes: [change] });
+      expect(answer.status).toBe(400);
+      expect(answer.json.message).toMatch(message);
+    }
+    const empty = await push(token, { device: 'a', changes: [] });
+    expect(empty.json.message).toBe('body.changes: expected 1 to 200 entries, got 0');
+    expect(revisionCount('types')).toBe(0);
+  });
+
+  it('an oversized body and an overlong batch', async () => {
+    const token = await server.lab('oversized');
+    const huge = {
+      device: 'a',
+      changes: benchSession(1),
+      padding: 'x'.repeat(SYNC_LIMITS.pushBytes),
+    };
+    const big = await push(token, huge);
+    expect(big.status).toBe(413);
+    expect(big.json.error).toBe('too-large');
+    const long = await push(token, {
+      device: 'a',
+      changes: benchSession(SYNC_LIMITS.changesPerPush),
+    });
+    expect(long.status).toBe(400);
+    expect(long.json.message).toMatch(/expected 1 to 200 entries, got 204/);
+    expect(revisionCount('oversized')).toBe(0);
+  });
+
+  it('a pull with a cursor or limit that is not a number', async () => {
+    const token = await server.lab('bad-cursor');
+    expect((await pull(token, 'yesterday')).json).toMatchObject({
+      error: 'invalid-request',
+      message: 'query.since: expected a cursor from an earlier pull, got "yesterday"',
+    });
+    expect((await pull(token, '0', 100_000)).status).toBe(400);
+  });
+
+  it('an older protocol path is told to update; an unknown route is not found', async () => {
+    const old = await call<SyncErrorBody>(`${server.origin}/sync/v0/changes`, null);
+    expect(old.status).toBe(426);
+    expect(old.json.error).toBe('version-too-old');
+    const unknown = await call<SyncErrorBody>(`${server.sync}/nothing-here`, null);
+    expect(unknown.status).toBe(404);
+  });
+});
+
+describe('storage full', () => {
+  it('refuses a push that does not fit with 507, writes none of it, and takes small ones after', async () => {
+    const small = await startTestServer({ maxBytes: 256 * 1024 });
+    try {
+      const token = await small.lab('full');
+      // Long ids make each plate a few kilobytes: 60 of them cannot fit in 256 KiB.
+      const bulky = benchSession(60).map((c) =>
+        c.kind === 'plates' ? relabel(c, `${c.id}-${'y'.repeat(6000)}`) : c,
+      );
+      const refused = await call<SyncErrorBody>(`${small.sync}/push`, token, {
+        body: { device: 'a', changes: bulky },
+      });
+      expect(refused.status).toBe(507);
+      expect(refused.json.error).toBe('storage-full');
+      expect(small.rows('SELECT count(*) AS n FROM revisions')).toEqual([{ n: 0 }]);
+      const fits = await call<PushResponse>(`${small.sync}/push`, token, {
+        body: { device: 'a', changes: benchSession(1) },
+      });
+      expect(fits.status).toBe(200);
+      expect(small.rows('SELECT count(*) AS n FROM revisions')).toEqual([{ n: 5 }]);
+    } finally {
+      await small.close();
+    }
+  });
+});
+
+function relabel<C extends { id: string; body: unknown }>(change: C, id: string): C {
+  return { ...change, id, body: { ...(change.body as object), id } };
+}

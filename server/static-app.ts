@@ -1,0 +1,35 @@
+/**
+ * Serves the built app (vite's output folder) from the same origin as the sync routes, so a phone
+ * needs one address for both. Paths that are not files get index.html: the app routes them.
+ */
+import { existsSync } from 'node:fs';
+import { join } from 'node:path';
+import fastifyStatic from '@fastify/static';
+import type { FastifyInstance } from 'fastify';
+import type { SyncErrorBody } from '../schema/sync-protocol.ts';
+
+/** Files a browser must ask for again on each visit, or a new app version would never arrive. */
+const ALWAYS_REVALIDATE = /(^|\/)(index\.html|sw\.js|manifest\.webmanifest)$/;
+
+export async function serveApp(app: FastifyInstance, appDir: string | null): Promise<void> {
+  const built = appDir !== null && existsSync(join(appDir, 'index.html'));
+  if (built) {
+    await app.register(fastifyStatic, {
+      root: appDir,
+      setHeaders: (res, path) => {
+        if (ALWAYS_REVALIDATE.test(path)) res.setHeader('Cache-Control', 'no-cache');
+      },
+    });
+  }
+  app.setNotFoundHandler((request, reply) => {
+    if (built && request.method === 'GET' && !request.url.startsWith('/sync/'))
+      return reply.header('Cache-Control', 'no-cache').sendFile('index.html');
+    const body: SyncErrorBody = {
+      error: 'not-found',
+      message: request.url.startsWith('/sync/')
+        ? `no sync route ${request.method} ${request.url.split('?')[0]}`
+        : `the app is not built in ${appDir ?? '(no folder given)'}: run "npx vite build" first`,
+    };
+    return reply.code(404).send(body);
+  });
+}

@@ -1,0 +1,364 @@
+/**
+ * The SQLite engine behind SyncStore: one database file, opened with better-sqlite3. Its calls
+ * are synchronous, which makes each transaction run start to end without another request
+ * interleaving; the async interface is kept for engines that cannot do that.
+ */
+import Database from 'better-sqlite3';
+import type { PulledRecord, PushResponse, Receipt, Revision } from '../../schema/sync-protocol.ts';
+import { headsAfter } from '../heads.ts';
+import { SyncRefusal } from '../refusal.ts';
+import type { HashedChange, Lab, LabSettings, SyncStore, Upload } from './sync-store.ts';
+
+/** Bumped with every change to the tables below; an older file is upgraded on open. */
+const SCHEMA_VERSION = 1;
+
+const TABLES = `
+CREATE TABLE labs (
+  id INTEGER PRIMARY KEY,
+  name TEXT NOT NULL UNIQUE,
+  photos_enabled INTEGER NOT NULL,
+  photo_max_bytes INTEGER NOT NULL,
+  created_at TEXT NOT NULL
+);
+CREATE TABLE tokens (
+  hash TEXT PRIMARY KEY,
+  lab_id INTEGER NOT NULL REFERENCES labs(id),
+  created_at TEXT NOT NULL
+);
+-- Every revision ever pushed; seq orders them for pulls.
+CREATE TABLE revisions (
+  seq INTEGER PRIMARY KEY AUTOINCREMENT,
+  lab_id INTEGER NOT NULL REFERENCES labs(id),
+  kind TEXT NOT NULL,
+  record_id TEXT NOT NULL,
+  hash TEXT NOT NULL,
+  revision INTEGER NOT NULL,
+  updated_at TEXT NOT NULL,
+  deleted INTEGER NOT NULL,
+  body TEXT,
+  device TEXT NOT NULL,
+  received_at TEXT NOT NULL,
+  UNIQUE (lab_id, kind, record_id, hash)
+);
+-- One row per record: its current heads (a JSON list of hashes) and the seq of its last change.
+CREATE TABLE records (
+  lab_id INTEGER NOT NULL REFERENCES labs(id),
+  kind TEXT NOT NULL,
+  record_id TEXT NOT NULL,
+  last_seq INTEGER NOT NULL,
+  heads TEXT NOT NULL,
+  PRIMARY KEY (lab_id, kind, record_id)
+);
+CREATE INDEX records_by_seq ON records (lab_id, last_seq);
+CREATE TABLE uploads (
+  lab_id INTEGER NOT NULL REFERENCES labs(id),
+  photo_id TEXT NOT NULL,
+  plate_id TEXT NOT NULL,
+  bytes INTEGER NOT NULL,
+  type TEXT NOT NULL,
+  sha256 TEXT NOT NULL,
+  received INTEGER NOT NULL,
+  complete INTEGER NOT NULL,
+  PRIMARY KEY (lab_id, photo_id)
+);
+CREATE TABLE chunks (
+  lab_id INTEGER NOT NULL,
+  photo_id TEXT NOT NULL,
+  start INTEGER NOT NULL,
+  data BLOB NOT NULL,
+  PRIMARY KEY (lab_id, photo_id, start)
+);
+`;
+
+interface LabRow {
+  id: number;
+  name: string;
+  photos_enabled: number;
+  photo_max_bytes: number;
+}
+
+interface RevisionRow {
+  hash: string;
+  revision: number;
+  updated_at: string;
+  deleted: number;
+  body: string | null;
+  device: string;
+}
+
+interface UploadRow {
+  photo_id: string;
+  plate_id: string;
+  bytes: number;
+  type: string;
+  sha256: string;
+  received: number;
+  complete: number;
+}
+
+export interface SqliteOptions {
+  file: string;
+  /** Caps the database file; a write past it is refused as `storage-full`, not half-done. */
+  maxBytes?: number;
+}
+
+const labFromRow = (r: LabRow): Lab => ({
+  id: r.id,
+  name: r.name,
+  photosEnabled: r.photos_enabled === 1,
+  photoMaxBytes: r.photo_max_bytes,
+});
+
+const uploadFromRow = (r: UploadRow): Upload => ({
+  photoId: r.photo_id,
+  plateId: r.plate_id,
+  bytes: r.bytes,
+  type: r.type,
+  sha256: r.sha256,
+  received: r.received,
+  complete: r.complete === 1,
+});
+
+const revisionFromRow = (r: RevisionRow): Revision => ({
+  hash: r.hash,
+  revision: r.revision,
+  updatedAt: r.updated_at,
+  deleted: r.deleted === 1,
+  body: r.body === null ? null : JSON.parse(r.body),
+  device: r.device,
+});
+
+function migrate(db: Database.Database): void {
+  const version = db.pragma('user_version', { simple: true }) as number;
+  if (version > SCHEMA_VERSION)
+    throw new Error(
+      `the database was written by a newer server (schema ${version}, this one knows ${SCHEMA_VERSION})`,
+    );
+  if (version === 0) {
+    db.transaction(() => {
+      db.exec(TABLES);
+      db.pragma(`user_version = ${SCHEMA_VERSION}`);
+    })();
+  }
+}
+
+/** A full disk or the size cap becomes the protocol's `storage-full`; the transaction rolled back. */
+function guarded<T>(work: () => T): T {
+  try {
+    return work();
+  } catch (e) {
+    const code = (e as { code?: unknown }).code;
+    if (code === 'SQLITE_FULL')
+      throw new SyncRefusal('storage-full', 'the server has no room for this; nothing was stored');
+    throw e;
+  }
+}
+
+export function openSqliteStore(options: SqliteOptions): SyncStore {
+  const db = new Database(options.file);
+  // WAL lets the command line add labs and tokens while the server runs; FULL sync makes a
+  // committed push survive a power cut, not only a killed process.
+  db.pragma('journal_mode = WAL');
+  db.pragma('synchronous = FULL');
+  db.pragma('foreign_keys = ON');
+  db.pragma('busy_timeout = 5000');
+  migrate(db);
+  if (options.maxBytes !== undefined) {
+    const pageSize = db.pragma('page_size', { simple: true }) as number;
+    db.pragma(`max_page_count = ${Math.max(1, Math.floor(options.maxBytes / pageSize))}`);
+  }
+
+  const q = {
+    labByName: db.prepare<[string], LabRow>('SELECT * FROM labs WHERE name = ?'),
+    labById: db.prepare<[number], LabRow>('SELECT * FROM labs WHERE id = ?'),
+    insertLab: db.prepare(
+      'INSERT INTO labs (name, photos_enabled, photo_max_bytes, created_at) VALUES (?, ?, ?, ?)',
+    ),
+    insertToken: db.prepare('INSERT INTO tokens (hash, lab_id, created_at) VALUES (?, ?, ?)'),
+    labByToken: db.prepare<[string], LabRow>(
+      'SELECT labs.* FROM tokens JOIN labs ON labs.id = tokens.lab_id WHERE tokens.hash = ?',
+    ),
+    revisionExists: db.prepare<[number, string, string, string], { seq: number }>(
+      'SELECT seq FROM revisions WHERE lab_id = ? AND kind = ? AND record_id = ? AND hash = ?',
+    ),
+    insertRevision: db.prepare(
+      `INSERT INTO revisions (lab_id, kind, record_id, hash, revision, updated_at, deleted, body, device, received_at)
+       VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`,
+    ),
+    recordHeads: db.prepare<[number, string, string], { heads: string }>(
+      'SELECT heads FROM records WHERE lab_id = ? AND kind = ? AND record_id = ?',
+    ),
+    upsertRecord: db.prepare(
+      `INSERT INTO records (lab_id, kind, record_id, last_seq, heads) VALUES (?, ?, ?, ?, ?)
+       ON CONFLICT (lab_id, kind, record_id) DO UPDATE SET last_seq = excluded.last_seq, heads = excluded.heads`,
+    ),
+    changedSince: db.prepare<
+      [number, number, number],
+      { kind: string; record_id: string; last_seq: number; heads: string }
+    >('SELECT * FROM records WHERE lab_id = ? AND last_seq > ? ORDER BY last_seq LIMIT ?'),
+    revisionByHash: db.prepare<[number, string, string, string], RevisionRow>(
+      'SELECT * FROM revisions WHERE lab_id = ? AND kind = ? AND record_id = ? AND hash = ?',
+    ),
+    upload: db.prepare<[number, string], UploadRow>(
+      'SELECT * FROM uploads WHERE lab_id = ? AND photo_id = ?',
+    ),
+    insertUpload: db.prepare(
+      `INSERT INTO uploads (lab_id, photo_id, plate_id, bytes, type, sha256, received, complete)
+       VALUES (?, ?, ?, ?, ?, ?, 0, 0)`,
+    ),
+    insertChunk: db.prepare(
+      'INSERT INTO chunks (lab_id, photo_id, start, data) VALUES (?, ?, ?, ?)',
+    ),
+    setReceived: db.prepare(
+      'UPDATE uploads SET received = ?, complete = ? WHERE lab_id = ? AND photo_id = ?',
+    ),
+    chunks: db.prepare<[number, string], { data: Buffer }>(
+      'SELECT data FROM chunks WHERE lab_id = ? AND photo_id = ? ORDER BY start',
+    ),
+    dropChunks: db.prepare('DELETE FROM chunks WHERE lab_id = ? AND photo_id = ?'),
+  };
+
+  const now = () => new Date().toISOString();
+
+  const pushAll = db.transaction((labId: number, device: string, changes: HashedChange[]) => {
+    const answer: PushResponse = { accepted: [], conflicts: [] };
+    for (const { change, hash } of changes) {
+      const { kind, id, revision } = change;
+      const row = q.recordHeads.get(labId, kind, id);
+      const current: string[] = row ? JSON.parse(row.heads) : [];
+      const repeat = q.revisionExists.get(labId, kind, id, hash) !== undefined;
+      let heads = current;
+      if (!repeat) {
+        const info = q.insertRevision.run(
+          labId,
+          kind,
+          id,
+          hash,
+          revision,
+          change.updatedAt,
+          change.deleted ? 1 : 0,
+          change.body === null ? null : JSON.stringify(change.body),
+          device,
+          now(),
+        );
+        heads = headsAfter(current, change.replaces, hash);
+        q.upsertRecord.run(labId, kind, id, Number(info.lastInsertRowid), JSON.stringify(heads));
+      }
+      const receipt: Receipt = { kind, id, revision, hash, repeat };
+      // A repeat whose revision was later replaced was accepted back then: say so again.
+      if (heads.length > 1 && heads.includes(hash)) answer.conflicts.push(receipt);
+      else answer.accepted.push(receipt);
+    }
+    return answer;
+  });
+
+  const appendAll = db.transaction(
+    (labId: number, photoId: string, offset: number, bytes: Buffer): Upload => {
+      const row = q.upload.get(labId, photoId);
+      if (!row) throw new SyncRefusal('not-found', `no upload was started for photo ${photoId}`);
+      if (row.complete === 1 || offset !== row.received)
+        throw new SyncRefusal(
+          'wrong-offset',
+          `photo ${photoId} has ${row.received} of ${row.bytes} bytes; send the chunk at ${row.received}`,
+        );
+      if (offset + bytes.length > row.bytes)
+        throw new SyncRefusal(
+          'too-large',
+          `chunk ends at byte ${offset + bytes.length}, past the announced ${row.bytes} bytes of photo ${photoId}`,
+        );
+      q.insertChunk.run(labId, photoId, offset, bytes);
+      q.setReceived.run(offset + bytes.length, 0, labId, photoId);
+      return uploadFromRow({ ...row, received: offset + bytes.length });
+    },
+  );
+
+  const finishAll = db.transaction((labId: number, photoId: string, verified: boolean) => {
+    if (!verified) q.dropChunks.run(labId, photoId);
+    q.setReceived.run(
+      verified ? q.upload.get(labId, photoId)!.received : 0,
+      verified ? 1 : 0,
+      labId,
+      photoId,
+    );
+    return uploadFromRow(q.upload.get(labId, photoId)!);
+  });
+
+  return {
+    async addLab(name: string, settings: LabSettings) {
+      if (q.labByName.get(name))
+        throw new SyncRefusal('invalid-request', `a lab named "${name}" exists already`);
+      const info = guarded(() =>
+        q.insertLab.run(name, settings.photosEnabled ? 1 : 0, settings.photoMaxBytes, now()),
+      );
+      return labFromRow(q.labById.get(Number(info.lastInsertRowid))!);
+    },
+    async findLab(name) {
+      const row = q.labByName.get(name);
+      return row && labFromRow(row);
+    },
+    async addToken(labId, hash) {
+      guarded(() => q.insertToken.run(hash, labId, now()));
+    },
+    async labForToken(hash) {
+      const row = q.labByToken.get(hash);
+      return row && labFromRow(row);
+    },
+    async push(labId, device, changes) {
+      return guarded(() => pushAll(labId, device, changes));
+    },
+    async pull(labId, since, limit) {
+      // One read transaction, so the records and their heads are from the same moment.
+      return db.transaction(() => {
+        const rows = q.changedSince.all(labId, since, limit + 1);
+        const page = rows.slice(0, limit);
+        const records: PulledRecord[] = page.map((r) => ({
+          kind: r.kind as PulledRecord['kind'],
+          id: r.record_id,
+          heads: (JSON.parse(r.heads) as string[]).map((h) =>
+            revisionFromRow(q.revisionByHash.get(labId, r.kind, r.record_id, h)!),
+          ),
+        }));
+        const last = page.at(-1)?.last_seq ?? since;
+        return { records, cursor: String(last), more: rows.length > limit };
+      })();
+    },
+    async beginUpload(labId, request) {
+      const row = q.upload.get(labId, request.photoId);
+      if (row) {
+        if (row.sha256 !== request.sha256 || row.bytes !== request.bytes)
+          throw new SyncRefusal(
+            'upload-mismatch',
+            `photo ${request.photoId} was announced with other bytes; a photo id names one photo`,
+          );
+        return uploadFromRow(row);
+      }
+      guarded(() =>
+        q.insertUpload.run(
+          labId,
+          request.photoId,
+          request.plateId,
+          request.bytes,
+          request.type,
+          request.sha256,
+        ),
+      );
+      return uploadFromRow(q.upload.get(labId, request.photoId)!);
+    },
+    async upload(labId, photoId) {
+      const row = q.upload.get(labId, photoId);
+      return row && uploadFromRow(row);
+    },
+    async appendChunk(labId, photoId, offset, bytes) {
+      return guarded(() => appendAll(labId, photoId, offset, bytes));
+    },
+    async uploadedBytes(labId, photoId) {
+      return Buffer.concat(q.chunks.all(labId, photoId).map((c) => c.data));
+    },
+    async finishUpload(labId, photoId, verified) {
+      return finishAll(labId, photoId, verified);
+    },
+    async close() {
+      db.close();
+    },
+  };
+}

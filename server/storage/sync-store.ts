@@ -1,0 +1,59 @@
+/**
+ * What the sync server needs from its database, and nothing about how a database does it. The
+ * handlers see only this interface; SQLite (sqlite-store.ts) is the one engine today. Methods are
+ * async so an engine that talks over a network fits the same shape.
+ *
+ * Every method that writes does so in one transaction: it happens wholly or not at all.
+ */
+import type {
+  Change,
+  PhotoUploadRequest,
+  PullResponse,
+  PushResponse,
+} from '../../schema/sync-protocol.ts';
+
+export interface Lab {
+  id: number;
+  name: string;
+  photosEnabled: boolean;
+  photoMaxBytes: number;
+}
+
+export type LabSettings = Pick<Lab, 'photosEnabled' | 'photoMaxBytes'>;
+
+/** A change with the server's name for its revision (revision-hash.ts). */
+export interface HashedChange {
+  change: Change;
+  hash: string;
+}
+
+/** A photo upload as stored: what was announced, and how far the bytes have come. */
+export interface Upload extends PhotoUploadRequest {
+  received: number;
+  complete: boolean;
+}
+
+export interface SyncStore {
+  /** Refuses (`invalid-request`) a name already taken. */
+  addLab(name: string, settings: LabSettings): Promise<Lab>;
+  findLab(name: string): Promise<Lab | undefined>;
+  addToken(labId: number, tokenHash: string): Promise<void>;
+  labForToken(tokenHash: string): Promise<Lab | undefined>;
+
+  /** Applies a whole push in one transaction; a repeat of a stored revision writes nothing. */
+  push(labId: number, device: string, changes: HashedChange[]): Promise<PushResponse>;
+  /** Records whose heads changed after `since`, oldest change first. */
+  pull(labId: number, since: number, limit: number): Promise<PullResponse>;
+
+  /** Starts an upload, or returns the one already started for the same photo. */
+  beginUpload(labId: number, request: PhotoUploadRequest): Promise<Upload>;
+  upload(labId: number, photoId: string): Promise<Upload | undefined>;
+  /** Stores a chunk only if `offset` is where the upload stands (refuses `wrong-offset`). */
+  appendChunk(labId: number, photoId: string, offset: number, bytes: Buffer): Promise<Upload>;
+  /** The bytes received so far, in order. */
+  uploadedBytes(labId: number, photoId: string): Promise<Buffer>;
+  /** Marks a fully received upload complete, or drops its chunks so it starts over. */
+  finishUpload(labId: number, photoId: string, verified: boolean): Promise<Upload>;
+
+  close(): Promise<void>;
+}

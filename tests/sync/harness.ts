@@ -1,0 +1,94 @@
+/**
+ * A real sync server for tests: a fresh SQLite file in a temporary folder, Fastify listening on
+ * 127.0.0.1 on a free port, labs and tokens made through the same store the command line uses.
+ */
+import { mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import Database from 'better-sqlite3';
+import type { FastifyInstance } from 'fastify';
+import { SYNC_BASE_PATH } from '../../schema/sync-protocol.ts';
+import { buildSyncServer } from '../../server/app.ts';
+import { DATABASE_FILE, openDataFolder } from '../../server/data-folder.ts';
+import type { LabSettings, SyncStore } from '../../server/storage/sync-store.ts';
+import { newToken, tokenHash } from '../../server/tokens.ts';
+
+export interface TestServer {
+  /** Base URL of the sync routes, e.g. http://127.0.0.1:41234/sync/v1 */
+  sync: string;
+  origin: string;
+  port: number;
+  dir: string;
+  file: string;
+  store: SyncStore;
+  app: FastifyInstance;
+  /** Adds a lab and returns a fresh token for it. */
+  lab(name: string, settings?: Partial<LabSettings>): Promise<string>;
+  /** Rows in a table, read through a separate connection, as another process would see them. */
+  rows(sql: string, ...params: unknown[]): unknown[];
+  close(): Promise<void>;
+}
+
+export function tempDir(): string {
+  return mkdtempSync(join(tmpdir(), 'rivalplate-sync-'));
+}
+
+export async function startTestServer(
+  options: { dir?: string; maxBytes?: number; appDir?: string } = {},
+): Promise<TestServer> {
+  const dir = options.dir ?? tempDir();
+  const { store, file } = openDataFolder(dir, options.maxBytes);
+  const app = await buildSyncServer({ store, appDir: options.appDir ?? null, log: false });
+  const origin = await app.listen({ port: 0, host: '127.0.0.1' });
+  const port = Number(new URL(origin).port);
+  const reader = new Database(join(dir, DATABASE_FILE), { readonly: true });
+  return {
+    sync: origin + SYNC_BASE_PATH,
+    origin,
+    port,
+    dir,
+    file,
+    store,
+    app,
+    async lab(name, settings = {}) {
+      const lab =
+        (await store.findLab(name)) ??
+        (await store.addLab(name, {
+          photosEnabled: true,
+          photoMaxBytes: 4 * 1024 * 1024,
+          ...settings,
+        }));
+      const token = newToken();
+      await store.addToken(lab.id, tokenHash(token));
+      return token;
+    },
+    rows: (sql, ...params) => reader.prepare(sql).all(...params),
+    async close() {
+      reader.close();
+      await app.close();
+      await store.close();
+      if (!options.dir) rmSync(dir, { recursive: true, force: true });
+    },
+  };
+}
+
+/** A JSON request with the lab's token; resolves to the status and the parsed answer. */
+export async function call<T = unknown>(
+  url: string,
+  token: string | null,
+  init: { method?: string; body?: unknown; raw?: string | Buffer; type?: string } = {},
+): Promise<{ status: number; json: T }> {
+  const headers: Record<string, string> = {};
+  if (token) headers.authorization = `Bearer ${token}`;
+  let body: string | Uint8Array<ArrayBuffer> | undefined;
+  if (init.body !== undefined) {
+    body = JSON.stringify(init.body);
+    headers['content-type'] = 'application/json';
+  } else if (init.raw !== undefined) {
+    body = typeof init.raw === 'string' ? init.raw : new Uint8Array(init.raw);
+    headers['content-type'] = init.type ?? 'application/json';
+  }
+  const res = await fetch(url, { method: init.method ?? (body ? 'POST' : 'GET'), headers, body });
+  const text = await res.text();
+  return { status: res.status, json: (text ? JSON.parse(text) : null) as T };
+}
