@@ -25,6 +25,8 @@ export interface AgarModel {
   background: Mat;
   deltaE: Mat;
   countMask: Mat;
+  /** The outermost pixels of the counting area, next to the dish wall (8-bit 0/255). */
+  rim: Mat;
   glareFraction: number;
   agarLab: Lab;
 }
@@ -63,10 +65,11 @@ export function modelAgar(
   cv.bitwise_not(glare, notGlare);
   cv.bitwise_and(agarMask, notGlare, countMask);
 
+  const rim = keep(rimOf(cv, agarMask));
   const centre = background.data32F;
   const ci = (Math.round(dish.cy) * background.cols + Math.round(dish.cx)) * 3;
   const agarLab: Lab = [centre[ci] ?? 0, centre[ci + 1] ?? 0, centre[ci + 2] ?? 0];
-  return { lab, background, deltaE, countMask, glareFraction, agarLab };
+  return { lab, background, deltaE, countMask, rim, glareFraction, agarLab };
 }
 
 /** An 8-bit 0/255 mask of the dish ellipse scaled by `fraction`. */
@@ -89,6 +92,21 @@ export function ellipseMask(
     -1,
   );
   return mask;
+}
+
+/** The band of RIM_PX pixels just inside the edge of a mask. */
+const RIM_PX = 3;
+function rimOf(cv: OpenCv, mask: Mat): Mat {
+  return withMats((keep) => {
+    const inner = keep(new cv.Mat());
+    const k = keep(
+      cv.getStructuringElement(cv.MORPH_ELLIPSE, new cv.Size(2 * RIM_PX + 1, 2 * RIM_PX + 1)),
+    );
+    cv.erode(mask, inner, k);
+    const rim = new cv.Mat();
+    cv.subtract(mask, inner, rim);
+    return rim;
+  });
 }
 
 /** opencv's 8-bit Lab stores L*·255/100, a*+128, b*+128; this undoes that into real units. */

@@ -93,6 +93,7 @@ function runPipeline(
     agar.lab,
     agar.background,
     agar.deltaE,
+    agar.rim,
   );
   const { candidates } = selectCandidates(
     measured.regions,

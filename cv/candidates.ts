@@ -8,6 +8,9 @@ import type { ComponentStats, RegionStats } from './measure.ts';
  * - Strokes (marker-pen writing seen through the lid): blobs far longer than they are thick and
  *   thinner than a typical colony. A chain of touching colonies is long too, but as thick as its
  *   colonies, so it stays.
+ * - Wall glints: blobs on the rim of the counting area that are thinner than half a typical
+ *   colony. Reflections and the wall's inner face show as thin arcs there; a colony growing
+ *   against the wall is as thick as any other and is kept.
  * - Clumps: a region more than CLUMP_AREA_RATIO typical single-colony areas is counted as
  *   round(area / typical area) colonies and marked, since the watershed could not split it.
  * Sizes are in working pixels; `mmPerPx` converts the millimetre limits.
@@ -16,6 +19,7 @@ const MIN_COLONY_RADIUS_MM = 0.2;
 const STROKE_ELONGATION = 4.5;
 const STROKE_THINNESS = 0.7;
 const CLUMP_AREA_RATIO = 2.3;
+const WALL_THINNESS = 0.5;
 
 export interface Candidate {
   region: RegionStats;
@@ -25,7 +29,7 @@ export interface Candidate {
 
 export interface CandidateResult {
   candidates: Candidate[];
-  rejected: { specks: number; strokes: number };
+  rejected: { specks: number; strokes: number; wall: number };
   typicalArea: number;
 }
 
@@ -37,19 +41,12 @@ export function selectCandidates(
 ): CandidateResult {
   const minArea = Math.PI * (MIN_COLONY_RADIUS_MM / mmPerPx) ** 2;
   const byId = new Map(components.map((c) => [c.id, c]));
-  const rejected = { specks: 0, strokes: 0 };
-  const verdict = new Map<number, 'keep' | 'speck' | 'stroke'>();
+  const rejected = { specks: 0, strokes: 0, wall: 0 };
+  const verdict = new Map<number, 'keep' | keyof typeof rejected>();
   for (const c of components) {
-    const elongation = c.area / (Math.PI * Math.max(1, c.halfWidth) ** 2);
-    const v =
-      c.area < minArea
-        ? 'speck'
-        : elongation > STROKE_ELONGATION && c.halfWidth < STROKE_THINNESS * typicalRadius
-          ? 'stroke'
-          : 'keep';
+    const v = componentVerdict(c, minArea, typicalRadius);
     verdict.set(c.id, v);
-    if (v === 'speck') rejected.specks++;
-    if (v === 'stroke') rejected.strokes++;
+    if (v !== 'keep') rejected[v]++;
   }
   const kept = regions.filter(
     (r) => verdict.get(r.component) === 'keep' && r.area >= minArea * 0.5,
@@ -64,6 +61,19 @@ export function selectCandidates(
     };
   });
   return { candidates, rejected, typicalArea };
+}
+
+function componentVerdict(
+  c: ComponentStats,
+  minArea: number,
+  typicalRadius: number,
+): 'keep' | 'specks' | 'strokes' | 'wall' {
+  if (c.area < minArea) return 'specks';
+  const elongation = c.area / (Math.PI * Math.max(1, c.halfWidth) ** 2);
+  if (elongation > STROKE_ELONGATION && c.halfWidth < STROKE_THINNESS * typicalRadius)
+    return 'strokes';
+  if (c.rimPixels > 0 && c.halfWidth < WALL_THINNESS * typicalRadius) return 'wall';
+  return 'keep';
 }
 
 /** Median area of regions that were alone in their blob: the size of one colony on this plate. */

@@ -15,8 +15,11 @@ import type { Dish } from './types.ts';
  */
 const PREVIEW_SIDE = 640;
 const RAYS = 120;
-/** Share of the outer radius that is agar the counting may use: the wall and a band inside it are excluded. */
-export const AGAR_FRACTION = 0.93;
+/**
+ * Share of the agar radius where colonies are counted: a band of about 1.5 mm next to the wall is
+ * left out, where the wall's reflections and its inner face show.
+ */
+export const AGAR_FRACTION = 0.975;
 
 export function detectDish(cv: OpenCv, rgba: Mat): Dish | null {
   return withMats((keep) => {
@@ -36,7 +39,7 @@ export function detectDish(cv: OpenCv, rgba: Mat): Dish | null {
 
     const circle = houghDish(cv, keep, gray);
     if (!circle) return null;
-    const ellipse = refineEllipse(cv, keep, gray, circle) ?? {
+    const ellipse = refineEllipse(cv, keep, small, circle) ?? {
       cx: circle.x,
       cy: circle.y,
       rx: circle.r,
@@ -47,8 +50,9 @@ export function detectDish(cv: OpenCv, rgba: Mat): Dish | null {
     const rx = ellipse.rx * inv;
     const ry = ellipse.ry * inv;
     return {
-      cx: ellipse.cx * inv,
-      cy: ellipse.cy * inv,
+      // Preview pixel i covers [i, i+1): its centre is i + 0.5 in the continuous frame.
+      cx: (ellipse.cx + 0.5) * inv,
+      cy: (ellipse.cy + 0.5) * inv,
       rx,
       ry,
       angleDeg: ellipse.angleDeg,
@@ -85,54 +89,48 @@ function houghDish(cv: OpenCv, keep: Keep, gray: Mat): { x: number; y: number; r
 }
 
 /**
- * Walks RAYS rays outwards from the Hough centre and keeps, on each, the radius of the strongest
- * brightness step between 0.8 and 1.15 of the Hough radius; fits an ellipse to those points,
- * drops points more than 2.5 % of the radius off it and fits again.
+ * Walks RAYS rays outwards from a centre. On each, the agar's own colour is the median of the
+ * samples between 0.55 and 0.75 of the expected radius; the agar edge is the first point beyond
+ * that where the colour leaves it by more than EDGE_DELTA_E and stays away for EDGE_RUN_MM (longer
+ * than any colony, so a colony on the ray does not stop the walk, while the wall and the bench
+ * beyond it do). An ellipse is fitted to those points; points whose residual is over 2.5 times the
+ * median residual are dropped (rays that still ended on a clump or a glint) and it is fitted again.
+ * The walk is repeated from the fitted centre, because Hough's circle centre is off for a dish
+ * seen at a tilt, and rays that cross the edge obliquely place it badly.
  */
+const EDGE_DELTA_E = 12;
+const EDGE_RUN_MM = 3.5;
+const DISH_MM = 90;
+
+type Ellipse = { cx: number; cy: number; rx: number; ry: number; angleDeg: number };
+
 function refineEllipse(
   cv: OpenCv,
   keep: Keep,
-  gray: Mat,
+  rgba: Mat,
   c: { x: number; y: number; r: number },
-): { cx: number; cy: number; rx: number; ry: number; angleDeg: number } | null {
-  const gx = keep(new cv.Mat());
-  const gy = keep(new cv.Mat());
-  cv.Sobel(gray, gx, cv.CV_32F, 1, 0, 3);
-  cv.Sobel(gray, gy, cv.CV_32F, 0, 1, 3);
-  const mag = keep(new cv.Mat());
-  cv.magnitude(gx, gy, mag);
-  const m = mag.data32F;
-  const w = mag.cols;
-  const h = mag.rows;
-
-  const points: [number, number][] = [];
-  for (let i = 0; i < RAYS; i++) {
-    const t = (2 * Math.PI * i) / RAYS;
-    const dx = Math.cos(t);
-    const dy = Math.sin(t);
-    let best = -1;
-    let bestR = 0;
-    for (let rr = c.r * 0.8; rr <= c.r * 1.15; rr += 0.5) {
-      const x = Math.round(c.x + dx * rr);
-      const y = Math.round(c.y + dy * rr);
-      if (x < 0 || y < 0 || x >= w || y >= h) break;
-      const v = m[y * w + x]!;
-      if (v > best) {
-        best = v;
-        bestR = rr;
-      }
-    }
-    if (best > 0) points.push([c.x + dx * bestR, c.y + dy * bestR]);
+): Ellipse | null {
+  const rgb = keep(new cv.Mat());
+  cv.cvtColor(rgba, rgb, cv.COLOR_RGBA2RGB);
+  cv.GaussianBlur(rgb, rgb, new cv.Size(5, 5), 1.2);
+  const lab = keep(new cv.Mat());
+  cv.cvtColor(rgb, lab, cv.COLOR_RGB2Lab);
+  let centre = { x: c.x, y: c.y };
+  let radius = c.r;
+  let fit: Ellipse | null = null;
+  for (let pass = 0; pass < 3; pass++) {
+    const points = edgePoints(lab, centre, radius);
+    const next = robustEllipse(cv, keep, points);
+    if (!next) break;
+    fit = next;
+    centre = { x: next.cx, y: next.cy };
+    radius = (next.rx + next.ry) / 2;
   }
-  let fit = fitEllipseTo(cv, keep, points);
   if (!fit) return null;
-  const tolerance = 0.025 * c.r;
-  const inliers = points.filter((p) => ellipseResidual(fit!, p) < tolerance);
-  if (inliers.length >= RAYS * 0.5) fit = fitEllipseTo(cv, keep, inliers) ?? fit;
   // A fit that wandered far from the Hough circle latched onto something else (a shadow, the bench edge).
   const meanR = (fit.rx + fit.ry) / 2;
   if (
-    Math.abs(meanR - c.r) > 0.15 * c.r ||
+    Math.abs(meanR - c.r) > 0.25 * c.r ||
     Math.min(fit.rx, fit.ry) / Math.max(fit.rx, fit.ry) < 0.75
   ) {
     return null;
@@ -140,11 +138,67 @@ function refineEllipse(
   return fit;
 }
 
-function fitEllipseTo(
-  cv: OpenCv,
-  keep: Keep,
-  points: [number, number][],
-): { cx: number; cy: number; rx: number; ry: number; angleDeg: number } | null {
+function edgePoints(lab: Mat, c: { x: number; y: number }, radius: number): [number, number][] {
+  const d = lab.data;
+  const w = lab.cols;
+  const h = lab.rows;
+  // 8-bit Lab: L* scaled by 255/100, a* and b* offset by 128.
+  const at = (x: number, y: number): [number, number, number] | null => {
+    const xi = Math.round(x);
+    const yi = Math.round(y);
+    if (xi < 0 || yi < 0 || xi >= w || yi >= h) return null;
+    const i = 3 * (yi * w + xi);
+    return [(d[i]! * 100) / 255, d[i + 1]! - 128, d[i + 2]! - 128];
+  };
+  const step = 0.5;
+  const runSamples = Math.max(3, Math.round((EDGE_RUN_MM * radius) / (DISH_MM / 2) / step));
+  const points: [number, number][] = [];
+  for (let i = 0; i < RAYS; i++) {
+    const t = (2 * Math.PI * i) / RAYS;
+    const dx = Math.cos(t);
+    const dy = Math.sin(t);
+    const inner: [number, number, number][] = [];
+    for (let rr = radius * 0.55; rr <= radius * 0.75; rr += step) {
+      const v = at(c.x + dx * rr, c.y + dy * rr);
+      if (v) inner.push(v);
+    }
+    if (inner.length < 5) continue;
+    const ref = [0, 1, 2].map((k) => median(inner.map((v) => v[k]!)));
+    let run = 0;
+    for (let rr = radius * 0.75; rr <= radius * 1.3; rr += step) {
+      const v = at(c.x + dx * rr, c.y + dy * rr);
+      if (!v) break;
+      const de = Math.hypot(v[0] - ref[0]!, v[1] - ref[1]!, v[2] - ref[2]!);
+      run = de > EDGE_DELTA_E ? run + 1 : 0;
+      if (run === runSamples) {
+        const edge = rr - (runSamples - 1) * step;
+        points.push([c.x + dx * edge, c.y + dy * edge]);
+        break;
+      }
+    }
+  }
+  return points;
+}
+
+function robustEllipse(cv: OpenCv, keep: Keep, points: [number, number][]): Ellipse | null {
+  let fit = fitEllipseTo(cv, keep, points);
+  for (let pass = 0; fit && pass < 2; pass++) {
+    const e = fit;
+    const residuals = points.map((p) => ellipseResidual(e, p));
+    const limit = Math.max(1, 2.5 * median(residuals));
+    const inliers = points.filter((_, i) => residuals[i]! <= limit);
+    if (inliers.length < RAYS * 0.4) break;
+    fit = fitEllipseTo(cv, keep, inliers) ?? fit;
+  }
+  return fit;
+}
+
+function median(values: number[]): number {
+  const s = [...values].sort((a, b) => a - b);
+  return s[s.length >> 1]!;
+}
+
+function fitEllipseTo(cv: OpenCv, keep: Keep, points: [number, number][]): Ellipse | null {
   if (points.length < 6) return null;
   const mat = keep(cv.matFromArray(points.length, 1, cv.CV_32FC2, points.flat()));
   const box = cv.fitEllipse(mat);

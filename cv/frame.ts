@@ -1,3 +1,4 @@
+import { AGAR_FRACTION } from './dish.ts';
 import type { Dish } from './types.ts';
 
 /**
@@ -55,7 +56,7 @@ export function inscribedDish(imageWidth: number, imageHeight: number): Dish {
     ry: r,
     angleDeg: 0,
     r,
-    agarFraction: 0.93,
+    agarFraction: AGAR_FRACTION,
     source: 'detected',
   };
 }

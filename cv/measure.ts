@@ -26,6 +26,8 @@ export interface ComponentStats {
   /** Largest distance-map value: half the blob's thickness. */
   halfWidth: number;
   regions: number;
+  /** Pixels of the blob on the rim of the counting area (next to the dish wall). */
+  rimPixels: number;
 }
 
 export function measureRegions(
@@ -37,6 +39,7 @@ export function measureRegions(
   lab: Mat,
   background: Mat,
   deltaE: Mat,
+  rim: Mat,
 ): { regions: RegionStats[]; components: ComponentStats[] } {
   const n = regionCount + 1;
   const area = new Float64Array(n);
@@ -48,6 +51,8 @@ export function measureRegions(
   const comp = new Int32Array(n);
   const cArea = new Float64Array(componentCount + 1);
   const cHalf = new Float32Array(componentCount + 1);
+  const cRim = new Int32Array(componentCount + 1);
+  const rimData = rim.data;
 
   const r = regions.data32S;
   const c = components.data32S;
@@ -61,6 +66,7 @@ export function measureRegions(
     if (ci > 0) {
       cArea[ci]!++;
       if (d[i]! > cHalf[ci]!) cHalf[ci] = d[i]!;
+      if (rimData[i]) cRim[ci]!++;
     }
     const id = r[i]!;
     if (id <= 0) continue;
@@ -94,7 +100,13 @@ export function measureRegions(
   }
   const comps: ComponentStats[] = [];
   for (let id = 1; id <= componentCount; id++) {
-    comps.push({ id, area: cArea[id]!, halfWidth: cHalf[id]!, regions: compRegions[id]! });
+    comps.push({
+      id,
+      area: cArea[id]!,
+      halfWidth: cHalf[id]!,
+      regions: compRegions[id]!,
+      rimPixels: cRim[id]!,
+    });
   }
   return { regions: out, components: comps };
 }
