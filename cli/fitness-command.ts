@@ -38,6 +38,8 @@ Options:
   --draws N                bootstrap draws for the counting-noise interval of W (default ${DEFAULT_BOOTSTRAP_DRAWS})
   --seed N                 mixed into each assay's bootstrap seed (default 0)
   --max-change-points N    largest number of steps tried by the step model (default 3)
+  --detect DIFF            also say, per group, how many replicate assays a new group like it
+                           would need to tell a difference of DIFF in W (80% power, α = 0.05)
   -h, --help               show this help
 
 Exit status: 0 done, 1 the data had problems (each names its row or assay), 2 usage error.
@@ -76,6 +78,7 @@ function parse(args: string[]) {
       draws: { type: 'string' },
       seed: { type: 'string' },
       'max-change-points': { type: 'string' },
+      detect: { type: 'string' },
       help: { type: 'boolean', short: 'h' },
     },
   });
@@ -97,6 +100,13 @@ function parse(args: string[]) {
   if (values.seed) options.seed = wholeNumber(values.seed, '--seed', 0);
   if (values['max-change-points']) {
     options.maxChangePoints = wholeNumber(values['max-change-points'], '--max-change-points', 0);
+  }
+  if (values.detect !== undefined) {
+    const d = Number(values.detect);
+    if (!(d > 0) || !Number.isFinite(d)) {
+      throw new UsageError(`--detect: expected a difference in W > 0, got "${values.detect}"`);
+    }
+    options.detectDifference = d;
   }
   return {
     help: false as const,

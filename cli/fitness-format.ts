@@ -1,5 +1,6 @@
 /** Readable tables for `rivalplate fitness` (the --json output is fitness/report.ts). */
 import type { Analysis, Comparison } from '../fitness/analysis.ts';
+import type { ReplicatesPlan } from '../fitness/planning.ts';
 import type { Anova, TTest } from '../fitness/replicate-stats.ts';
 import { formatForReport, type RoundingRule } from '../fitness/rounding.ts';
 import type { CurveFit, ModelFailure, StepFit } from '../fitness/trajectories.ts';
@@ -70,6 +71,12 @@ function modelRow(m: CurveFit | StepFit | ModelFailure, label: string): string[]
   return [label, params, m.residualSe.toFixed(4), f(m.aic, 2), f(m.bic, 2), String(m.k)];
 }
 
+function planRow(label: string, p: ReplicatesPlan | null): string[] {
+  return p
+    ? [label, String(p.n), f(p.sdPerAssay), f(p.betweenAssaySd), f(p.countingSe)]
+    : [label, '—', '—', '—', '—'];
+}
+
 export function analysisText(a: Analysis, options: TextOptions): string {
   const out: string[] = [];
   out.push(
@@ -133,6 +140,23 @@ export function analysisText(a: Analysis, options: TextOptions): string {
       ]),
     ),
   );
+  const planned = a.groups.filter((g) => g.replicatesNeeded !== undefined);
+  if (planned.length > 0) {
+    out.push(
+      '',
+      'Replicate assays needed per group to detect the --detect difference in W from another group',
+      '(two-sided Welch-type design, α = 0.05, 80% power, same colony numbers as these assays)',
+    );
+    out.push(
+      table(
+        ['group', 'n needed', 'SD per assay', 'between-assay SD', 'counting SE'],
+        [
+          ...planned.map((g) => planRow(g.group, g.replicatesNeeded ?? null)),
+          planRow('all but controls (pooled SD)', a.pooledReplicatesNeeded ?? null),
+        ],
+      ),
+    );
+  }
   if (a.markerEffect) {
     const m = a.markerEffect;
     out.push(

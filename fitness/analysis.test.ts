@@ -93,6 +93,20 @@ describe('analyse', () => {
     );
   });
 
+  it('plans replicates per group and from the pooled within-group SD when asked', () => {
+    const a = analyse([...controls, ...evolved], { bootstrapDraws: 0, detectDifference: 0.05 });
+    for (const g of a.groups) expect(g.replicatesNeeded!.n).toBeGreaterThanOrEqual(2);
+    // Pooled SD over the three L1 groups (two df each) is the root mean of their variances.
+    const sds = a.groups.filter((g) => g.group !== 'marker-control').map((g) => g.W.sd!);
+    const pooled = Math.sqrt(sds.reduce((s, x) => s + x * x, 0) / sds.length);
+    const p = a.pooledReplicatesNeeded!;
+    expect(p.sdPerAssay ** 2).toBeCloseTo(p.betweenAssaySd ** 2 + p.countingSe ** 2, 12);
+    const se = a.assays.filter((x) => x.group !== 'marker-control').map((x) => x.countingSe.W);
+    const rms2 = se.reduce((s, x) => s + x * x, 0) / se.length;
+    expect(p.betweenAssaySd ** 2).toBeCloseTo(Math.max(0, pooled ** 2 - rms2), 12);
+    expect(analyse(evolved, { bootstrapDraws: 0 }).pooledReplicatesNeeded).toBeUndefined();
+  });
+
   it("compares two chosen groups with Welch's t-test", () => {
     const a = analyse(evolved, { bootstrapDraws: 0, compare: ['L1-1000', 'L1-2000'] });
     const w = (g: string) => a.assays.filter((x) => x.group === g).map((x) => x.W);

@@ -9,6 +9,7 @@ import {
   computeAssay,
 } from './competition.ts';
 import { FitnessError } from './errors.ts';
+import { type ObservedSpread, type ReplicatesPlan, replicatesFromSpread } from './planning.ts';
 import {
   type Anova,
   oneSampleTTest,
@@ -40,6 +41,11 @@ export interface AnalysisOptions extends AssayOptions {
   /** Groups to compare; default all groups except the marker controls. */
   compare?: string[];
   maxChangePoints?: number;
+  /**
+   * When set, each group also says how many replicate assays a new group like it would need to
+   * detect this difference in W from another group (Welch-type two-sample design, 80 % power).
+   */
+  detectDifference?: number;
 }
 
 export interface GroupResult {
@@ -48,6 +54,8 @@ export interface GroupResult {
   W_vs_1: TTest | null;
   r: Summary;
   r_vs_0: TTest | null;
+  /** Present when detectDifference was given; null when the group has one assay. */
+  replicatesNeeded?: ReplicatesPlan | null;
 }
 
 export interface MarkerEffect {
@@ -107,6 +115,11 @@ export interface Analysis {
   reciprocal: ReciprocalResult[];
   comparison: Comparison | null;
   trajectories: LineTrajectory[];
+  /**
+   * With detectDifference: replicates needed judged from the SD pooled within all groups but
+   * the marker controls (steadier than any one small group's SD); null without two replicates.
+   */
+  pooledReplicatesNeeded?: ReplicatesPlan | null;
 }
 
 function by<T>(items: readonly T[], key: (t: T) => string): Map<string, T[]> {
@@ -120,16 +133,48 @@ function by<T>(items: readonly T[], key: (t: T) => string): Map<string, T[]> {
   return map;
 }
 
-function groupResult(group: string, assays: readonly AssayResult[]): GroupResult {
+function spreadOf(assays: readonly AssayResult[], sd: number): ObservedSpread {
+  const mean = (f: (a: AssayResult) => number) =>
+    assays.reduce((s, a) => s + f(a), 0) / assays.length;
+  const perStrain = (s: 'start' | 'end') =>
+    mean((a) => (a[s].test.colonies + a[s].reference.colonies) / 2);
+  return {
+    sd,
+    meanW: mean((a) => a.W),
+    countingSe: assays.map((a) => a.countingSe.W),
+    colonies: { start: perStrain('start'), end: perStrain('end') },
+    mRef: mean((a) => a.mRef),
+  };
+}
+
+/** SD of W pooled within groups: √(Σ(nᵢ − 1)·sᵢ² / Σ(nᵢ − 1)) over groups with n ≥ 2. */
+function pooledSd(groups: readonly GroupResult[]): number | null {
+  let ss = 0;
+  let df = 0;
+  for (const g of groups) {
+    if (g.W.sd === null) continue;
+    ss += (g.W.n - 1) * g.W.sd ** 2;
+    df += g.W.n - 1;
+  }
+  return df > 0 ? Math.sqrt(ss / df) : null;
+}
+
+function groupResult(group: string, assays: readonly AssayResult[], detect?: number): GroupResult {
   const W = assays.map((a) => a.W);
   const r = assays.map((a) => a.r);
-  return {
+  const result: GroupResult = {
     group,
     W: summarise(W),
     W_vs_1: oneSampleTTest(W, 1),
     r: summarise(r),
     r_vs_0: oneSampleTTest(r, 0),
   };
+  if (detect !== undefined) {
+    const sd = result.W.sd;
+    result.replicatesNeeded =
+      sd === null ? null : replicatesFromSpread(spreadOf(assays, sd), detect);
+  }
+  return result;
 }
 
 function applyMarkerCorrection(a: AssayResult, meanW: number, meanR: number): AnalysedAssay {
@@ -206,7 +251,9 @@ export function analyse(inputs: readonly AssayInput[], options: AnalysisOptions 
       `marker correction asked for, but no assay of group "${controlGroup}" could be computed`,
     );
   }
-  const groups = [...by(assays, (a) => a.group)].map(([group, list]) => groupResult(group, list));
+  const groups = [...by(assays, (a) => a.group)].map(([group, list]) =>
+    groupResult(group, list, options.detectDifference),
+  );
   const tested = assays.filter((a) => a.group !== controlGroup);
 
   const compareNames = options.compare ?? [...new Set(tested.map((a) => a.group))];
@@ -263,5 +310,19 @@ export function analyse(inputs: readonly AssayInput[], options: AnalysisOptions 
     if (new Set(list.map((a) => a.generation)).size < 2) continue;
     trajectories.push(trajectory(line, list, options.maxChangePoints ?? 3));
   }
-  return { assays, errors, groups, markerEffect, reciprocal, comparison, trajectories };
+  const result: Analysis = {
+    assays,
+    errors,
+    groups,
+    markerEffect,
+    reciprocal,
+    comparison,
+    trajectories,
+  };
+  if (options.detectDifference !== undefined) {
+    const sd = pooledSd(groups.filter((g) => g.group !== controlGroup));
+    result.pooledReplicatesNeeded =
+      sd === null ? null : replicatesFromSpread(spreadOf(tested, sd), options.detectDifference);
+  }
+  return result;
 }

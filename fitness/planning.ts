@@ -179,3 +179,40 @@ export function replicatesNeeded(
   }
   throw new FitnessError('replicates planner: more than 100,000 assays would be needed');
 }
+
+/** The numbers of replicate assays seen so far that the replicates planner needs. */
+export interface ObservedSpread {
+  /** SD of W between replicate assays (within a group, or pooled over groups). */
+  sd: number;
+  /** Mean W, for the counting noise. */
+  meanW: number;
+  /** Counting-noise SE of W of each assay. */
+  countingSe: number[];
+  /** Colonies of each strain in each sample, averaged over the assays. */
+  colonies: { start: number; end: number };
+  /** Mean m_ref of the assays. */
+  mRef: number;
+}
+
+/**
+ * Replicates needed to detect `difference` in W in a new group (two groups compared, or one
+ * against W = 1) plated at the same colony numbers: the observed SD minus its counting noise
+ * (root mean square of the per-assay counting SEs) is the between-assay part.
+ */
+export function replicatesFromSpread(
+  spread: ObservedSpread,
+  difference: number,
+  design: 'one-sample' | 'two-sample' = 'two-sample',
+): ReplicatesPlan {
+  const se = spread.countingSe;
+  const rms = Math.sqrt(se.reduce((s, e) => s + e * e, 0) / se.length);
+  return planReplicates({
+    difference,
+    assaySd: spread.sd,
+    observedCountingSe: rms,
+    plannedColonies: spread.colonies,
+    expectedMRef: spread.mRef,
+    expectedW: spread.meanW,
+    design,
+  });
+}

@@ -3,6 +3,7 @@
  * exist). This is the `rivalplate fitness --json` output; README "Fitness from a CSV" lists it.
  */
 import type { Analysis, Comparison, LineTrajectory } from './analysis.ts';
+import type { ReplicatesPlan } from './planning.ts';
 import type { Anova, Summary, TTest } from './replicate-stats.ts';
 import type { CurveFit, ModelFailure, StepFit } from './trajectories.ts';
 
@@ -21,6 +22,16 @@ function testJson(test: TTest | Anova | null) {
   if ('f' in test)
     return { F: test.f, df_between: test.dfBetween, df_within: test.dfWithin, p: test.p };
   return { t: test.t, df: test.df, p: test.p };
+}
+
+function planJson(p: ReplicatesPlan | null) {
+  if (p === null) return null;
+  return {
+    n: p.n,
+    sd_per_assay: p.sdPerAssay,
+    between_assay_sd: p.betweenAssaySd,
+    counting_se: p.countingSe,
+  };
 }
 
 function comparisonJson(c: Comparison | null) {
@@ -130,6 +141,9 @@ export function analysisJson(analysis: Analysis) {
       n: g.W.n,
       ...summaryFields('W', g.W, g.W_vs_1, 1),
       ...summaryFields('r', g.r, g.r_vs_0, 0),
+      ...(g.replicatesNeeded !== undefined
+        ? { replicates_needed: planJson(g.replicatesNeeded) }
+        : {}),
     })),
     marker_effect: analysis.markerEffect && {
       group: analysis.markerEffect.group,
@@ -152,6 +166,9 @@ export function analysisJson(analysis: Analysis) {
     })),
     comparison: comparisonJson(analysis.comparison),
     trajectories: analysis.trajectories.map(trajectoryJson),
+    ...(analysis.pooledReplicatesNeeded !== undefined
+      ? { replicates_needed_pooled: planJson(analysis.pooledReplicatesNeeded) }
+      : {}),
   };
 }
 
