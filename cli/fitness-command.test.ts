@@ -148,8 +148,8 @@ describe('rivalplate fitness', () => {
     );
     const io = capture(dir);
     expect(await run(['bad.csv'], io)).toBe(1);
-    expect(io.stderr()).toContain('row 2: dilution_fold is missing');
-    expect(io.stderr()).toContain('row 3: fold_dilution_since_start is missing');
+    expect(io.stderr()).toContain('row 2 (assay A1): dilution_fold is missing');
+    expect(io.stderr()).toContain('row 3 (assay A1): fold_dilution_since_start is missing');
     expect(io.stdout()).toBe('');
 
     const zero = join(dir, 'zero.csv');

@@ -84,14 +84,14 @@ describe('readCompetitionCsv', () => {
     const found = problems(bad);
     expect(found).toEqual(
       expect.arrayContaining([
-        'row 2: dilution_fold is missing',
-        'row 3: volume_ul must be a volume > 0 µL, got "-5"',
-        'row 4: fold_dilution_since_start is missing',
-        'row 5: test_colonies must be a whole number ≥ 0, got "8.5"',
-        'row 6: sample must be "start" or "end", got "middle"',
+        'row 2 (assay A1): dilution_fold is missing',
+        'row 3 (assay A1): volume_ul must be a volume > 0 µL, got "-5"',
+        'row 4 (assay A1): fold_dilution_since_start is missing',
+        'row 5 (assay A1): test_colonies must be a whole number ≥ 0, got "8.5"',
+        'row 6 (assay A1): sample must be "start" or "end", got "middle"',
         'row 7: has 10 field(s), the header has 11',
-        'row 8: generation must be a number ≥ 0, got "x"',
-        'row 8: dilution_fold must be a fold ≥ 1 (1000 for a 10⁻³ dilution), got "0.001"',
+        'row 8 (assay A3): generation must be a number ≥ 0, got "x"',
+        'row 8 (assay A3): dilution_fold must be a fold ≥ 1 (1000 for a 10⁻³ dilution), got "0.001"',
       ]),
     );
   });

@@ -49,6 +49,8 @@ export class CsvInputError extends FitnessError {
 
 interface Row {
   line: number;
+  /** 'row 12 (assay A3)', or 'row 12' when the assay column is blank. */
+  where: string;
   get(column: Column): string;
 }
 
@@ -61,12 +63,12 @@ function readNumber(
 ) {
   const text = row.get(column);
   if (text === '') {
-    problems.push(`row ${row.line}: ${column} is missing`);
+    problems.push(`${row.where}: ${column} is missing`);
     return null;
   }
   const value = Number(text);
   if (!NUMBER.test(text) || !Number.isFinite(value) || !rule(value)) {
-    problems.push(`row ${row.line}: ${column} must be ${need}, got "${text}"`);
+    problems.push(`${row.where}: ${column} must be ${need}, got "${text}"`);
     return null;
   }
   return value;
@@ -75,7 +77,7 @@ function readNumber(
 function readCount(row: Row, column: Column, problems: string[]) {
   const text = row.get(column);
   if (!COUNT.test(text)) {
-    problems.push(`row ${row.line}: ${column} must be a whole number ≥ 0, got "${text}"`);
+    problems.push(`${row.where}: ${column} must be a whole number ≥ 0, got "${text}"`);
     return null;
   }
   return Number(text);
@@ -116,19 +118,22 @@ export function readCompetitionCsv(text: string): CompetitionTable {
       );
       continue;
     }
+    const get = (c: Column) => {
+      const i = index.get(c);
+      return i === undefined ? '' : record.fields[i]!.trim();
+    };
+    const id = get('assay');
     const row: Row = {
       line: record.line,
-      get: (c) => {
-        const i = index.get(c);
-        return i === undefined ? '' : record.fields[i]!.trim();
-      },
+      where: `row ${record.line}${id ? ` (assay ${id})` : ''}`,
+      get,
     };
     const before = problems.length;
     const assay = row.get('assay');
     if (assay === '') problems.push(`row ${row.line}: assay is missing`);
     const sample = row.get('sample').toLowerCase();
     if (sample !== 'start' && sample !== 'end') {
-      problems.push(`row ${row.line}: sample must be "start" or "end", got "${row.get('sample')}"`);
+      problems.push(`${row.where}: sample must be "start" or "end", got "${row.get('sample')}"`);
     }
     const generation = readNumber(row, 'generation', problems, (v) => v >= 0, 'a number ≥ 0');
     const dilutionFold = readNumber(
