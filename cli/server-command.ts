@@ -47,7 +47,8 @@ async function start(args: string[], io: CommandIo): Promise<number> {
       'max-db-mb': { type: 'string' },
     },
   });
-  const port = wholeNumber('port', values.port, DEFAULT_PORT);
+  // Port 0 asks the system for a free port; the line printed on start says which it chose.
+  const port = values.port === '0' ? 0 : wholeNumber('port', values.port, DEFAULT_PORT);
   const maxMb = wholeNumber('max-db-mb', values['max-db-mb'], 0);
   if (typeof port === 'string' || typeof maxMb === 'string') {
     io.err(`rivalplate server: ${typeof port === 'string' ? port : maxMb}`);

@@ -3,7 +3,9 @@
  * isolate competed against a marked ancestor), made deterministically for the sync tests.
  */
 import type {
+  Analysis,
   Assay,
+  ColonyRecord,
   Corrections,
   Experiment,
   Plate,
@@ -79,6 +81,46 @@ export function corrections(id: string, edits: Corrections['edits'] = []): Corre
     analysisId: 'mf-an-1',
     edits,
     undone: [],
+  };
+}
+
+/** A colony of the analysis, on a grid so ids and places are reproducible. */
+export function colony(i: number, cls: 0 | 1 = (i % 2) as 0 | 1): ColonyRecord {
+  return {
+    id: `c${i}`,
+    x: 400 + (i % 40) * 30,
+    y: 400 + Math.floor(i / 40) * 30,
+    r: 9,
+    cls,
+    confidence: 0.9,
+    count: 1,
+    area: 254,
+    split: false,
+    lab: [62, cls ? 18 : -4, 30],
+    deltaLab: [-20, cls ? 16 : -6, 12],
+  };
+}
+
+/** What the analysis found on a dense plate: `colonies` colonies of both colours. */
+export function analysis(id: string, plateId: string, colonies: number): Analysis {
+  return {
+    id,
+    revision: 1,
+    updatedAt: at(5),
+    plateId,
+    photoId: `${plateId}-photo`,
+    width: 3000,
+    height: 4000,
+    agarLab: [82, 2, 20],
+    dish: { cx: 1500, cy: 2000, rx: 1300, ry: 1300, angleDeg: 0 },
+    colonies: Array.from({ length: colonies }, (_, i) => colony(i)),
+    classes: [
+      { cls: 0, name: 'white', hex: '#f0ede4', deltaLab: [-20, -6, 12] },
+      { cls: 1, name: 'red', hex: '#c04a3a', deltaLab: [-20, 16, 12] },
+    ],
+    flags: [],
+    paletteUsed: false,
+    ms: 1800,
   };
 }
 

@@ -1,0 +1,246 @@
+/**
+ * Faults on the way between a phone and the server: connections cut in the middle of a push and
+ * of a photo chunk, an answer that never arrives, and the server process killed (SIGKILL) while a
+ * batch is being applied, then started again on the same SQLite file. After each, what the
+ * client sent is counted against what the server holds: nothing lost, nothing twice.
+ */
+import { createHash, randomBytes } from 'node:crypto';
+import { rmSync } from 'node:fs';
+import { request } from 'node:http';
+import { join } from 'node:path';
+import Database from 'better-sqlite3';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type {
+  Change,
+  PhotoUploadState,
+  PullResponse,
+  PushResponse,
+} from '../../schema/sync-protocol.ts';
+import { DATABASE_FILE } from '../../server/data-folder.ts';
+import { startChildServer } from './child-server.ts';
+import { call, startTestServer, type TestServer, tempDir } from './harness.ts';
+import { analysis, benchSession, changeOf } from './marrowfield.ts';
+
+const tally = { faults: 0, synced: 0, lost: 0, duplicated: 0 };
+
+let server: TestServer;
+beforeAll(async () => {
+  server = await startTestServer();
+});
+afterAll(async () => {
+  await server.close();
+  console.log(
+    `sync faults: ${tally.faults} faults injected, ${tally.synced} records synced, ` +
+      `${tally.lost} records lost, ${tally.duplicated} duplicated`,
+  );
+});
+
+/**
+ * Sends `body` with its full Content-Length but only the first `sendBytes` of it (all of it when
+ * omitted), then cuts the connection: before the answer, like a phone walking out of the network.
+ */
+function cutRequest(
+  url: string,
+  token: string,
+  body: Buffer,
+  type: string,
+  method: string,
+  sendBytes = body.length,
+): Promise<void> {
+  return new Promise((done) => {
+    const req = request(url, {
+      method,
+      headers: {
+        authorization: `Bearer ${token}`,
+        'content-type': type,
+        'content-length': body.length,
+      },
+    });
+    req.on('error', () => done());
+    req.on('close', () => done());
+    req.write(body.subarray(0, sendBytes), () => {
+      // Give the server a moment to read what was sent, so the cut lands mid-request.
+      setTimeout(() => req.destroy(), 30);
+    });
+    tally.faults += 1;
+  });
+}
+
+/** Counts the client's changes against the server's records: missing ones and extra revisions. */
+async function audit(sync: string, token: string, sent: Change[]): Promise<void> {
+  const found = new Map<string, number>();
+  let cursor = '0';
+  for (;;) {
+    const { json } = await call<PullResponse>(`${sync}/changes?since=${cursor}`, token);
+    for (const r of json.records) found.set(`${r.kind}/${r.id}`, r.heads.length);
+    cursor = json.cursor;
+    if (!json.more) break;
+  }
+  const lost = sent.filter((c) => !found.has(`${c.kind}/${c.id}`)).length;
+  const duplicated = [...found.values()].filter((heads) => heads !== 1).length;
+  tally.lost += lost;
+  tally.duplicated += duplicated;
+  tally.synced += sent.length - lost;
+  expect({ lost, duplicated, records: found.size }).toEqual({
+    lost: 0,
+    duplicated: 0,
+    records: sent.length,
+  });
+}
+
+const revisions = (srv: TestServer) =>
+  (srv.rows('SELECT count(*) AS n FROM revisions')[0] as { n: number }).n;
+
+describe('connection cut', () => {
+  it('in the middle of a push: nothing is written, and the retry stores the whole batch', async () => {
+    const token = await server.lab('cut-push');
+    const changes = benchSession(40, 'cut-plate');
+    const body = Buffer.from(JSON.stringify({ device: 'phone-a', changes }));
+    const before = revisions(server);
+    await cutRequest(
+      `${server.sync}/push`,
+      token,
+      body,
+      'application/json',
+      'POST',
+      body.length >> 1,
+    );
+    expect(revisions(server)).toBe(before);
+    const retry = await call<PushResponse>(`${server.sync}/push`, token, {
+      body: { device: 'phone-a', changes },
+    });
+    expect(retry.json.accepted).toHaveLength(changes.length);
+    await audit(server.sync, token, changes);
+  });
+
+  it('after the push arrived but before its answer: the retry is a repeat, not a copy', async () => {
+    const token = await server.lab('lost-answer');
+    const changes = benchSession(30, 'lost-plate');
+    const body = Buffer.from(JSON.stringify({ device: 'phone-a', changes }));
+    await cutRequest(`${server.sync}/push`, token, body, 'application/json', 'POST');
+    const retry = await call<PushResponse>(`${server.sync}/push`, token, {
+      body: { device: 'phone-a', changes },
+    });
+    expect(retry.status).toBe(200);
+    expect(retry.json.accepted).toHaveLength(changes.length);
+    await audit(server.sync, token, changes);
+    const stored = server.rows(
+      "SELECT count(*) AS n FROM revisions WHERE record_id LIKE 'lost-plate-%'",
+    )[0] as { n: number };
+    expect(stored.n).toBe(30);
+  });
+
+  it('in the middle of a photo chunk: the upload resumes from the bytes the server holds', async () => {
+    const token = await server.lab('cut-photo');
+    const photo = randomBytes(600_000);
+    const sha = createHash('sha256').update(photo).digest('hex');
+    await call(`${server.sync}/photos`, token, {
+      body: {
+        photoId: 'mf-photo-cut',
+        plateId: 'mf-plate-1',
+        bytes: photo.length,
+        type: 'image/jpeg',
+        sha256: sha,
+      },
+    });
+    const chunk = 256 * 1024;
+    await call(`${server.sync}/photos/mf-photo-cut?offset=0`, token, {
+      method: 'PUT',
+      raw: photo.subarray(0, chunk),
+      type: 'application/octet-stream',
+    });
+    await cutRequest(
+      `${server.sync}/photos/mf-photo-cut?offset=${chunk}`,
+      token,
+      photo.subarray(chunk, 2 * chunk),
+      'application/octet-stream',
+      'PUT',
+      chunk >> 1,
+    );
+    // Resume the way the client does: ask where the upload stands, send from there.
+    let state = (await call<PhotoUploadState>(`${server.sync}/photos/mf-photo-cut/upload`, token))
+      .json;
+    expect(state.received).toBe(chunk);
+    while (!state.complete) {
+      const r = await call<PhotoUploadState>(
+        `${server.sync}/photos/mf-photo-cut?offset=${state.received}`,
+        token,
+        {
+          method: 'PUT',
+          raw: photo.subarray(state.received, state.received + chunk),
+          type: 'application/octet-stream',
+        },
+      );
+      expect(r.status).toBe(200);
+      state = r.json;
+    }
+    const back = await fetch(`${server.sync}/photos/mf-photo-cut`, {
+      headers: { authorization: `Bearer ${token}` },
+    });
+    expect(
+      createHash('sha256')
+        .update(Buffer.from(await back.arrayBuffer()))
+        .digest('hex'),
+    ).toBe(sha);
+  });
+});
+
+describe('server process killed during a batch', () => {
+  it('leaves each batch wholly there or wholly absent; after a restart the retry completes it', async () => {
+    const dir = tempDir();
+    const first = await startTestServer({ dir });
+    const token = await first.lab('killed');
+    await first.close();
+
+    // Dense analyses (150 of 200 colonies, about 6 MB) keep the server busy long enough with the
+    // batch to be killed while it works on it.
+    const outcomes: string[] = [];
+    const everything: Change[] = [];
+    // Killed as the server starts on the batch (twice), and once just after it answered.
+    const killAt = ['push started', 'push started', 'request completed'];
+    for (const [index, moment] of killAt.entries()) {
+      const round = index + 1;
+      const changes = Array.from({ length: 150 }, (_, i) =>
+        changeOf('analyses', analysis(`kill-${round}-${i}`, `mf-plate-${i}`, 200)),
+      );
+      everything.push(...changes);
+      const child = await startChildServer(dir);
+      const started = child.nextLog(moment);
+      const sending = call(`${child.sync}/push`, token, {
+        body: { device: 'phone-a', changes },
+      }).catch(() => null);
+      await started;
+      await child.kill();
+      tally.faults += 1;
+      await sending;
+
+      // The file as the crash left it, opened again: intact, and the batch all or nothing.
+      const db = new Database(join(dir, DATABASE_FILE));
+      expect(db.pragma('integrity_check', { simple: true })).toBe('ok');
+      const n = (
+        db
+          .prepare('SELECT count(*) AS n FROM revisions WHERE record_id LIKE ?')
+          .get(`kill-${round}-%`) as {
+          n: number;
+        }
+      ).n;
+      db.close();
+      expect([0, 150]).toContain(n);
+      if (moment === 'request completed') expect(n).toBe(150);
+      outcomes.push(`${n === 0 ? 'absent' : 'whole'} (killed at "${moment}")`);
+
+      const again = await startChildServer(dir);
+      const retry = await call<PushResponse>(`${again.sync}/push`, token, {
+        body: { device: 'phone-a', changes },
+      });
+      expect(retry.json.accepted).toHaveLength(150);
+      expect(retry.json.accepted.every((r) => r.repeat)).toBe(n === 150);
+      await again.stop();
+    }
+    const last = await startChildServer(dir);
+    await audit(last.sync, token, everything);
+    await last.stop();
+    rmSync(dir, { recursive: true, force: true });
+    console.log(`server killed 3 times: the batch was ${outcomes.join(', ')} after each restart`);
+  });
+});
