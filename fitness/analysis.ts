@@ -185,6 +185,7 @@ function applyMarkerCorrection(a: AssayResult, meanW: number, meanR: number): An
     W,
     r,
     rPerDay: r / a.days,
+    // s stays r / g: the corrected r over the same generations (its counting SE is unchanged).
     sPerGeneration: r / a.generationsRef,
     W_ci: a.W_ci ? [a.W_ci[0] / meanW, a.W_ci[1] / meanW] : null,
     countingSe: { ...a.countingSe, W: a.countingSe.W / meanW },

@@ -74,6 +74,8 @@ describe('computeAssay', () => {
     const varMRef = 1 / 4150 + 1 / 1800;
     expect(a.countingSe.r).toBeCloseTo(Math.sqrt(varMTest + varMRef), 12);
     expect(a.countingSe.W).toBeCloseTo(Math.sqrt(varMTest + a.W ** 2 * varMRef) / a.mRef, 12);
+    expect(a.countingSe.sPerGeneration).toBeCloseTo(Math.LN2 * a.countingSe.W, 12);
+    expect(a.countingSe.rPerDay).toBe(a.countingSe.r);
     const [lo, hi] = a.W_ci!;
     expect(lo).toBeLessThan(a.W);
     expect(hi).toBeGreaterThan(a.W);

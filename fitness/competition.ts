@@ -69,7 +69,14 @@ export interface AssayResult {
   /** Selection coefficient per generation of the reference: r / generationsRef. */
   sPerGeneration: number;
   /** Standard errors from counting noise alone (delta method). */
-  countingSe: { mTest: number; mRef: number; W: number; r: number };
+  countingSe: {
+    mTest: number;
+    mRef: number;
+    W: number;
+    r: number;
+    rPerDay: number;
+    sPerGeneration: number;
+  };
   /** Bootstrap 95 % interval of W from counting noise alone; null when too many draws fail. */
   W_ci: [number, number] | null;
   flags: Flag[];
@@ -229,6 +236,9 @@ export function computeAssay(input: AssayInput, options: AssayOptions = {}): Ass
       mRef: Math.sqrt(varMRef),
       W: seW,
       r: Math.sqrt(varMTest + varMRef),
+      rPerDay: Math.sqrt(varMTest + varMRef) / input.days,
+      // s = (W − 1)·ln 2 exactly, so its SE is ln 2 times that of W.
+      sPerGeneration: Math.LN2 * seW,
     },
     W_ci,
     flags,

@@ -115,6 +115,8 @@ export function analysisJson(analysis: Analysis) {
       se_counting: {
         W: a.countingSe.W,
         r: a.countingSe.r,
+        r_per_day: a.countingSe.rPerDay,
+        s_per_generation: a.countingSe.sPerGeneration,
         m_test: a.countingSe.mTest,
         m_ref: a.countingSe.mRef,
       },
