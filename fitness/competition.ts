@@ -174,8 +174,20 @@ export function computeAssay(input: AssayInput, options: AssayOptions = {}): Ass
   }
   const start = sampleDensity(input.start, `${name}, start sample`, options);
   const end = sampleDensity(input.end, `${name}, end sample`, options);
-  const mTest = Math.log((end.test.cfuPerMl * D) / start.test.cfuPerMl);
-  const mRef = Math.log((end.reference.cfuPerMl * D) / start.reference.cfuPerMl);
+  const mTest = malthusian(
+    start.test.colonies,
+    start.cultureMl,
+    end.test.colonies,
+    end.cultureMl,
+    D,
+  );
+  const mRef = malthusian(
+    start.reference.colonies,
+    start.cultureMl,
+    end.reference.colonies,
+    end.cultureMl,
+    D,
+  );
   if (!(mRef > 0)) {
     const plates = [...start.plates, ...end.plates].map((p) => p.label).join(', ');
     throw new FitnessError(

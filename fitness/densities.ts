@@ -12,6 +12,7 @@
  */
 import {
   type CountableRange,
+  type CountableStatus,
   countableStatus,
   DEFAULT_COUNTABLE_RANGE,
   validateCountableRange,
@@ -33,7 +34,7 @@ export interface Plate {
 export interface PlateCheck {
   label: string;
   total: number;
-  status: 'countable' | 'too-few' | 'too-many';
+  status: CountableStatus;
   /** True when the plate was left out of the pooled estimate. */
   dropped: boolean;
 }

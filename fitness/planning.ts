@@ -3,6 +3,7 @@
  */
 import {
   type CountableRange,
+  type CountableStatus,
   countableStatus,
   DEFAULT_COUNTABLE_RANGE,
   validateCountableRange,
@@ -33,7 +34,7 @@ export interface DilutionPlan {
   dilutionFold: number;
   volumeUl: number;
   expectedColonies: number;
-  status: 'countable' | 'too-few' | 'too-many';
+  status: CountableStatus;
   range: CountableRange;
 }
 

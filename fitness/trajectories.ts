@@ -157,10 +157,7 @@ export function leastSquaresLogLik(rss: number, n: number): number {
   return (-n / 2) * (Math.log(2 * Math.PI) + 1 + Math.log(rss / n));
 }
 
-function statistics(
-  residuals: number[],
-  modelParameters: number,
-): Omit<FitStatistics, 'residuals'> & { residuals: number[] } {
+function statistics(residuals: number[], modelParameters: number): FitStatistics {
   const n = residuals.length;
   let rss = 0;
   for (const r of residuals) rss += r * r;
@@ -292,38 +289,23 @@ function fitCurve(model: Model, points: readonly TrajectoryPoint[]): CurveFit | 
   ({ params, rss } = polish(model, params, rss, t, w));
   if (tooExact(rss, w))
     return { model: model.name, reason: 'the curve passes through every value exactly' };
-  if (n <= 2) return { model: model.name, reason: 'no residual degrees of freedom' };
   // Covariance σ̂²·(JᵀJ)⁻¹ at the solution (2 × 2).
-  const jac = model.jac(params);
-  let s00 = 0;
-  let s01 = 0;
-  let s11 = 0;
-  for (const ti of t) {
-    const [j0, j1] = jac(ti) as [number, number];
-    s00 += j0 * j0;
-    s01 += j0 * j1;
-    s11 += j1 * j1;
-  }
+  const { s00, s01, s11, g0, g1 } = normalEquations(model, params, t, w);
   const det = s00 * s11 - s01 * s01;
-  const f = model.f(params);
-  const residuals = t.map((ti, i) => w[i]! - f(ti));
-  const stats = statistics(residuals, 2);
   if (!(det > 1e-12 * s00 * s11) || !Number.isFinite(det)) {
     return {
       model: model.name,
       reason: 'the two parameters cannot be told apart from these data (singular fit)',
     };
   }
+  const f = model.f(params);
+  const stats = statistics(
+    t.map((ti, i) => w[i]! - f(ti)),
+    2,
+  );
   const sigma2 = rss / (n - 2);
   const se = [Math.sqrt((sigma2 * s11) / det), Math.sqrt((sigma2 * s00) / det)];
   // Converged when the gradient Jᵀr is negligible against the scale of the problem.
-  let g0 = 0;
-  let g1 = 0;
-  t.forEach((ti, i) => {
-    const [j0, j1] = jac(ti) as [number, number];
-    g0 += j0 * residuals[i]!;
-    g1 += j1 * residuals[i]!;
-  });
   const converged =
     Math.abs(g0) <= 1e-6 * Math.sqrt(s00 * rss) + 1e-15 &&
     Math.abs(g1) <= 1e-6 * Math.sqrt(s11 * rss) + 1e-15;
