@@ -81,6 +81,7 @@ function runPipeline(
   stage('background', 0.45);
 
   const fg = segmentForeground(cv, keep, agar, frame);
+  (globalThis as any).DBG?.('threshold', fg.threshold, 'bubbles', fg.bubbles);
   stage('foreground', 0.6);
   const split = splitTouching(cv, keep, rgb, fg.mask, frame);
   stage('split', 0.75);
@@ -95,11 +96,21 @@ function runPipeline(
     agar.deltaE,
     agar.rim,
   );
-  const { candidates } = selectCandidates(
+  const { candidates, rejected, typicalArea } = selectCandidates(
     measured.regions,
     measured.components,
     split.typicalRadius,
     frame.mmPerPx,
+  );
+  (globalThis as any).DBG?.(
+    'regions',
+    measured.regions.length,
+    'rejected',
+    rejected,
+    'typicalArea',
+    typicalArea,
+    'typR',
+    split.typicalRadius,
   );
   stage('measure', 0.85);
 

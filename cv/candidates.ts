@@ -8,17 +8,25 @@ import type { ComponentStats, RegionStats } from './measure.ts';
  * - Strokes (marker-pen writing seen through the lid): blobs far longer than they are thick and
  *   thinner than a typical colony. A chain of touching colonies is long too, but as thick as its
  *   colonies, so it stays.
+ * - Ink: regions much darker than the agar and colourless (marker pen, whatever its shape once the
+ *   watershed has cut a letter into pieces). Marker colours are colours; a plate whose marker is
+ *   itself near-black would need this rule relaxed.
  * - Wall glints: blobs on the rim of the counting area that are thinner than half a typical
  *   colony. Reflections and the wall's inner face show as thin arcs there; a colony growing
  *   against the wall is as thick as any other and is kept.
- * - Clumps: a region more than CLUMP_AREA_RATIO typical single-colony areas is counted as
- *   round(area / typical area) colonies and marked, since the watershed could not split it.
+ * - Clumps: a region the watershed could not split, recognised by not being round: its area is
+ *   more than CLUMP_ELONGATION times the largest disc it holds (π·halfWidth², about 1 for any
+ *   single colony, big or small, about 2 for a fused pair). It is counted as that ratio rounded,
+ *   and at most as many typical single colonies as its area holds; it is marked as estimated.
  * Sizes are in working pixels; `mmPerPx` converts the millimetre limits.
  */
 const MIN_COLONY_RADIUS_MM = 0.2;
 const STROKE_ELONGATION = 4.5;
 const STROKE_THINNESS = 0.7;
-const CLUMP_AREA_RATIO = 2.3;
+/** Ink: darker than the agar by this much in L*, and with a chroma below INK_CHROMA. */
+const INK_DARKER = 15;
+const INK_CHROMA = 12;
+const CLUMP_ELONGATION = 1.7;
 const WALL_THINNESS = 0.5;
 
 export interface Candidate {
@@ -29,7 +37,7 @@ export interface Candidate {
 
 export interface CandidateResult {
   candidates: Candidate[];
-  rejected: { specks: number; strokes: number; wall: number };
+  rejected: { specks: number; strokes: number; wall: number; ink: number };
   typicalArea: number;
 }
 
@@ -41,26 +49,32 @@ export function selectCandidates(
 ): CandidateResult {
   const minArea = Math.PI * (MIN_COLONY_RADIUS_MM / mmPerPx) ** 2;
   const byId = new Map(components.map((c) => [c.id, c]));
-  const rejected = { specks: 0, strokes: 0, wall: 0 };
-  const verdict = new Map<number, 'keep' | keyof typeof rejected>();
+  const rejected = { specks: 0, strokes: 0, wall: 0, ink: 0 };
+  const verdict = new Map<number, 'keep' | 'specks' | 'strokes' | 'wall'>();
   for (const c of components) {
     const v = componentVerdict(c, minArea, typicalRadius);
     verdict.set(c.id, v);
     if (v !== 'keep') rejected[v]++;
   }
-  const kept = regions.filter(
-    (r) => verdict.get(r.component) === 'keep' && r.area >= minArea * 0.5,
-  );
-  const typicalArea = typicalSingleArea(kept, byId) || Math.PI * typicalRadius ** 2;
-  const candidates = kept.map((region) => {
-    const ratio = region.area / typicalArea;
-    return {
-      region,
-      split: (byId.get(region.component)?.regions ?? 1) > 1,
-      count: ratio > CLUMP_AREA_RATIO ? Math.round(ratio) : 1,
-    };
+  const kept = regions.filter((r) => {
+    if (verdict.get(r.component) !== 'keep' || r.area < minArea * 0.5) return false;
+    if (!isInk(r)) return true;
+    rejected.ink++;
+    return false;
   });
+  const typicalArea = typicalSingleArea(kept, byId) || Math.PI * typicalRadius ** 2;
+  const candidates = kept.map((region) => ({
+    region,
+    split: (byId.get(region.component)?.regions ?? 1) > 1,
+    count: clumpCount(region, typicalArea),
+  }));
   return { candidates, rejected, typicalArea };
+}
+
+function clumpCount(region: RegionStats, typicalArea: number): number {
+  const elongation = region.area / (Math.PI * Math.max(1, region.halfWidth) ** 2);
+  if (elongation <= CLUMP_ELONGATION) return 1;
+  return Math.max(2, Math.min(Math.round(elongation), Math.round(region.area / typicalArea)));
 }
 
 function componentVerdict(
@@ -70,10 +84,16 @@ function componentVerdict(
 ): 'keep' | 'specks' | 'strokes' | 'wall' {
   if (c.area < minArea) return 'specks';
   const elongation = c.area / (Math.PI * Math.max(1, c.halfWidth) ** 2);
-  if (elongation > STROKE_ELONGATION && c.halfWidth < STROKE_THINNESS * typicalRadius)
+  if (elongation > STROKE_ELONGATION && c.halfWidth < STROKE_THINNESS * typicalRadius) {
     return 'strokes';
+  }
   if (c.rimPixels > 0 && c.halfWidth < WALL_THINNESS * typicalRadius) return 'wall';
   return 'keep';
+}
+
+function isInk(r: RegionStats): boolean {
+  const darker = r.backgroundLab[0] - r.lab[0];
+  return darker > INK_DARKER && Math.hypot(r.lab[1], r.lab[2]) < INK_CHROMA;
 }
 
 /** Median area of regions that were alone in their blob: the size of one colony on this plate. */

@@ -16,10 +16,10 @@ import type { Dish } from './types.ts';
 const PREVIEW_SIDE = 640;
 const RAYS = 120;
 /**
- * Share of the agar radius where colonies are counted: a band of about 1.5 mm next to the wall is
+ * Share of the agar radius where colonies are counted: a band of about 0.7 mm next to the wall is
  * left out, where the wall's reflections and its inner face show.
  */
-export const AGAR_FRACTION = 0.975;
+export const AGAR_FRACTION = 0.995;
 
 export function detectDish(cv: OpenCv, rgba: Mat): Dish | null {
   return withMats((keep) => {
@@ -91,9 +91,9 @@ function houghDish(cv: OpenCv, keep: Keep, gray: Mat): { x: number; y: number; r
 /**
  * Walks RAYS rays outwards from a centre. On each, the agar's own colour is the median of the
  * samples between 0.55 and 0.75 of the expected radius; the agar edge is the first point beyond
- * that where the colour leaves it by more than EDGE_DELTA_E and stays away for EDGE_RUN_MM (longer
- * than any colony, so a colony on the ray does not stop the walk, while the wall and the bench
- * beyond it do). An ellipse is fitted to those points; points whose residual is over 2.5 times the
+ * that where the colour leaves it by more than EDGE_DELTA_E and stays away for most of the next
+ * EDGE_RUN_MM (longer than any colony, so a colony on the ray does not stop the walk, while the
+ * wall and the bench beyond it do). An ellipse is fitted to those points; points whose residual is over 2.5 times the
  * median residual are dropped (rays that still ended on a clump or a glint) and it is fitted again.
  * The walk is repeated from the fitted centre, because Hough's circle centre is off for a dish
  * seen at a tilt, and rays that cross the edge obliquely place it badly.
@@ -164,20 +164,36 @@ function edgePoints(lab: Mat, c: { x: number; y: number }, radius: number): [num
     }
     if (inner.length < 5) continue;
     const ref = [0, 1, 2].map((k) => median(inner.map((v) => v[k]!)));
-    let run = 0;
+    const away: boolean[] = [];
     for (let rr = radius * 0.75; rr <= radius * 1.3; rr += step) {
       const v = at(c.x + dx * rr, c.y + dy * rr);
       if (!v) break;
-      const de = Math.hypot(v[0] - ref[0]!, v[1] - ref[1]!, v[2] - ref[2]!);
-      run = de > EDGE_DELTA_E ? run + 1 : 0;
-      if (run === runSamples) {
-        const edge = rr - (runSamples - 1) * step;
-        points.push([c.x + dx * edge, c.y + dy * edge]);
-        break;
-      }
+      away.push(Math.hypot(v[0] - ref[0]!, v[1] - ref[1]!, v[2] - ref[2]!) > EDGE_DELTA_E);
+    }
+    const k = firstSustained(away, runSamples);
+    if (k >= 0) {
+      const edge = radius * 0.75 + k * step;
+      points.push([c.x + dx * edge, c.y + dy * edge]);
     }
   }
   return points;
+}
+
+/**
+ * Index of the first sample that starts a window of `run` samples at least 80 % of which are
+ * away from the agar colour: a colony is shorter than the window, while the wall and bench fill it
+ * even where part of the wall happens to match the agar.
+ */
+function firstSustained(away: boolean[], run: number): number {
+  const need = Math.ceil(0.8 * run);
+  let inWindow = 0;
+  for (let i = 0; i < away.length; i++) {
+    if (away[i]) inWindow++;
+    if (i >= run && away[i - run]) inWindow--;
+    const start = i - run + 1;
+    if (start >= 0 && away[start] && inWindow >= need) return start;
+  }
+  return -1;
 }
 
 function robustEllipse(cv: OpenCv, keep: Keep, points: [number, number][]): Ellipse | null {

@@ -17,6 +17,8 @@ export interface RegionStats {
   backgroundLab: Lab;
   /** Mean ΔE from the background over the region. */
   contrast: number;
+  /** Largest distance-map value inside the region: the radius of the biggest disc it holds. */
+  halfWidth: number;
   component: number;
 }
 
@@ -49,6 +51,7 @@ export function measureRegions(
   const sBg = new Float64Array(3 * n);
   const sDe = new Float64Array(n);
   const comp = new Int32Array(n);
+  const rHalf = new Float32Array(n);
   const cArea = new Float64Array(componentCount + 1);
   const cHalf = new Float32Array(componentCount + 1);
   const cRim = new Int32Array(componentCount + 1);
@@ -78,6 +81,7 @@ export function measureRegions(
       sBg[3 * id + k]! += B[3 * i + k]!;
     }
     sDe[id]! += E[i]!;
+    if (d[i]! > rHalf[id]!) rHalf[id] = d[i]!;
     comp[id] = ci;
   }
 
@@ -95,6 +99,7 @@ export function measureRegions(
       lab: [sLab[3 * id]! / a, sLab[3 * id + 1]! / a, sLab[3 * id + 2]! / a],
       backgroundLab: [sBg[3 * id]! / a, sBg[3 * id + 1]! / a, sBg[3 * id + 2]! / a],
       contrast: sDe[id]! / a,
+      halfWidth: rHalf[id]!,
       component: comp[id]!,
     });
   }
