@@ -49,6 +49,9 @@ describe('F and chi-square from stdlib', () => {
     expect(fUpperP(3.885293835, 2, 12)).toBeCloseTo(0.05, 7);
     expect(fUpperP(4.938193382, 3, 20)).toBeCloseTo(0.01, 7);
     expect(fUpperP(0, 3, 20)).toBe(1);
+    // A far tail keeps its digits: scipy.stats.f.sf(40, 5, 60) = 7.06828554947683e-18
+    // (scipy 1.10.1), where 1 − cdf would give 0.
+    expect(fUpperP(40, 5, 60) / 7.06828554947683e-18).toBeCloseTo(1, 8);
   });
 
   it('chi-square quantiles', () => {

@@ -42,7 +42,9 @@ export function fUpperP(f: number, df1: number, df2: number): number {
   checkDf(df1, 'numerator degrees of freedom');
   checkDf(df2, 'denominator degrees of freedom');
   if (f <= 0) return 1;
-  return Math.max(0, finite(1 - fCdf(f, df1, df2), `F cdf(${f}, ${df1}, ${df2})`));
+  // P(F(df1, df2) ≥ f) = P(F(df2, df1) ≤ 1/f): the lower tail keeps its precision where
+  // 1 − cdf would round a tiny p to 0.
+  return finite(fCdf(1 / f, df2, df1), `F cdf(${1 / f}, ${df2}, ${df1})`);
 }
 
 /** Chi-square quantile: the x with P(X ≤ x) = p for df degrees of freedom. */

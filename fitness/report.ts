@@ -84,7 +84,7 @@ function trajectoryJson(t: LineTrajectory) {
       step: fitJson(t.step),
     },
     ranking: t.ranking.map((r) => ({
-      model: r.model,
+      model: r.model.replace('-', '_'),
       AIC: r.aic,
       BIC: r.bic,
       delta_AIC: r.deltaAic,
