@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { analyse } from './analysis.ts';
 import { type AssayInput, computeAssay } from './competition.ts';
+import { hashSeed, poissonDraw, seededUniform } from './poisson.ts';
 import { oneSampleTTest, welchTTest } from './replicate-stats.ts';
 import { analysisJson, assertAllFinite } from './report.ts';
 
@@ -147,5 +148,52 @@ describe('analyse', () => {
     expect(doc.groups[0]).toHaveProperty('p_W_vs_1');
     expect(doc.groups[0]).toHaveProperty('ci_r');
     expect(() => assertAllFinite({ x: [1, { y: Number.NaN }] })).toThrow(/\$\.x\[1\]\.y/);
+  });
+
+  it('never puts NaN or Infinity in the report, whatever the counts (seeded random experiments)', () => {
+    for (let trial = 0; trial < 25; trial++) {
+      const u = seededUniform(hashSeed(`experiment-${trial}`));
+      const count = (mean: number) => poissonDraw(mean, u);
+      const inputs: AssayInput[] = [];
+      for (let i = 0; i < 12; i++) {
+        const gen = [0, 500, 1000, 2000][i % 4]!;
+        const group = i < 3 && trial % 2 ? 'marker-control' : `G${i % 3}`;
+        inputs.push({
+          assay: `T${trial}-${i}`,
+          group,
+          line: `L${i % 2}`,
+          generation: gen,
+          replicate: String(i),
+          days: 1 + (i % 2),
+          foldDilutionSinceStart: [1, 1, 100][i % 3]!,
+          ...(i % 4 === 0 ? { testMarker: i % 8 ? 'red' : 'white' } : {}),
+          start: [
+            {
+              label: 's',
+              dilutionFold: 1e4,
+              volumeMl: 0.1,
+              testColonies: count(1 + 100 * u()),
+              referenceColonies: count(1 + 100 * u()),
+            },
+          ],
+          end: [
+            {
+              label: 'e',
+              dilutionFold: 1e6,
+              volumeMl: 0.1,
+              testColonies: count(300 * u() ** 2),
+              referenceColonies: count(1 + 150 * u()),
+            },
+          ],
+        });
+      }
+      const a = analyse(inputs, {
+        bootstrapDraws: 200,
+        detectDifference: 0.05,
+        correctMarker: trial % 4 === 1,
+      });
+      expect(a.assays.length + a.errors.length).toBe(inputs.length);
+      expect(() => assertAllFinite(analysisJson(a))).not.toThrow();
+    }
   });
 });
