@@ -2,7 +2,8 @@
  * One competition assay: a test strain against the reference strain carrying the other marker,
  * mixed, sampled at the start and at the end.
  *
- * Realised Malthusian parameter of each strain (Lenski et al. 1991, Am. Nat. 138:1315):
+ * Realised Malthusian parameter of each strain (Lenski et al. 1991, Am. Nat. 138:1315; this and
+ * the Travisano & Lenski citation are from memory, Chevin 2011 is checked):
  *   m = ln(N_end × D / N_start), D = total fold dilution applied between the two samples.
  * Relative fitness W = m_test / m_ref; selection rate r = m_test − m_ref (Travisano & Lenski
  * 1996, Genetics 143:15), r per day = r / days; generations of the reference

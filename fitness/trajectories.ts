@@ -5,6 +5,7 @@
  * - hyperbolic  w = 1 + a·t/(t + b)   (a: asymptotic gain; b: generations to half of it;
  *   Lenski & Travisano 1994, PNAS 91:6808)
  * - power law   w = (b·t + 1)^a       (Wiser, Ribeck & Lenski 2013, Science 342:1364)
+ *   (the citations in this comment are from memory)
  * - step        piecewise-constant w with k change points, placed by exact optimal segmentation
  *   (dynamic programming over the segment-neighbourhood problem, Auger & Lawrence 1989, Bull.
  *   Math. Biol. 51:39), k chosen by BIC.
