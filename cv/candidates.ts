@@ -4,7 +4,9 @@ import type { ComponentStats, RegionStats } from './measure.ts';
  * Turns measured regions into colony candidates: drops what is not a colony by size and shape,
  * and estimates how many colonies an unsplittable clump holds.
  *
- * - Specks (dust, agar flaws): blobs smaller than a disc of MIN_COLONY_RADIUS_MM.
+ * - Specks (dust, agar flaws, noise): blobs smaller than a disc of MIN_COLONY_RADIUS_MM (a
+ *   colony 0.45 mm across is still kept), and small blobs whose contrast barely clears the
+ *   detection threshold: a real colony that small is a crisp dome, noise is not.
  * - Strokes (marker-pen writing seen through the lid): blobs far longer than they are thick and
  *   thinner than a typical colony. A chain of touching colonies is long too, but as thick as its
  *   colonies, so it stays.
@@ -12,7 +14,8 @@ import type { ComponentStats, RegionStats } from './measure.ts';
  *   watershed has cut a letter into pieces). Marker colours are colours; a plate whose marker is
  *   itself near-black would need this rule relaxed.
  * - Wall glints: blobs on the rim of the counting area that are thinner than half a typical
- *   colony. Reflections and the wall's inner face show as thin arcs there; a colony growing
+ *   colony, and regions within WALL_ZONE_MM of the wall smaller than a third of a typical colony.
+ *   Reflections and the wall's inner face show as thin arcs and crumbs there; a colony growing
  *   against the wall is as thick as any other and is kept.
  * - Clumps: a region the watershed could not split, recognised by not being round: its area is
  *   more than CLUMP_ELONGATION times the largest disc it holds (π·halfWidth², about 1 for any
@@ -20,7 +23,9 @@ import type { ComponentStats, RegionStats } from './measure.ts';
  *   and at most as many typical single colonies as its area holds; it is marked as estimated.
  * Sizes are in working pixels; `mmPerPx` converts the millimetre limits.
  */
-const MIN_COLONY_RADIUS_MM = 0.2;
+const MIN_COLONY_RADIUS_MM = 0.22;
+/** Below 2× the minimum area, a region must stand this many thresholds above the agar. */
+const SMALL_CONTRAST = 1.3;
 const STROKE_ELONGATION = 4.5;
 const STROKE_THINNESS = 0.7;
 /** Ink: darker than the agar by this much in L*, and with a chroma below INK_CHROMA. */
@@ -28,6 +33,8 @@ const INK_DARKER = 15;
 const INK_CHROMA = 12;
 const CLUMP_ELONGATION = 1.7;
 const WALL_THINNESS = 0.5;
+export const WALL_ZONE_MM = 1.2;
+const WALL_CRUMB = 0.35;
 
 export interface Candidate {
   region: RegionStats;
@@ -46,6 +53,8 @@ export function selectCandidates(
   components: ComponentStats[],
   typicalRadius: number,
   mmPerPx: number,
+  threshold: number,
+  nearWall: (r: RegionStats) => boolean,
 ): CandidateResult {
   const minArea = Math.PI * (MIN_COLONY_RADIUS_MM / mmPerPx) ** 2;
   const byId = new Map(components.map((c) => [c.id, c]));
@@ -57,13 +66,22 @@ export function selectCandidates(
     if (v !== 'keep') rejected[v]++;
   }
   const kept = regions.filter((r) => {
-    if (verdict.get(r.component) !== 'keep' || r.area < minArea * 0.5) return false;
+    if (verdict.get(r.component) !== 'keep' || r.area < minArea) return false;
+    if (r.area < 2 * minArea && r.contrast < SMALL_CONTRAST * threshold) {
+      rejected.specks++;
+      return false;
+    }
     if (!isInk(r)) return true;
     rejected.ink++;
     return false;
   });
   const typicalArea = typicalSingleArea(kept, byId) || Math.PI * typicalRadius ** 2;
-  const candidates = kept.map((region) => ({
+  const inside = kept.filter((r) => {
+    if (r.area >= WALL_CRUMB * typicalArea || !nearWall(r)) return true;
+    rejected.wall++;
+    return false;
+  });
+  const candidates = inside.map((region) => ({
     region,
     split: (byId.get(region.component)?.regions ?? 1) > 1,
     count: clumpCount(region, typicalArea),
