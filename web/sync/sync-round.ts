@@ -1,0 +1,186 @@
+/**
+ * One sync round: push the outbox in batches, then pull everything changed since the cursor and
+ * bring it into the app's records. A round stops at the first failure and leaves everything as
+ * it was for the next round: the outbox keeps what the server did not confirm, the cursor stays
+ * at the last page applied.
+ */
+import { restoreRecord } from '../../schema/restore.ts';
+import {
+  type Change,
+  type PulledRecord,
+  SYNC_LIMITS,
+  SYNCED_KINDS,
+} from '../../schema/sync-protocol.ts';
+import type { RecordStore } from '../storage/record-store.ts';
+import { planPulled } from './plan-pulled.ts';
+import type { SyncState } from './sync-state.ts';
+import type { SyncFailure, SyncTransport } from './transport.ts';
+
+export interface RoundCounts {
+  pushed: number;
+  pulled: number;
+  /** Changes the server refused for their content, set aside in the outbox with its reason. */
+  refused: number;
+  /** Server records that failed the restore gate: kept on the server, not brought in. */
+  unreadable: string[];
+}
+
+export type RoundResult = ({ ok: true } | { ok: false; failure: SyncFailure }) & RoundCounts;
+
+export interface RoundDeps {
+  /** The app's own store, written directly: what a pull brings is not a local change. */
+  records: RecordStore;
+  state: SyncState;
+  transport: SyncTransport;
+  now: () => Date;
+}
+
+async function bringIn(deps: RoundDeps, pulled: PulledRecord, counts: RoundCounts): Promise<void> {
+  const { records, state } = deps;
+  const { kind, id } = pulled;
+  const known = await state.known(kind, id);
+  const plan = planPulled(pulled, {
+    waiting: await state.isWaiting(kind, id),
+    bases: known?.hashes ?? [],
+  });
+  if (plan.action === 'skip' || plan.action === 'keep-local') return;
+
+  const head = plan.action === 'take' ? plan.head : plan.latest;
+  if (plan.action === 'conflict') {
+    await state.putConflict({ kind, id, heads: plan.heads, seenAt: deps.now().toISOString() });
+    // The phone's own version stays on screen until the person chooses; a phone that never had
+    // the record shows the latest head meanwhile.
+    if ((await records.get(kind, id)) !== undefined || head.deleted) return;
+  }
+  // Checked again just before writing: a tap made while this round ran must not be overwritten.
+  if (await state.isWaiting(kind, id)) return;
+  if (head.deleted) {
+    await records.remove({ [kind]: [id] });
+  } else {
+    const restored = restoreRecord(kind, head.body, `the server's ${kind} record ${id}`);
+    if (!restored.ok) {
+      counts.unreadable.push(restored.error);
+      return;
+    }
+    await records.put(kind, restored.record);
+  }
+  // Written after the record, so a crash between the two is found by a rescan, never as a
+  // record the phone believes it deleted.
+  await state.setKnown({
+    kind,
+    id,
+    hashes: plan.action === 'take' ? [head.hash] : (known?.hashes ?? [head.hash]),
+    revision: head.revision,
+    deleted: head.deleted,
+  });
+  if (plan.action === 'take') await state.dropConflict(kind, id);
+  counts.pulled += 1;
+}
+
+/** Refusals that are about the changes sent, not about the phone or the server. */
+const ABOUT_THE_CHANGE: ReadonlySet<SyncFailure['code']> = new Set([
+  'invalid-request',
+  'too-large',
+]);
+
+/**
+ * Pushes one batch. When the server refuses the batch for what is in it, each change is sent
+ * alone, and the ones refused alone are set aside with the server's reason, so one record the
+ * server will not take never holds up the rest.
+ */
+async function pushBatch(
+  deps: RoundDeps,
+  device: string,
+  changes: Change[],
+  counts: RoundCounts,
+): Promise<SyncFailure | null> {
+  const answer = await deps.transport.push(device, changes);
+  if (answer.ok) {
+    await deps.state.settle([...answer.value.accepted, ...answer.value.conflicts], changes);
+    counts.pushed += changes.length;
+    return null;
+  }
+  if (!ABOUT_THE_CHANGE.has(answer.failure.code)) return answer.failure;
+  if (changes.length === 1) {
+    const c = changes[0]!;
+    await deps.state.refuse(c.kind, c.id, c.revision, answer.failure.message);
+    counts.refused += 1;
+    return null;
+  }
+  for (const change of changes) {
+    const failure = await pushBatch(deps, device, [change], counts);
+    if (failure) return failure;
+  }
+  return null;
+}
+
+export async function syncRound(deps: RoundDeps): Promise<RoundResult> {
+  const { state, transport } = deps;
+  const counts: RoundCounts = { pushed: 0, pulled: 0, refused: 0, unreadable: [] };
+  const device = await state.meta('device');
+
+  // Bounded by what waited at the start: a person tapping on during the round adds to the next.
+  const batches = Math.ceil((await state.waiting()) / SYNC_LIMITS.changesPerPush);
+  for (let i = 0; i < batches; i++) {
+    const changes = await state.pending(SYNC_LIMITS.changesPerPush);
+    if (changes.length === 0) break;
+    const failure = await pushBatch(deps, device, changes, counts);
+    if (failure) return { ok: false, failure, ...counts };
+  }
+
+  for (;;) {
+    const answer = await transport.pull(await state.meta('cursor'));
+    if (!answer.ok) return { ok: false, failure: answer.failure, ...counts };
+    for (const record of answer.value.records) await bringIn(deps, record, counts);
+    await state.setMeta('cursor', answer.value.cursor);
+    if (!answer.value.more) break;
+  }
+  await state.setMeta('lastSuccessAt', deps.now().toISOString());
+  return { ok: true, ...counts };
+}
+
+/**
+ * Queues every synced record whose revision the server has not seen: the safety net for a
+ * change written to the app's store whose outbox entry was lost (the tab closed between the two
+ * writes). Also finds records deleted on the phone whose tombstone never reached the outbox.
+ */
+export async function rescan(records: RecordStore, state: SyncState, now: Date): Promise<number> {
+  let queued = 0;
+  const present = new Set<string>();
+  for (const kind of SYNCED_KINDS) {
+    for (const record of await records.all(kind)) {
+      present.add(`${kind}/${record.id}`);
+      const known = await state.known(kind, record.id);
+      if ((known && known.revision >= record.revision) || (await state.isWaiting(kind, record.id)))
+        continue;
+      const { id, revision, updatedAt } = record;
+      await state.queue({
+        kind,
+        id,
+        revision,
+        updatedAt,
+        deleted: false,
+        body: record,
+        queuedAt: now.toISOString(),
+      });
+      queued += 1;
+    }
+  }
+  for (const known of await state.allKnown()) {
+    const key = `${known.kind}/${known.id}`;
+    // Photos are known by their uploads, not as records: they have no tombstones.
+    if (known.deleted || present.has(key) || !SYNCED_KINDS.includes(known.kind)) continue;
+    if (await state.isWaiting(known.kind, known.id)) continue;
+    await state.queue({
+      kind: known.kind,
+      id: known.id,
+      revision: known.revision + 1,
+      updatedAt: now.toISOString(),
+      deleted: true,
+      body: null,
+      queuedAt: now.toISOString(),
+    });
+    queued += 1;
+  }
+  return queued;
+}
