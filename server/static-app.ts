@@ -8,16 +8,24 @@ import fastifyStatic from '@fastify/static';
 import type { FastifyInstance } from 'fastify';
 import type { SyncErrorBody } from '../schema/sync-protocol.ts';
 
-/** Files a browser must ask for again on each visit, or a new app version would never arrive. */
-const ALWAYS_REVALIDATE = /(^|\/)(index\.html|sw\.js|manifest\.webmanifest)$/;
+/**
+ * Vite names the files under assets/ by their content hash, so they never change and may be
+ * kept for good. Everything else (the page, the service worker, the manifest, icons) is checked
+ * with the server on each visit, or a new app version would never reach the phone.
+ */
+const HASHED = /[\\/]assets[\\/]/;
 
 export async function serveApp(app: FastifyInstance, appDir: string | null): Promise<void> {
   const built = appDir !== null && existsSync(join(appDir, 'index.html'));
   if (built) {
     await app.register(fastifyStatic, {
       root: appDir,
+      cacheControl: false,
       setHeaders: (res, path) => {
-        if (ALWAYS_REVALIDATE.test(path)) res.setHeader('Cache-Control', 'no-cache');
+        res.setHeader(
+          'Cache-Control',
+          HASHED.test(path) ? 'public, max-age=31536000, immutable' : 'no-cache',
+        );
       },
     });
   }
