@@ -1,4 +1,6 @@
 import type { WorkingFrame } from './frame.ts';
+import { glareMask } from './glare.ts';
+import { oddAtLeast } from './kernel-size.ts';
 import type { Keep } from './mat-scope.ts';
 import { withMats } from './mat-scope.ts';
 import type { Mat, OpenCv } from './opencv.ts';
@@ -17,8 +19,8 @@ import type { Dish, Lab } from './types.ts';
  *    agar right around them and not against one global agar colour;
  *  - `deltaE`: ΔE*ab of each pixel from that background (CV_32FC1),
  *  - `countMask`: where colonies may be counted (agar inside the wall band, minus glare), 8-bit 0/255,
- *  - `glareFraction`: share of the agar under lid glare (bright, nearly colourless patches much
- *    larger than a colony), which is excluded from counting and reported.
+ *  - `glareFraction`: share of the agar under lid glare (glare.ts), which is excluded from
+ *    counting and reported.
  */
 export interface AgarModel {
   lab: Mat;
@@ -33,10 +35,6 @@ export interface AgarModel {
 
 /** Window of the background median, in millimetres: wider than any single colony or pair. */
 const BACKGROUND_WINDOW_MM = 9;
-/** Glare: L* above this (a cream agar sits near 90), chroma below GLARE_CHROMA, and big. */
-const GLARE_L = 94;
-const GLARE_CHROMA = 7;
-const GLARE_MIN_DIAMETER_MM = 4;
 
 export function modelAgar(
   cv: OpenCv,
@@ -162,31 +160,4 @@ function labDistance(cv: OpenCv, lab: Mat, background: Mat): Mat {
     cv.sqrt(sq, out);
     return out;
   });
-}
-
-/** Glare is found at quarter resolution (the patches are large and soft), then scaled up. */
-function glareMask(cv: OpenCv, quarter: Mat, agarMask: Mat, frame: WorkingFrame): Mat {
-  return withMats((keep) => {
-    const c = Math.round(GLARE_CHROMA);
-    const size = [quarter.rows, quarter.cols, cv.CV_8UC3] as const;
-    const lo = keep(new cv.Mat(...size, [Math.round(GLARE_L * 2.55), 128 - c, 128 - c, 0]));
-    const hi = keep(new cv.Mat(...size, [255, 128 + c, 128 + c, 0]));
-    const bright = keep(new cv.Mat());
-    cv.inRange(quarter, lo, hi, bright);
-    // Keep only patches bigger than a colony: an opening with a disc of that size removes the rest,
-    // then the soft halo around each patch is taken in with a dilation by the same disc.
-    const k = oddAtLeast(3, GLARE_MIN_DIAMETER_MM / frame.mmPerPx / 4);
-    const disc = keep(cv.getStructuringElement(cv.MORPH_ELLIPSE, new cv.Size(k, k)));
-    cv.morphologyEx(bright, bright, cv.MORPH_OPEN, disc);
-    cv.dilate(bright, bright, disc);
-    const out = new cv.Mat();
-    cv.resize(bright, out, new cv.Size(agarMask.cols, agarMask.rows), 0, 0, cv.INTER_NEAREST);
-    cv.bitwise_and(out, agarMask, out);
-    return out;
-  });
-}
-
-export function oddAtLeast(min: number, v: number): number {
-  const n = Math.max(min, Math.round(v));
-  return n % 2 === 1 ? n : n + 1;
 }

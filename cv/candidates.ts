@@ -13,6 +13,9 @@ import type { ComponentStats, RegionStats } from './measure.ts';
  * - Ink: regions much darker than the agar and colourless (marker pen, whatever its shape once the
  *   watershed has cut a letter into pieces). Marker colours are colours; a plate whose marker is
  *   itself near-black would need this rule relaxed.
+ * - Grey shades: regions darker than the agar with hardly any colour of their own (the soft edge
+ *   of an ink stroke, the shadowed side of a droplet, the dim rim round lid glare). A colony is
+ *   either lighter than the agar (pale, white, cream) or coloured; a grey shade is neither.
  * - Wall glints: blobs on the rim of the counting area that are thinner than half a typical
  *   colony, and regions within WALL_ZONE_MM of the wall smaller than a third of a typical colony.
  *   Reflections and the wall's inner face show as thin arcs and crumbs there; a colony growing
@@ -31,6 +34,8 @@ const STROKE_THINNESS = 0.7;
 /** Ink: darker than the agar by this much in L*, and with a chroma below INK_CHROMA. */
 const INK_DARKER = 15;
 const INK_CHROMA = 12;
+/** A grey shade: darker than the agar and within this colour difference of it in a*, b*. */
+const GREY_SHADE_CHROMA = 6;
 const CLUMP_ELONGATION = 1.7;
 const WALL_THINNESS = 0.5;
 export const WALL_ZONE_MM = 1.2;
@@ -44,7 +49,7 @@ export interface Candidate {
 
 export interface CandidateResult {
   candidates: Candidate[];
-  rejected: { specks: number; strokes: number; wall: number; ink: number };
+  rejected: { specks: number; strokes: number; wall: number; shades: number };
   typicalArea: number;
 }
 
@@ -58,7 +63,7 @@ export function selectCandidates(
 ): CandidateResult {
   const minArea = Math.PI * (MIN_COLONY_RADIUS_MM / mmPerPx) ** 2;
   const byId = new Map(components.map((c) => [c.id, c]));
-  const rejected = { specks: 0, strokes: 0, wall: 0, ink: 0 };
+  const rejected = { specks: 0, strokes: 0, wall: 0, shades: 0 };
   const verdict = new Map<number, 'keep' | 'specks' | 'strokes' | 'wall'>();
   for (const c of components) {
     const v = componentVerdict(c, minArea, typicalRadius);
@@ -67,12 +72,17 @@ export function selectCandidates(
   }
   const kept = regions.filter((r) => {
     if (verdict.get(r.component) !== 'keep' || r.area < minArea) return false;
-    if (r.area < 2 * minArea && r.contrast < SMALL_CONTRAST * threshold) {
+    // A region no different from the agar on average is agar enclosed by something else (the
+    // inside of a pen letter, a filled ring), not a colony.
+    if (
+      r.contrast < threshold ||
+      (r.area < 2 * minArea && r.contrast < SMALL_CONTRAST * threshold)
+    ) {
       rejected.specks++;
       return false;
     }
-    if (!isInk(r)) return true;
-    rejected.ink++;
+    if (!isInk(r) && !isGreyShade(r)) return true;
+    rejected.shades++;
     return false;
   });
   const typicalArea = typicalSingleArea(kept, byId) || Math.PI * typicalRadius ** 2;
@@ -107,6 +117,12 @@ function componentVerdict(
   }
   if (c.rimPixels > 0 && c.halfWidth < WALL_THINNESS * typicalRadius) return 'wall';
   return 'keep';
+}
+
+function isGreyShade(r: RegionStats): boolean {
+  const dA = r.lab[1] - r.backgroundLab[1];
+  const dB = r.lab[2] - r.backgroundLab[2];
+  return r.lab[0] < r.backgroundLab[0] && Math.hypot(dA, dB) < GREY_SHADE_CHROMA;
 }
 
 function isInk(r: RegionStats): boolean {

@@ -1,6 +1,6 @@
 import type { AgarModel } from './agar.ts';
-import { oddAtLeast } from './agar.ts';
 import type { WorkingFrame } from './frame.ts';
+import { oddAtLeast } from './kernel-size.ts';
 import type { Keep } from './mat-scope.ts';
 import { withMats } from './mat-scope.ts';
 import type { Mat, OpenCv } from './opencv.ts';
