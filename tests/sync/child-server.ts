@@ -21,10 +21,15 @@ export interface ChildServer {
   stop(): Promise<void>;
 }
 
-export function startChildServer(dataDir: string, timeoutMs = 20_000): Promise<ChildServer> {
+/** `port` 0 takes any free port; a fixed one lets a restarted server keep its address. */
+export function startChildServer(
+  dataDir: string,
+  port = 0,
+  timeoutMs = 20_000,
+): Promise<ChildServer> {
   const child = spawn(
     process.execPath,
-    [BIN, 'server', 'start', '--port', '0', '--data', dataDir],
+    [BIN, 'server', 'start', '--port', String(port), '--data', dataDir],
     {
       stdio: ['ignore', 'pipe', 'pipe'],
     },

@@ -9,8 +9,6 @@ import type { Corrections, Plate, RecordKind } from '../../schema/records.ts';
 import type { PullResponse } from '../../schema/sync-protocol.ts';
 import { openIdbStore } from '../../web/storage/idb-store.ts';
 import type { RecordStore } from '../../web/storage/record-store.ts';
-import type { SchedulerEnv } from '../../web/sync/scheduler.ts';
-import { createSyncClient, type SyncClient } from '../../web/sync/sync-client.ts';
 import { openSyncState } from '../../web/sync/sync-state.ts';
 import { call, startTestServer, type TestServer } from './harness.ts';
 import {
@@ -23,43 +21,17 @@ import {
   revised,
   sample,
 } from './marrowfield.ts';
+import { makePhone } from './phone.ts';
 
 let server: TestServer;
+let phoneCount = 0;
+const phone = (name = `phone-${++phoneCount}`, network = { up: true }) => makePhone(name, network);
 beforeAll(async () => {
   server = await startTestServer();
 });
 afterAll(async () => {
   await server.close();
 });
-
-interface Phone {
-  client: SyncClient;
-  records: RecordStore;
-  network: { up: boolean };
-}
-
-let phoneCount = 0;
-
-/** A phone: its own databases (named so a "reload" can open them again), its own network. */
-async function phone(name = `phone-${++phoneCount}`, network = { up: true }): Promise<Phone> {
-  const env: SchedulerEnv = {
-    // Rounds run when the test asks (syncNow); the timers of a real phone would only add more.
-    setTimer: () => () => {},
-    isOnline: () => network.up,
-    onOnline: () => () => {},
-    random: () => 0.5,
-  };
-  const netFetch: typeof fetch = (input, init) =>
-    network.up ? fetch(input, init) : Promise.reject(new TypeError('network is down'));
-  const records = await openIdbStore(`${name}-records`);
-  const client = await createSyncClient({
-    records,
-    state: await openSyncState(`${name}-sync`),
-    env,
-    fetch: netFetch,
-  });
-  return { client, records: client.records, network };
-}
 
 async function serverHeads(token: string): Promise<Map<string, unknown[]>> {
   const out = new Map<string, unknown[]>();

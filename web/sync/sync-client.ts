@@ -113,6 +113,11 @@ export async function createSyncClient(options: SyncClientOptions): Promise<Sync
     const result = await syncRound({ records: inner, state, transport, now });
     const unreadable = result.unreadable;
     if (result.ok) {
+      // Started while the server was out of reach: its photo setting is learnt now.
+      if (!lab) {
+        const info = await transport.lab();
+        if (info.ok) lab = info.value;
+      }
       await sendPhotos(transport);
       const refused = await state.refused();
       await publish({
