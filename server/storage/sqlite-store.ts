@@ -9,7 +9,7 @@ import { headsAfter } from '../heads.ts';
 import { SyncRefusal } from '../refusal.ts';
 import type { HashedChange, Lab, LabSettings, SyncStore, Upload } from './sync-store.ts';
 
-/** Bumped with every change to the tables below; an older file is upgraded on open. */
+/** Bumped with every change to the tables below; a file from a newer server is refused on open. */
 const SCHEMA_VERSION = 1;
 
 const TABLES = `

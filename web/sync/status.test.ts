@@ -1,0 +1,27 @@
+import { describe, expect, it } from 'vitest';
+import { SYNC_ERRORS, type SyncErrorCode } from '../../schema/sync-protocol.ts';
+import { describeFailure, isPassing } from './status.ts';
+
+describe('sync status wording', () => {
+  const codes = [
+    ...(Object.keys(SYNC_ERRORS) as SyncErrorCode[]),
+    'unreachable',
+    'bad-answer',
+  ] as const;
+
+  it('has a message for every way sync can fail, keeping the server’s detail where it helps', () => {
+    for (const code of codes) {
+      const problem = describeFailure({ code, message: 'detail from the server' });
+      expect(problem.code).toBe(code);
+      expect(problem.message.length).toBeGreaterThan(20);
+    }
+    expect(
+      describeFailure({ code: 'invalid-request', message: 'plates p1: bad' }).message,
+    ).toContain('plates p1: bad');
+  });
+
+  it('retries by itself only where waiting can help; a bad token or an old app waits for the person', () => {
+    const passing = codes.filter((code) => isPassing({ code, message: '' }));
+    expect(passing.sort()).toEqual(['bad-answer', 'server-fault', 'storage-full', 'unreachable']);
+  });
+});
