@@ -24,6 +24,7 @@ import {
 import type {
   Analysis,
   Assay,
+  BinaryData,
   ColonyRecord,
   Corrections,
   Edit,
@@ -131,10 +132,10 @@ const photo = object<Photo>({
   ...stamp,
   plateId: nonEmpty,
   name: str,
-  blob: blob,
-  preview: blob,
-  width: positive,
-  height: positive,
+  blob: blob<BinaryData>,
+  preview: nullable(blob<BinaryData>),
+  width: nullable(positive),
+  height: nullable(positive),
 });
 
 const analysis = object<Analysis>({

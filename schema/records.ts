@@ -94,15 +94,18 @@ export interface BinaryData {
   arrayBuffer(): Promise<ArrayBuffer>;
 }
 
-/** The original photo, kept whole for re-analysis, and a screen-sized preview made from it. */
+/**
+ * The original photo, kept whole for re-analysis, and a screen-sized preview made from it by the
+ * analysis (null until the photo has been analysed once).
+ */
 export interface Photo extends Stamp {
   plateId: string;
   name: string;
   blob: BinaryData;
-  preview: BinaryData;
-  /** Upright size of the original, in pixels. */
-  width: number;
-  height: number;
+  preview: BinaryData | null;
+  /** Upright size of the original in pixels; null until the photo has been read once. */
+  width: number | null;
+  height: number | null;
 }
 
 export interface ColonyRecord {

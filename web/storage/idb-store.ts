@@ -40,38 +40,36 @@ export async function openIdbStore(name = 'rivalplate'): Promise<RecordStore> {
     return out;
   }
 
-  return {
+  const store: RecordStore = {
     problems,
     async put(kind, record) {
       const tx = db.transaction(kind, 'readwrite');
       await Promise.all([tx.store.put(record), tx.done]);
       changed();
     },
-    async putBatch(batch) {
-      const kinds = RECORD_KINDS.filter((k) => batch[k]?.length);
+    async putBatch(batch, remove = {}) {
+      const kinds = RECORD_KINDS.filter((k) => batch[k]?.length || remove[k]?.length);
       if (kinds.length === 0) return;
       const tx = db.transaction(kinds, 'readwrite');
-      const puts: Promise<unknown>[] = [];
+      const requests: Promise<unknown>[] = [];
       try {
-        for (const k of kinds) for (const r of batch[k] ?? []) puts.push(tx.objectStore(k).put(r));
+        for (const k of kinds) {
+          for (const id of remove[k] ?? []) requests.push(tx.objectStore(k).delete(id));
+          for (const r of batch[k] ?? []) requests.push(tx.objectStore(k).put(r));
+        }
       } catch (e) {
         // A put can throw at once (a record without its key); that alone does not abort the
         // transaction, so the records before it would commit. Abort so a batch is all or nothing;
         // the aborted requests' rejections are expected and consumed here.
         tx.abort();
-        await Promise.allSettled([...puts, tx.done]);
+        await Promise.allSettled([...requests, tx.done]);
         throw e;
       }
-      await Promise.all([...puts, tx.done]);
+      await Promise.all([...requests, tx.done]);
       changed();
     },
-    async remove(ids) {
-      const kinds = RECORD_KINDS.filter((k) => ids[k]?.length);
-      if (kinds.length === 0) return;
-      const tx = db.transaction(kinds, 'readwrite');
-      const dels = kinds.flatMap((k) => (ids[k] ?? []).map((id) => tx.objectStore(k).delete(id)));
-      await Promise.all([...dels, tx.done]);
-      changed();
+    remove(ids) {
+      return store.putBatch({}, ids);
     },
     async get(kind, id) {
       const raw = await db.get(kind, id);
@@ -88,4 +86,5 @@ export async function openIdbStore(name = 'rivalplate'): Promise<RecordStore> {
       return () => listeners.delete(listener);
     },
   };
+  return store;
 }

@@ -3,6 +3,9 @@ import type { RecordKind, RecordsByKind } from '../../schema/records.ts';
 /** A batch of records of several kinds, written in one transaction (all or nothing). */
 export type RecordBatch = { [K in RecordKind]?: RecordsByKind[K][] };
 
+/** Ids of records to delete, per kind. */
+export type RecordIds = { [K in RecordKind]?: string[] };
+
 /**
  * Where the app keeps its records. Every write resolves only once its transaction has
  * completed, so a record the UI shows as saved survives the tab being closed. Every read passes
@@ -10,9 +13,9 @@ export type RecordBatch = { [K in RecordKind]?: RecordsByKind[K][] };
  */
 export interface RecordStore {
   put<K extends RecordKind>(kind: K, record: RecordsByKind[K]): Promise<void>;
-  putBatch(batch: RecordBatch): Promise<void>;
-  /** Deletes the records named, all in one transaction. */
-  remove(ids: { [K in RecordKind]?: string[] }): Promise<void>;
+  /** Writes `batch` and deletes the records named in `remove`, all in one transaction. */
+  putBatch(batch: RecordBatch, remove?: RecordIds): Promise<void>;
+  remove(ids: RecordIds): Promise<void>;
   get<K extends RecordKind>(kind: K, id: string): Promise<RecordsByKind[K] | undefined>;
   /** Records whose parent field (see schema KINDS) holds `parentId`. */
   children<K extends RecordKind>(kind: K, parentId: string): Promise<RecordsByKind[K][]>;

@@ -1,0 +1,48 @@
+import { defineConfig, devices } from '@playwright/test';
+
+/**
+ * End-to-end tests of the bench app in the machine's Chromium (Debian's package; Playwright
+ * downloads no browser here). `npm run test:e2e` builds the app into tests/artifacts/e2e-dist
+ * first, so a build others run into dist/ at the same time cannot swap files under the tests.
+ */
+const PORT = Number(process.env.RIVALPLATE_E2E_PORT ?? 4319);
+export const E2E_DIST = 'tests/artifacts/e2e-dist';
+
+export default defineConfig({
+  testDir: 'tests/e2e',
+  testMatch: '*.spec.ts',
+  outputDir: 'tests/artifacts/e2e-results',
+  // The machine has two shared cores; one browser at a time keeps timings honest.
+  workers: 1,
+  fullyParallel: false,
+  timeout: 120_000,
+  expect: { timeout: 30_000 },
+  reporter: [['list']],
+  use: {
+    ...devices['Pixel 7'],
+    baseURL: `http://127.0.0.1:${PORT}/`,
+    serviceWorkers: 'allow',
+    trace: 'retain-on-failure',
+    launchOptions: {
+      executablePath: process.env.RIVALPLATE_CHROMIUM ?? '/usr/bin/chromium',
+      args: [
+        '--headless',
+        '--no-sandbox',
+        '--disable-gpu',
+        '--disable-quic',
+        '--no-first-run',
+        '--disable-background-networking',
+        '--disable-component-update',
+        '--disable-sync',
+        '--use-fake-device-for-media-stream',
+        '--use-fake-ui-for-media-stream',
+      ],
+    },
+  },
+  webServer: {
+    command: `npx vite preview --outDir ../${E2E_DIST} --port ${PORT} --strictPort --bypass-lock`,
+    url: `http://127.0.0.1:${PORT}/`,
+    reuseExistingServer: false,
+    timeout: 60_000,
+  },
+});

@@ -1,0 +1,41 @@
+import { mkdirSync } from 'node:fs';
+import { resolve } from 'node:path';
+import { expect, type Page } from '@playwright/test';
+
+export const ROOT = resolve(import.meta.dirname, '../..');
+export const SHOTS = resolve(ROOT, 'tests/artifacts/screenshots');
+export const DEMO = resolve(ROOT, 'fixtures/demo');
+mkdirSync(SHOTS, { recursive: true });
+
+export async function shot(page: Page, name: string): Promise<void> {
+  await page.screenshot({ path: resolve(SHOTS, `${name}.png`), fullPage: true });
+}
+
+/** Opens the app and acknowledges the first-use biosafety note. */
+export async function openApp(page: Page): Promise<void> {
+  await page.goto('./');
+  await expect(page.getByRole('dialog', { name: 'Before you photograph plates' })).toBeVisible();
+  await page.getByRole('button', { name: 'Understood' }).tap();
+  await expect(page.getByRole('heading', { name: 'Rivalplate' })).toBeVisible();
+}
+
+export async function count(page: Page, cls: 0 | 1): Promise<number> {
+  return Number(await page.getByTestId(`count-${cls}-value`).textContent());
+}
+
+/** Taps the centre of the `nth` outlined single colony (not a clump) of class `cls`. */
+export async function tapColony(page: Page, cls: 0 | 1, nth = 0): Promise<void> {
+  const mark = page
+    .locator(`[data-testid=review] .colony-mark[data-cls="${cls}"][data-count="1"] circle`)
+    .nth(nth * 2 + 1);
+  const box = await mark.boundingBox();
+  if (!box) throw new Error(`no colony of class ${cls} on screen`);
+  await page.touchscreen.tap(box.x + box.width / 2, box.y + box.height / 2);
+}
+
+/** Waits until the service worker controls the page (the app is then precached). */
+export async function waitForServiceWorker(page: Page): Promise<void> {
+  await page.waitForFunction(() => navigator.serviceWorker?.controller !== null, null, {
+    timeout: 60_000,
+  });
+}

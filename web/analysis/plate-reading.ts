@@ -1,0 +1,115 @@
+import { proxy } from 'comlink';
+import type { Analysis, DishRecord, Experiment, Photo, Plate } from '../../schema/records.ts';
+import type { PlateWorkerApi } from '../../worker/plate-worker.ts';
+import type { Palette } from '../../worker/types.ts';
+import type { RecordStore } from '../storage/record-store.ts';
+import { newStamp, revised } from '../storage/stamp.ts';
+import { analysisRecord, paletteOf, paletteRecord, plateAnalysisOf } from './records.ts';
+import type { WorkerBridge } from './worker-bridge.ts';
+
+export type PlateWorker = WorkerBridge<PlateWorkerApi>;
+
+export interface ReadOptions {
+  /** A dish placed by the person (original pixels); otherwise the analysis finds it. */
+  dish?: DishRecord;
+  signal?: AbortSignal;
+  onProgress?: (stage: string, fraction: number) => void;
+}
+
+/**
+ * Reads one plate photo in the worker and stores the result: the preview on the photo, a new
+ * analysis replacing the plate's earlier ones, and no corrections (they belonged to the old
+ * colonies). When the experiment has no palette yet and this plate shows two colours, the palette
+ * is learned from it, so every later plate is classified against the same two colours.
+ */
+export async function readPlate(
+  store: RecordStore,
+  worker: PlateWorker,
+  experiment: Experiment,
+  plate: Plate,
+  photo: Photo,
+  options: ReadOptions = {},
+): Promise<Analysis> {
+  const palette = experiment.palette ? paletteOf(experiment.palette) : undefined;
+  const onProgress = options.onProgress && proxy(options.onProgress);
+  const result = await worker.call(
+    (api) =>
+      api.analyse(
+        {
+          photo: photo.blob as Blob,
+          name: photo.name,
+          ...(palette && { palette }),
+          ...(options.dish && { dish: options.dish }),
+        },
+        onProgress,
+      ),
+    options.signal,
+  );
+  const analysis = analysisRecord(
+    result.analysis,
+    newStamp(),
+    plate.id,
+    photo.id,
+    Boolean(palette),
+  );
+  const [old, oldCorrections] = await Promise.all([
+    store.children('analyses', plate.id),
+    store.children('corrections', plate.id),
+  ]);
+  let learned: Palette | null = null;
+  if (!palette && !result.analysis.flags.some((f) => f.kind === 'one-colour')) {
+    learned = await worker.call((api) => api.learnPalette([result.analysis]), options.signal);
+  }
+  await store.putBatch(
+    {
+      photos: [
+        revised(photo, {
+          preview: result.preview,
+          width: result.analysis.width,
+          height: result.analysis.height,
+        }),
+      ],
+      analyses: [analysis],
+      plates: [revised(plate, { reviewed: false })],
+      ...(learned && {
+        experiments: [revised(experiment, { palette: paletteRecord(learned, 'learned') })],
+      }),
+    },
+    { analyses: old.map((a) => a.id), corrections: oldCorrections.map((c) => c.id) },
+  );
+  return analysis;
+}
+
+/**
+ * Re-sorts every analysed plate of an experiment into the palette's two colours without finding
+ * the colonies again. Colony ids stay, so the person's corrections still apply.
+ */
+export async function reclassifyAll(
+  store: RecordStore,
+  worker: PlateWorker,
+  palette: Palette,
+  analyses: readonly Analysis[],
+): Promise<void> {
+  const updated: Analysis[] = [];
+  for (const a of analyses) {
+    const measured = a.colonies.filter((c) => c.lab && c.deltaLab);
+    const out = await worker.call((api) => api.reclassify(plateAnalysisOf(a), palette));
+    const cls = new Map(measured.map((c, i) => [c.id, out.colonies[i]?.cls ?? c.cls]));
+    const conf = new Map(
+      measured.map((c, i) => [c.id, out.colonies[i]?.confidence ?? c.confidence]),
+    );
+    const classes = analysisRecord(out, a, a.plateId, a.photoId, true).classes;
+    updated.push(
+      revised(a, {
+        colonies: a.colonies.map((c) => ({
+          ...c,
+          cls: cls.get(c.id) ?? c.cls,
+          confidence: conf.get(c.id) ?? c.confidence,
+        })),
+        classes,
+        paletteUsed: true,
+      }),
+    );
+  }
+  await store.putBatch({ analyses: updated });
+}

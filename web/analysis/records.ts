@@ -1,0 +1,146 @@
+import type {
+  Analysis,
+  ClassRecord,
+  ColonyRecord,
+  FlagRecord,
+  PaletteRecord,
+  Stamp,
+} from '../../schema/records.ts';
+import type { Colony, Palette, PlateAnalysis, QualityFlag } from '../../worker/types.ts';
+
+/** Words for the image-quality flags, shown beside the counts they concern. */
+export function flagText(flag: QualityFlag): FlagRecord {
+  switch (flag.kind) {
+    case 'dish-not-found':
+      return {
+        kind: flag.kind,
+        detail: 'Dish not found: drag the dish outline into place and re-read.',
+      };
+    case 'glare':
+      return {
+        kind: flag.kind,
+        detail: `Lid glare over ${Math.round(flag.fraction * 100)}% of the agar: colonies under it may be missed.`,
+      };
+    case 'clumps-estimated':
+      return {
+        kind: flag.kind,
+        detail: `${flag.clumps} clumps counted from their area as ${flag.colonies} colonies.`,
+      };
+    case 'low-confidence':
+      return {
+        kind: flag.kind,
+        detail: `${flag.colonies} colonies with an uncertain colour: check them.`,
+      };
+    case 'out-of-focus':
+      return {
+        kind: flag.kind,
+        detail: `The photo looks out of focus (edges ${flag.edgeWidthMm.toFixed(2)} mm wide).`,
+      };
+    case 'one-colour':
+      return { kind: flag.kind, detail: `One colour only: ${flag.reason}` };
+  }
+}
+
+const FALLBACK_CLASSES: [ClassRecord, ClassRecord] = [
+  { cls: 0, name: 'colour 1', hex: '#3f6fb0', deltaLab: [0, 0, 0] },
+  { cls: 1, name: 'colour 2', hex: '#efe6cf', deltaLab: [0, 0, 0] },
+];
+
+/** The stored record of one analysis (original photo pixels), colonies numbered in found order. */
+export function analysisRecord(
+  a: PlateAnalysis,
+  stamp: Stamp,
+  plateId: string,
+  photoId: string,
+  paletteUsed: boolean,
+): Analysis {
+  const colonies: ColonyRecord[] = a.colonies.map((c, i) => ({
+    id: `c${i}`,
+    x: c.x,
+    y: c.y,
+    r: c.r,
+    cls: c.cls,
+    confidence: c.confidence,
+    count: c.count,
+    area: c.area,
+    split: c.split,
+    lab: [...c.lab],
+    deltaLab: [...c.deltaLab],
+  }));
+  const cls = (i: 0 | 1): ClassRecord => {
+    const k = a.classes.find((c) => c.cls === i);
+    return k
+      ? { cls: i, name: k.name, hex: k.hex, deltaLab: [...k.deltaLab] }
+      : FALLBACK_CLASSES[i];
+  };
+  return {
+    ...stamp,
+    plateId,
+    photoId,
+    width: a.width,
+    height: a.height,
+    agarLab: [...a.agarLab],
+    dish: a.dish && {
+      cx: a.dish.cx,
+      cy: a.dish.cy,
+      rx: a.dish.rx,
+      ry: a.dish.ry,
+      angleDeg: a.dish.angleDeg,
+    },
+    colonies,
+    classes: [cls(0), cls(1)],
+    flags: a.flags.map(flagText),
+    paletteUsed,
+    ms: Object.values(a.timings).reduce((s, t) => s + t, 0),
+  };
+}
+
+/** The analysis core's view of a stored colony; null for one added by hand (no measured colour). */
+export function colonyOf(c: ColonyRecord): Colony | null {
+  if (!c.lab || !c.deltaLab) return null;
+  const { x, y, r, area, cls, confidence, split, count, lab, deltaLab } = c;
+  return { x, y, r, area, cls, confidence, split, count, lab, deltaLab };
+}
+
+/**
+ * The analysis core's view of a stored analysis, for re-classifying against a palette or
+ * learning one. Colonies added by hand have no measured colour and are left out.
+ */
+export function plateAnalysisOf(r: Analysis): PlateAnalysis {
+  const colonies = r.colonies.flatMap((c) => colonyOf(c) ?? []);
+  const counts: Record<string, number> = {};
+  for (const k of r.classes) counts[k.name] = 0;
+  for (const c of colonies) {
+    const name = r.classes[c.cls].name;
+    counts[name] = (counts[name] ?? 0) + c.count;
+  }
+  return {
+    width: r.width,
+    height: r.height,
+    scale: 1,
+    dish: r.dish && { ...r.dish, r: (r.dish.rx + r.dish.ry) / 2, agarFraction: 1, source: 'given' },
+    colonies,
+    counts,
+    classes: r.classes.map((k) => ({ cls: k.cls, name: k.name, hex: k.hex, deltaLab: k.deltaLab })),
+    agarLab: r.agarLab,
+    flags: [],
+    timings: {},
+  };
+}
+
+export function paletteRecord(p: Palette, source: PaletteRecord['source']): PaletteRecord {
+  const colour = (i: 0 | 1) => {
+    const c = p.colours[i];
+    return {
+      name: c.name,
+      hex: c.hex,
+      deltaLab: [...c.deltaLab] as [number, number, number],
+      spread: c.spread,
+    };
+  };
+  return { version: 1, colours: [colour(0), colour(1)], source };
+}
+
+export function paletteOf(r: PaletteRecord): Palette {
+  return { version: 1, colours: r.colours };
+}

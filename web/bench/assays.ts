@@ -1,0 +1,124 @@
+import type {
+  Assay,
+  ClassIndex,
+  Experiment,
+  Plate,
+  Sample,
+  Timepoint,
+} from '../../schema/records.ts';
+import { newStamp } from '../storage/stamp.ts';
+
+export interface AssayDraft {
+  line: string;
+  generation: number;
+  replicate: number;
+  group: string;
+  testClass: ClassIndex;
+  foldDilutionSinceStart: number;
+  days: number;
+  startDilutionFold: number;
+  endDilutionFold: number;
+  volumeUl: number;
+}
+
+export interface NewAssay {
+  assay: Assay;
+  samples: [Sample, Sample];
+  plates: [Plate, Plate];
+}
+
+/** An assay with its start and end samples, one plate each, ready to photograph. */
+export function newAssay(experiment: Experiment, draft: AssayDraft): NewAssay {
+  const assay: Assay = {
+    ...newStamp(),
+    experimentId: experiment.id,
+    line: draft.line,
+    generation: draft.generation,
+    replicate: draft.replicate,
+    group: draft.group || draft.line,
+    testClass: draft.testClass,
+    foldDilutionSinceStart: draft.foldDilutionSinceStart,
+    days: draft.days,
+  };
+  const sample = (timepoint: Timepoint): Sample => ({
+    ...newStamp(),
+    experimentId: experiment.id,
+    assayId: assay.id,
+    timepoint,
+  });
+  const start = sample('start');
+  const end = sample('end');
+  return {
+    assay,
+    samples: [start, end],
+    plates: [
+      newPlate(start, draft.startDilutionFold, draft.volumeUl),
+      newPlate(end, draft.endDilutionFold, draft.volumeUl),
+    ],
+  };
+}
+
+export function newPlate(sample: Sample, dilutionFold: number, volumeUl: number): Plate {
+  return {
+    ...newStamp(),
+    experimentId: sample.experimentId,
+    assayId: sample.assayId,
+    sampleId: sample.id,
+    dilutionFold,
+    volumeUl,
+    photoId: null,
+    typedCounts: null,
+    reviewed: false,
+  };
+}
+
+/**
+ * The form's prefill for the next assay: the next replicate of the last assay's line with the
+ * same settings, so a run of replicates is one tap each. The first assay takes the experiment's
+ * defaults; the end sample starts one transfer dilution further than the start.
+ */
+export function nextAssayDraft(
+  experiment: Experiment,
+  assays: readonly Assay[],
+  plates: readonly Plate[],
+  samples: readonly Sample[],
+): AssayDraft {
+  const last = [...assays].sort((a, b) => a.updatedAt.localeCompare(b.updatedAt)).at(-1);
+  const line = last?.line ?? experiment.lines[0] ?? 'L1';
+  const sameLine = assays.filter(
+    (a) => a.line === line && a.generation === (last?.generation ?? 0),
+  );
+  const firstPlate = (timepoint: Timepoint) => {
+    const s = samples.find((x) => x.assayId === last?.id && x.timepoint === timepoint);
+    return plates.find((p) => p.sampleId === s?.id);
+  };
+  return {
+    line,
+    generation: last?.generation ?? 0,
+    replicate: sameLine.length ? Math.max(...sameLine.map((a) => a.replicate)) + 1 : 1,
+    group: last?.group ?? '',
+    testClass: last?.testClass ?? 1,
+    foldDilutionSinceStart: last?.foldDilutionSinceStart ?? experiment.transferDilution,
+    days: last?.days ?? 1,
+    startDilutionFold: firstPlate('start')?.dilutionFold ?? experiment.defaultDilutionFold,
+    endDilutionFold:
+      firstPlate('end')?.dilutionFold ??
+      experiment.defaultDilutionFold * experiment.transferDilution,
+    volumeUl: firstPlate('start')?.volumeUl ?? experiment.defaultVolumeUl,
+  };
+}
+
+/** Another plate of the same sample: one ten-fold step further than the sample's last plate. */
+export function nextPlateOf(
+  sample: Sample,
+  plates: readonly Plate[],
+  experiment: Experiment,
+): Plate {
+  const own = plates.filter((p) => p.sampleId === sample.id);
+  const last = own.at(-1);
+  return newPlate(
+    sample,
+    last ? last.dilutionFold * 10 : experiment.defaultDilutionFold,
+    last?.volumeUl ?? experiment.defaultVolumeUl,
+  );
+}

@@ -1,0 +1,30 @@
+import type { Experiment } from '../../schema/records.ts';
+import { newStamp } from '../storage/stamp.ts';
+
+export type ExperimentDraft = Pick<
+  Experiment,
+  | 'name'
+  | 'lines'
+  | 'referenceName'
+  | 'transferDilution'
+  | 'defaultDilutionFold'
+  | 'defaultVolumeUl'
+>;
+
+export const BLANK_EXPERIMENT: ExperimentDraft = {
+  name: '',
+  lines: ['L1', 'L2', 'L3'],
+  referenceName: 'ancestor',
+  transferDilution: 100,
+  defaultDilutionFold: 100_000,
+  defaultVolumeUl: 100,
+};
+
+export function newExperiment(draft: ExperimentDraft, demo = false): Experiment {
+  return { ...newStamp(), ...draft, demo, palette: null };
+}
+
+/** "L1, L2  L3" → ["L1", "L2", "L3"]: lines are typed as one field, split on commas or spaces. */
+export function parseLines(text: string): string[] {
+  return [...new Set(text.split(/[\s,;]+/).filter(Boolean))];
+}

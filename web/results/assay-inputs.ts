@@ -1,0 +1,70 @@
+import type { AssayInput } from '../../fitness/competition.ts';
+import type { Assay } from '../../schema/records.ts';
+import type { ExperimentData } from '../bench/experiment-data.ts';
+import { plateCount } from '../bench/plate-counts.ts';
+
+export function assayLabel(a: Assay): string {
+  return `${a.line} g${a.generation} r${a.replicate}`;
+}
+
+export interface FitnessInputs {
+  inputs: AssayInput[];
+  /** Assays left out because a plate has no count yet, with the reason. */
+  waiting: { assay: string; reason: string }[];
+}
+
+/**
+ * The fitness engine's input for every assay whose start and end samples each have at least one
+ * counted plate. Plates without a count are skipped with the reason, never counted as zero.
+ */
+export function fitnessInputs(data: ExperimentData): FitnessInputs {
+  const inputs: AssayInput[] = [];
+  const waiting: FitnessInputs['waiting'] = [];
+  for (const assay of data.assays) {
+    const label = assayLabel(assay);
+    const platesOf = (timepoint: 'start' | 'end') => {
+      const sampleIds = new Set(
+        data.samples
+          .filter((s) => s.assayId === assay.id && s.timepoint === timepoint)
+          .map((s) => s.id),
+      );
+      return data.plates
+        .filter((p) => sampleIds.has(p.sampleId))
+        .sort((a, b) => a.dilutionFold - b.dilutionFold)
+        .flatMap((p, i) => {
+          const c = plateCount(p, assay, data.analyses.get(p.id), data.corrections.get(p.id));
+          if (!c) return [];
+          return [
+            {
+              label: `${label} ${timepoint} plate ${i + 1} (1:${p.dilutionFold})`,
+              dilutionFold: p.dilutionFold,
+              volumeMl: p.volumeUl / 1000,
+              testColonies: c.test,
+              referenceColonies: c.reference,
+            },
+          ];
+        });
+    };
+    const start = platesOf('start');
+    const end = platesOf('end');
+    if (start.length === 0 || end.length === 0) {
+      waiting.push({
+        assay: label,
+        reason: `no counted ${start.length === 0 ? 'start' : 'end'} plate yet`,
+      });
+      continue;
+    }
+    inputs.push({
+      assay: label,
+      group: assay.group,
+      line: assay.line,
+      generation: assay.generation,
+      replicate: String(assay.replicate),
+      days: assay.days,
+      foldDilutionSinceStart: assay.foldDilutionSinceStart,
+      start,
+      end,
+    });
+  }
+  return { inputs, waiting };
+}

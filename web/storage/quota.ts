@@ -1,0 +1,26 @@
+export interface StorageStatus {
+  usedBytes: number | null;
+  quotaBytes: number | null;
+  persisted: boolean;
+}
+
+/** Share of the quota above which the app warns that space is running out. */
+export const QUOTA_WARNING = 0.8;
+
+export async function storageStatus(): Promise<StorageStatus> {
+  const s = navigator.storage;
+  if (!s?.estimate) return { usedBytes: null, quotaBytes: null, persisted: false };
+  const [estimate, persisted] = await Promise.all([s.estimate(), s.persisted?.() ?? false]);
+  return { usedBytes: estimate.usage ?? null, quotaBytes: estimate.quota ?? null, persisted };
+}
+
+/** Asks the browser not to evict the app's data under storage pressure; resolves to the answer. */
+export async function requestPersistence(): Promise<boolean> {
+  return (await navigator.storage?.persist?.()) ?? false;
+}
+
+export function formatBytes(n: number): string {
+  if (n < 1024 * 1024) return `${Math.round(n / 1024)} kB`;
+  if (n < 1024 ** 3) return `${(n / 1024 / 1024).toFixed(1)} MB`;
+  return `${(n / 1024 ** 3).toFixed(2)} GB`;
+}

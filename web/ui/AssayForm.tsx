@@ -1,0 +1,119 @@
+import { useState } from 'react';
+import type { ClassIndex } from '../../schema/records.ts';
+import { useServices } from '../app/services.ts';
+import { type AssayDraft, newAssay, nextAssayDraft } from '../bench/assays.ts';
+import { classLooks } from '../bench/colours.ts';
+import type { ExperimentData } from '../bench/experiment-data.ts';
+import { NumberField } from './NumberField.tsx';
+
+type DraftFields = { [K in keyof AssayDraft]: AssayDraft[K] | null };
+
+export function AssayForm({ data, onClose }: { data: ExperimentData; onClose: () => void }) {
+  const { store } = useServices();
+  const [draft, setDraft] = useState<DraftFields>(() =>
+    nextAssayDraft(data.experiment, data.assays, data.plates, data.samples),
+  );
+  const [error, setError] = useState<string | null>(null);
+  const looks = classLooks(data.experiment);
+  const set =
+    <K extends keyof AssayDraft>(key: K) =>
+    (v: AssayDraft[K] | null) =>
+      setDraft((d) => ({ ...d, [key]: v }));
+
+  async function save(keepOpen: boolean) {
+    const missing = (Object.keys(draft) as (keyof AssayDraft)[]).filter((k) => draft[k] === null);
+    if (missing.length) return setError(`Check the fields marked in red (${missing.join(', ')}).`);
+    const complete = draft as AssayDraft;
+    const made = newAssay(data.experiment, complete);
+    await store.putBatch({ assays: [made.assay], samples: made.samples, plates: made.plates });
+    setError(null);
+    if (keepOpen) setDraft({ ...complete, replicate: complete.replicate + 1 });
+    else onClose();
+  }
+  const onSave = (keepOpen: boolean) =>
+    save(keepOpen).catch((e: unknown) =>
+      setError(`Not saved: ${e instanceof Error ? e.message : String(e)}`),
+    );
+
+  return (
+    <section className="card stack" aria-label="New assay">
+      <h2>New assay</h2>
+      <div className="grid3">
+        <label className="field">
+          Line
+          <select value={draft.line ?? ''} onChange={(e) => set('line')(e.target.value)}>
+            {data.experiment.lines.map((l) => (
+              <option key={l}>{l}</option>
+            ))}
+          </select>
+        </label>
+        <NumberField
+          label="Generation"
+          value={draft.generation}
+          onChange={set('generation')}
+          whole
+        />
+        <NumberField label="Replicate" value={draft.replicate} onChange={set('replicate')} whole />
+      </div>
+      <fieldset className="field" style={{ border: 0, padding: 0, margin: 0 }}>
+        <legend className="muted" style={{ fontWeight: 600 }}>
+          The evolved line's colonies are
+        </legend>
+        <div className="row">
+          {looks.map((l, i) => (
+            <button
+              key={l.name}
+              type="button"
+              className="btn"
+              aria-pressed={draft.testClass === i}
+              onClick={() => set('testClass')(i as ClassIndex)}
+            >
+              <span className="dot" style={{ background: l.hex }} /> {l.name}
+            </button>
+          ))}
+        </div>
+      </fieldset>
+      <div className="grid3">
+        <NumberField
+          label="Start plate dilution"
+          value={draft.startDilutionFold}
+          onChange={set('startDilutionFold')}
+        />
+        <NumberField
+          label="End plate dilution"
+          value={draft.endDilutionFold}
+          onChange={set('endDilutionFold')}
+        />
+        <NumberField label="Volume (µL)" value={draft.volumeUl} onChange={set('volumeUl')} />
+      </div>
+      <div className="grid2">
+        <NumberField
+          label="Dilution between samples (fold)"
+          value={draft.foldDilutionSinceStart}
+          onChange={set('foldDilutionSinceStart')}
+        />
+        <NumberField label="Days" value={draft.days} onChange={set('days')} />
+      </div>
+      <label className="field">
+        Group (replicates of one treatment)
+        <input
+          value={draft.group ?? ''}
+          placeholder={draft.line ?? ''}
+          onChange={(e) => set('group')(e.target.value)}
+        />
+      </label>
+      {error && <p className="field-error">{error}</p>}
+      <div className="row">
+        <button type="button" className="btn primary" onClick={() => onSave(false)}>
+          Save assay
+        </button>
+        <button type="button" className="btn" onClick={() => onSave(true)}>
+          Save, next replicate
+        </button>
+        <button type="button" className="btn quiet" onClick={onClose}>
+          Close
+        </button>
+      </div>
+    </section>
+  );
+}

@@ -1,0 +1,41 @@
+import { useState } from 'react';
+import { classLooks } from '../bench/colours.ts';
+import type { ExperimentData } from '../bench/experiment-data.ts';
+import { AssayCard } from './AssayCard.tsx';
+import { AssayForm } from './AssayForm.tsx';
+import { PaletteCard } from './PaletteCard.tsx';
+
+export function AssaysTab({ data }: { data: ExperimentData }) {
+  const [adding, setAdding] = useState(data.assays.length === 0);
+  const looks = classLooks(data.experiment);
+  const lines = [...new Set(data.assays.map((a) => a.line))];
+  return (
+    <>
+      <PaletteCard data={data} />
+      {adding ? (
+        <AssayForm data={data} onClose={() => setAdding(false)} />
+      ) : (
+        <button
+          type="button"
+          className="btn primary"
+          style={{ width: '100%', marginBottom: 12 }}
+          onClick={() => setAdding(true)}
+        >
+          New assay
+        </button>
+      )}
+      {lines.map((line, i) => (
+        <details key={line} open={i === 0 || lines.length === 1} className="card">
+          <summary style={{ fontWeight: 700, minHeight: 40 }}>
+            Line {line} · {data.assays.filter((a) => a.line === line).length} assays
+          </summary>
+          {data.assays
+            .filter((a) => a.line === line)
+            .map((a) => (
+              <AssayCard key={a.id} assay={a} data={data} looks={looks} />
+            ))}
+        </details>
+      ))}
+    </>
+  );
+}

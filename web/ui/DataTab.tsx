@@ -1,0 +1,130 @@
+import { useState } from 'react';
+import { useServices } from '../app/services.ts';
+import type { ExperimentData } from '../bench/experiment-data.ts';
+import { backupJson, newerOnly, readBackup } from '../exchange/backup.ts';
+import { platesCsv, resultsCsv } from '../exchange/competition-csv.ts';
+import { saveBlob } from '../exchange/download.ts';
+import { assaysFromCsv } from '../exchange/import-csv.ts';
+import { fitnessInputs } from '../results/assay-inputs.ts';
+import { experimentFitness } from '../results/experiment-fitness.ts';
+import { StorageCard } from './StorageCard.tsx';
+
+const slug = (s: string) =>
+  s
+    .replace(/[^\w-]+/g, '-')
+    .replace(/^-|-$/g, '')
+    .toLowerCase() || 'experiment';
+
+export function DataTab({ data }: { data: ExperimentData }) {
+  const { store } = useServices();
+  const [note, setNote] = useState<{ ok: boolean; text: string } | null>(null);
+  const name = slug(data.experiment.name);
+  const say = (ok: boolean, text: string) => setNote({ ok, text });
+  const failed = (e: unknown) => say(false, e instanceof Error ? e.message : String(e));
+
+  async function importFile(file: File, kind: 'csv' | 'backup') {
+    const text = await file.text();
+    if (kind === 'csv') {
+      const { batch, assays } = assaysFromCsv(text, file.name, data.experiment);
+      await store.putBatch(batch);
+      say(true, `${file.name}: ${assays} assays added with their typed counts.`);
+    } else {
+      const { batch, count } = readBackup(text, file.name);
+      await store.putBatch(await newerOnly(store, batch));
+      say(true, `${file.name}: ${count} records read; newer copies on this device were kept.`);
+    }
+  }
+  const picker = (kind: 'csv' | 'backup', label: string, accept: string) => (
+    <label className="btn">
+      {label}
+      <input
+        type="file"
+        accept={accept}
+        hidden
+        data-testid={`import-${kind}`}
+        onChange={(e) => {
+          const file = e.target.files?.[0];
+          e.target.value = '';
+          if (file) importFile(file, kind).catch(failed);
+        }}
+      />
+    </label>
+  );
+
+  return (
+    <>
+      <section className="card stack" aria-label="Export">
+        <h2>Take the data with you</h2>
+        <p className="muted">
+          The plate table has the columns the <code>rivalplate fitness</code> command reads, so it
+          goes back and forth.
+        </p>
+        <div className="row">
+          <button
+            type="button"
+            className="btn primary"
+            data-testid="export-plates"
+            onClick={() =>
+              saveBlob(
+                new Blob([platesCsv(fitnessInputs(data).inputs)], { type: 'text/csv' }),
+                `${name}-plates.csv`,
+              )
+            }
+          >
+            Plate counts (CSV)
+          </button>
+          <button
+            type="button"
+            className="btn"
+            data-testid="export-results"
+            onClick={() => {
+              const fit = experimentFitness(data);
+              if (!fit.analysis)
+                return say(false, 'No assay has counted start and end plates yet.');
+              saveBlob(
+                new Blob([resultsCsv(fit.analysis)], { type: 'text/csv' }),
+                `${name}-fitness.csv`,
+              );
+            }}
+          >
+            Fitness results (CSV)
+          </button>
+          <button
+            type="button"
+            className="btn"
+            data-testid="export-backup"
+            onClick={() =>
+              backupJson(store)
+                .then((json) =>
+                  saveBlob(
+                    new Blob([json], { type: 'application/json' }),
+                    `rivalplate-backup-${new Date().toISOString().slice(0, 10)}.json`,
+                  ),
+                )
+                .catch(failed)
+            }
+          >
+            Full backup (JSON, with photos)
+          </button>
+        </div>
+      </section>
+      <section className="card stack" aria-label="Import">
+        <h2>Bring data in</h2>
+        <div className="row">
+          {picker('csv', 'Plate counts (CSV)', '.csv,text/csv')}
+          {picker('backup', 'Backup (JSON)', '.json,application/json')}
+        </div>
+        {note && (
+          <p
+            className={note.ok ? 'banner' : 'banner alarm'}
+            role="status"
+            style={{ whiteSpace: 'pre-line' }}
+          >
+            {note.text}
+          </p>
+        )}
+      </section>
+      <StorageCard />
+    </>
+  );
+}

@@ -1,0 +1,118 @@
+import { useState } from 'react';
+import { go } from '../app/route.ts';
+import { useServices } from '../app/services.ts';
+import { useLive } from '../app/use-live.ts';
+import { installDemo } from '../demo/install-demo.ts';
+import { labAccuracy } from '../review/lab-accuracy.ts';
+import { NewExperimentForm } from './NewExperimentForm.tsx';
+import { StorageCard } from './StorageCard.tsx';
+import { TopBar } from './TopBar.tsx';
+
+export function HomeScreen() {
+  const services = useServices();
+  const experiments = useLive((s) => s.store.all('experiments'), []);
+  const accuracy = useLive((s) => labAccuracy(s.store), []);
+  const [demoStep, setDemoStep] = useState<string | null>(null);
+  const [demoError, setDemoError] = useState<string | null>(null);
+  const [creating, setCreating] = useState(false);
+
+  const list = experiments.state === 'ready' ? experiments.value : [];
+  const demo = list.find((e) => e.demo);
+
+  async function openDemo() {
+    if (demo) return go({ screen: 'experiment', id: demo.id, tab: 'assays' });
+    setDemoError(null);
+    try {
+      const id = await installDemo(services.store, services.worker, setDemoStep);
+      go({ screen: 'experiment', id, tab: 'assays' });
+    } catch (e) {
+      setDemoError(`The demo could not be set up: ${e instanceof Error ? e.message : String(e)}`);
+    } finally {
+      setDemoStep(null);
+    }
+  }
+
+  return (
+    <>
+      <TopBar title="Rivalplate" />
+      <main>
+        <section className="card">
+          <h2>Try it on demo plates</h2>
+          <p className="muted">
+            The Marrowfield pond project: six evolved lines against their blue-marked ancestor, with
+            real-looking plate photos. Demo data, kept apart from your own.
+          </p>
+          <button
+            type="button"
+            className="btn primary"
+            onClick={openDemo}
+            disabled={demoStep !== null}
+          >
+            {demo ? 'Open the demo' : 'Set up the demo'}
+          </button>
+          {demoStep && (
+            <p className="muted" role="status">
+              {demoStep}
+            </p>
+          )}
+          {demoError && <p className="field-error">{demoError}</p>}
+        </section>
+
+        <section className="card">
+          <div className="row spread">
+            <h2>Experiments</h2>
+            {!creating && (
+              <button type="button" className="btn" onClick={() => setCreating(true)}>
+                New experiment
+              </button>
+            )}
+          </div>
+          {creating && (
+            <NewExperimentForm
+              onDone={(id) =>
+                id ? go({ screen: 'experiment', id, tab: 'assays' }) : setCreating(false)
+              }
+            />
+          )}
+          {list.length === 0 && !creating && (
+            <p className="muted">No experiments on this device yet.</p>
+          )}
+          <ul className="plates" style={{ listStyle: 'none', padding: 0 }}>
+            {list
+              .filter((e) => !e.demo)
+              .map((e) => (
+                <li key={e.id}>
+                  <a
+                    className="btn quiet"
+                    style={{ width: '100%', justifyContent: 'flex-start' }}
+                    href={`#/x/${e.id}/assays`}
+                  >
+                    {e.name}
+                    <span className="muted">{e.lines.join(' · ')}</span>
+                  </a>
+                </li>
+              ))}
+          </ul>
+        </section>
+
+        <section className="card" aria-label="Counting accuracy">
+          <h2>How good is the automatic count?</h2>
+          {accuracy.state === 'ready' && accuracy.value ? (
+            <p data-testid="accuracy">
+              Over <b>{accuracy.value.plates}</b> checked plates of your own, the automatic counts
+              differed from your corrected ones by{' '}
+              <b>{(accuracy.value.countErrorFraction * 100).toFixed(1)}%</b> of the colonies (median
+              error of a plate's total: {(accuracy.value.medianTotalError * 100).toFixed(1)}%).
+            </p>
+          ) : (
+            <p className="muted">
+              Mark plates as checked after correcting them, and the figure for your lab's plates
+              appears here.
+            </p>
+          )}
+        </section>
+        <StorageCard />
+      </main>
+    </>
+  );
+}

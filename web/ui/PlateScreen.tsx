@@ -1,0 +1,85 @@
+import type { DishRecord } from '../../schema/records.ts';
+import { readPlate } from '../analysis/plate-reading.ts';
+import { useReading } from '../analysis/use-reading.ts';
+import { hrefOf } from '../app/route.ts';
+import { useServices } from '../app/services.ts';
+import { useLive } from '../app/use-live.ts';
+import { attachPhoto } from '../bench/photos.ts';
+import { loadPlate } from '../bench/plate-data.ts';
+import { PhotoSource } from './PhotoSource.tsx';
+import { ReadingStatus } from './ReadingStatus.tsx';
+import { ReviewPanel } from './ReviewPanel.tsx';
+import { TopBar } from './TopBar.tsx';
+
+export function PlateScreen({ experimentId, plateId }: { experimentId: string; plateId: string }) {
+  const { store, worker } = useServices();
+  const live = useLive((s) => loadPlate(s.store, plateId), [plateId]);
+  const { reading, start, cancel } = useReading();
+  const back = hrefOf({ screen: 'experiment', id: experimentId, tab: 'assays' });
+  if (live.state !== 'ready' || !live.value)
+    return (
+      <>
+        <TopBar title="Plate" back={back} />
+        <main>
+          {live.state === 'loading' ? (
+            <p className="muted">Loading…</p>
+          ) : (
+            <p className="banner alarm">This plate is not on this device.</p>
+          )}
+        </main>
+      </>
+    );
+  const d = live.value;
+  const title = `${d.assay.line} g${d.assay.generation} r${d.assay.replicate} · ${d.sample.timepoint} · 1:${d.plate.dilutionFold.toLocaleString('en')}`;
+
+  const read = (dish?: DishRecord) =>
+    start(async (signal, onProgress) => {
+      const fresh = await loadPlate(store, plateId);
+      if (!fresh?.photo) throw new Error('the plate has no photo');
+      await readPlate(store, worker, fresh.experiment, fresh.plate, fresh.photo, {
+        signal,
+        onProgress,
+        ...(dish && { dish }),
+      });
+    });
+
+  const takePhoto = (blob: Blob, name: string) =>
+    start(async (signal, onProgress) => {
+      const { plate, photo } = await attachPhoto(store, d.plate, blob, name);
+      await readPlate(store, worker, d.experiment, plate, photo, { signal, onProgress });
+    });
+
+  return (
+    <>
+      <TopBar title={title} back={back} />
+      {d.experiment.demo && <div className="demo-banner">DEMO DATA</div>}
+      <main>
+        <ReadingStatus reading={reading} onCancel={cancel} />
+        {!d.photo && reading.state !== 'running' && <PhotoSource onPhoto={takePhoto} />}
+        {d.photo && !d.analysis && reading.state !== 'running' && (
+          <section className="card stack">
+            <p>The photo {d.photo.name} is kept on this device but not read yet.</p>
+            <button type="button" className="btn primary" onClick={() => read()}>
+              Read plate
+            </button>
+          </section>
+        )}
+        {d.photo?.preview && d.analysis && (
+          <ReviewPanel
+            key={d.analysis.id}
+            data={{ ...d, analysis: d.analysis }}
+            preview={d.photo.preview as Blob}
+            busy={reading.state === 'running'}
+            onReread={read}
+          />
+        )}
+        {d.photo && reading.state !== 'running' && (
+          <details className="card">
+            <summary style={{ minHeight: 40 }}>Replace the photo</summary>
+            <PhotoSource onPhoto={takePhoto} />
+          </details>
+        )}
+      </main>
+    </>
+  );
+}

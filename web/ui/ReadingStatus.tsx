@@ -1,0 +1,30 @@
+import type { Reading } from '../analysis/use-reading.ts';
+
+const STAGE_WORDS: Record<string, string> = {
+  starting: 'Starting',
+  decode: 'Opening the photo',
+  opencv: 'Loading the plate reader',
+};
+
+export function ReadingStatus({ reading, onCancel }: { reading: Reading; onCancel: () => void }) {
+  if (reading.state === 'idle') return null;
+  if (reading.state === 'failed')
+    return (
+      <p className="banner alarm" role="alert">
+        The plate could not be read: {reading.error}
+      </p>
+    );
+  return (
+    <section className="card stack" role="status" aria-live="polite" data-testid="reading">
+      <div className="row spread">
+        <b>Reading the plate… {STAGE_WORDS[reading.stage] ?? reading.stage}</b>
+        <button type="button" className="btn quiet" onClick={onCancel}>
+          Stop
+        </button>
+      </div>
+      <div className="progress">
+        <div style={{ width: `${Math.round(reading.fraction * 100)}%` }} />
+      </div>
+    </section>
+  );
+}

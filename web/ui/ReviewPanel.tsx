@@ -1,0 +1,224 @@
+import { useState } from 'react';
+import type { ClassIndex, ColonyRecord, DishRecord } from '../../schema/records.ts';
+import { teachColours } from '../analysis/teach.ts';
+import { useServices } from '../app/services.ts';
+import { useObjectUrl } from '../app/use-object-url.ts';
+import { type ClassLook, classLooks, otherClass } from '../bench/colours.ts';
+import type { PlateData } from '../bench/plate-data.ts';
+import { saveBlob } from '../exchange/download.ts';
+import { annotatedPng } from '../review/annotated-png.ts';
+import {
+  colonyAt,
+  correctedColonies,
+  countsByClass,
+  editForTap,
+  type TapTool,
+} from '../review/edits.ts';
+import { useCorrections } from '../review/use-corrections.ts';
+import { revised } from '../storage/stamp.ts';
+import { ReviewView } from './ReviewView.tsx';
+
+type Tool =
+  | { kind: 'add'; cls: ClassIndex }
+  | { kind: 'remove' }
+  | { kind: 'switch' }
+  | { kind: 'teach'; first: ColonyRecord | null };
+
+export function ReviewPanel({
+  data,
+  preview,
+  busy,
+  onReread,
+}: {
+  data: PlateData & { analysis: NonNullable<PlateData['analysis']> };
+  preview: Blob;
+  busy: boolean;
+  onReread: (dish: DishRecord) => void;
+}) {
+  const { store, worker } = useServices();
+  const { analysis, experiment, assay, plate } = data;
+  const corr = useCorrections(store, analysis, data.corrections ?? undefined);
+  const [tool, setTool] = useState<Tool>({ kind: 'add', cls: assay.testClass });
+  const [movedDish, setMovedDish] = useState<DishRecord | null>(null);
+  const [message, setMessage] = useState<string | null>(null);
+  const url = useObjectUrl(preview);
+  const looks: [ClassLook, ClassLook] = experiment.palette
+    ? classLooks(experiment)
+    : [analysis.classes[0], analysis.classes[1]];
+  const colonies = correctedColonies(analysis.colonies, corr.stack.edits);
+  const counts = countsByClass(colonies);
+
+  function tap(x: number, y: number, slack: number) {
+    setMessage(null);
+    if (tool.kind === 'teach') return teachTap(x, y, slack);
+    const kind: TapTool = tool.kind;
+    const edit = editForTap(colonies, kind, {
+      x,
+      y,
+      slack,
+      cls: tool.kind === 'add' ? tool.cls : 0,
+      newId: `h${crypto.randomUUID()}`,
+    });
+    if (edit) corr.apply(edit);
+  }
+
+  function teachTap(x: number, y: number, slack: number) {
+    if (tool.kind !== 'teach') return;
+    const hit = colonyAt(colonies, x, y, slack);
+    if (!hit) return setMessage('Tap right on a colony.');
+    if (!tool.first) {
+      setTool({ kind: 'teach', first: hit });
+      return setMessage('Now tap a colony of the other colour.');
+    }
+    const first = tool.first;
+    setTool({ kind: 'add', cls: assay.testClass });
+    setMessage('Teaching the two colours and re-sorting every plate…');
+    teachColours(store, worker, experiment, first, hit, [
+      looks[first.cls].name,
+      looks[otherClass(first.cls)].name,
+    ])
+      .then(() =>
+        setMessage('Colours taught. Every plate of this experiment is sorted against them now.'),
+      )
+      .catch((e: unknown) =>
+        setMessage(`Colours not taught: ${e instanceof Error ? e.message : String(e)}`),
+      );
+  }
+
+  const toolButton = (t: Tool, label: React.ReactNode, testId: string) => (
+    <button
+      type="button"
+      className="btn"
+      data-testid={testId}
+      aria-pressed={JSON.stringify(tool) === JSON.stringify(t)}
+      onClick={() => setTool(t)}
+    >
+      {label}
+    </button>
+  );
+
+  return (
+    <>
+      {analysis.flags.length > 0 && (
+        <div className="banner">
+          {analysis.flags.map((f) => (
+            <div key={f.kind}>
+              <span className="flag">{f.kind}</span> {f.detail}
+            </div>
+          ))}
+        </div>
+      )}
+      {url && (
+        <ReviewView
+          previewUrl={url}
+          width={analysis.width}
+          height={analysis.height}
+          colonies={colonies}
+          looks={looks}
+          dish={movedDish ?? analysis.dish}
+          onTap={tap}
+          onDishMove={setMovedDish}
+        />
+      )}
+      {message && (
+        <p className="banner" role="status">
+          {message}
+        </p>
+      )}
+      {corr.saveError && <p className="banner alarm">{corr.saveError}</p>}
+      <div className="tally">
+        <div className="counts num" data-testid="tally">
+          {looks.map((l, i) => (
+            <span key={l.name} data-testid={`count-${i}`}>
+              <span className="dot" style={{ background: l.hex }} /> {l.name}{' '}
+              <span data-testid={`count-${i}-value`}>{counts[i as 0 | 1]}</span>
+              <span className="muted"> {assay.testClass === i ? 'test' : 'ref'}</span>
+            </span>
+          ))}
+        </div>
+        <div className="toolbar">
+          {toolButton(
+            { kind: 'add', cls: 0 },
+            <>
+              + <span className="dot" style={{ background: looks[0].hex }} />
+            </>,
+            'tool-add-0',
+          )}
+          {toolButton(
+            { kind: 'add', cls: 1 },
+            <>
+              + <span className="dot" style={{ background: looks[1].hex }} />
+            </>,
+            'tool-add-1',
+          )}
+          {toolButton({ kind: 'remove' }, 'Remove', 'tool-remove')}
+          {toolButton({ kind: 'switch' }, 'Switch', 'tool-switch')}
+          <button
+            type="button"
+            className="btn quiet"
+            onClick={corr.undo}
+            disabled={!corr.stack.edits.length}
+            data-testid="undo"
+          >
+            Undo
+          </button>
+        </div>
+        <div className="row">
+          <button
+            type="button"
+            className="btn quiet"
+            onClick={corr.redo}
+            disabled={!corr.stack.undone.length}
+            data-testid="redo"
+          >
+            Redo
+          </button>
+          <button
+            type="button"
+            className="btn primary"
+            data-testid="mark-checked"
+            disabled={plate.reviewed}
+            onClick={() => void store.put('plates', revised(plate, { reviewed: true }))}
+          >
+            {plate.reviewed ? 'Checked ✓' : 'Mark checked'}
+          </button>
+          {movedDish && (
+            <button
+              type="button"
+              className="btn"
+              disabled={busy}
+              onClick={() => onReread(movedDish)}
+            >
+              Re-read inside the moved dish
+            </button>
+          )}
+          {toolButton({ kind: 'teach', first: null }, 'Teach colours', 'tool-teach')}
+          <button
+            type="button"
+            className="btn quiet"
+            onClick={() =>
+              void annotatedPng(preview, analysis.width, colonies, looks, counts).then((b) =>
+                saveBlob(
+                  b,
+                  `${assay.line}-g${assay.generation}-r${assay.replicate}-${data.sample.timepoint}-${plate.dilutionFold}.png`,
+                ),
+              )
+            }
+          >
+            Save picture
+          </button>
+        </div>
+        <p className="muted" style={{ margin: 0 }}>
+          {tool.kind === 'add' && 'Tap empty agar to add a colony of the chosen colour.'}
+          {tool.kind === 'remove' && 'Tap a colony to remove it.'}
+          {tool.kind === 'switch' && 'Tap a colony to switch its colour.'}
+          {tool.kind === 'teach' &&
+            (tool.first
+              ? 'Now a colony of the other colour.'
+              : 'Tap one colony of either colour.')}{' '}
+          Pinch to zoom; drag the dish's handles to move it.
+        </p>
+      </div>
+    </>
+  );
+}

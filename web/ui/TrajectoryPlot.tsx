@@ -1,0 +1,139 @@
+import type { AnalysedAssay, LineTrajectory } from '../../fitness/analysis.ts';
+import type { CurveFit, ModelFailure } from '../../fitness/trajectories.ts';
+import { niceTicks } from '../results/axis.ts';
+
+const W = 360;
+const H = 240;
+const M = { left: 46, right: 10, top: 12, bottom: 40 };
+
+/** The fitted values at the measured generations (observed − residual), mean per generation. */
+function fittedAt(t: LineTrajectory, fit: CurveFit | ModelFailure): { g: number; w: number }[] {
+  if ('reason' in fit) return [];
+  const by = new Map<number, number[]>();
+  t.points.forEach((p, i) => {
+    const list = by.get(p.generation) ?? [];
+    list.push(p.w - fit.residuals[i]!);
+    by.set(p.generation, list);
+  });
+  return [...by]
+    .sort((a, b) => a[0] - b[0])
+    .map(([g, ws]) => ({ g, w: ws.reduce((s, v) => s + v, 0) / ws.length }));
+}
+
+/**
+ * Relative fitness of one line over generations: each assay with its counting-noise interval,
+ * the fitted hyperbolic and power-law models at the measured generations, and the step model.
+ */
+export function TrajectoryPlot({
+  trajectory,
+  assays,
+}: {
+  trajectory: LineTrajectory;
+  assays: readonly AnalysedAssay[];
+}) {
+  const own = assays.filter((a) => a.line === trajectory.line);
+  const gMax = Math.max(...own.map((a) => a.generation), 1);
+  const ws = own.flatMap((a) => [a.W, ...(a.W_ci ?? [])]);
+  const yLo = Math.min(1, ...ws) - 0.05;
+  const yHi = Math.max(1, ...ws) + 0.05;
+  const x = (g: number) => M.left + (g / (gMax * 1.05)) * (W - M.left - M.right);
+  const y = (w: number) => H - M.bottom - ((w - yLo) / (yHi - yLo)) * (H - M.top - M.bottom);
+  const line = (pts: { g: number; w: number }[]) =>
+    pts.map((p, i) => `${i ? 'L' : 'M'}${x(p.g)},${y(p.w)}`).join(' ');
+  const step = 'reason' in trajectory.step ? null : trajectory.step;
+  return (
+    <svg
+      className="plot"
+      viewBox={`0 0 ${W} ${H}`}
+      role="img"
+      aria-label={`Relative fitness of line ${trajectory.line} over generations`}
+    >
+      <line x1={M.left} x2={W - M.right} y1={y(1)} y2={y(1)} stroke="#999" strokeDasharray="3 3" />
+      {niceTicks(yLo, yHi).map((v) => (
+        <g key={`y${v}`}>
+          <line x1={M.left - 4} x2={M.left} y1={y(v)} y2={y(v)} stroke="#333" />
+          <text x={M.left - 6} y={y(v) + 4} textAnchor="end">
+            {v.toFixed(2)}
+          </text>
+        </g>
+      ))}
+      {niceTicks(0, gMax * 1.05, 4).map((v) => (
+        <g key={`x${v}`}>
+          <line x1={x(v)} x2={x(v)} y1={H - M.bottom} y2={H - M.bottom + 4} stroke="#333" />
+          <text x={x(v)} y={H - M.bottom + 15} textAnchor="middle">
+            {v}
+          </text>
+        </g>
+      ))}
+      <line x1={M.left} x2={M.left} y1={M.top} y2={H - M.bottom} stroke="#333" />
+      <line x1={M.left} x2={W - M.right} y1={H - M.bottom} y2={H - M.bottom} stroke="#333" />
+      <text x={(W + M.left) / 2} y={H - 6} textAnchor="middle">
+        Generations of evolution
+      </text>
+      <text
+        transform={`translate(12 ${(H - M.bottom + M.top) / 2}) rotate(-90)`}
+        textAnchor="middle"
+      >
+        Relative fitness W (vs. ancestor)
+      </text>
+      {step?.segments.map((s) => (
+        <line
+          key={`s${s.from}`}
+          x1={x(s.from)}
+          x2={x(s.to)}
+          y1={y(s.w)}
+          y2={y(s.w)}
+          stroke="#a8341f"
+          strokeWidth={2}
+          opacity={0.7}
+        />
+      ))}
+      <path
+        d={line(fittedAt(trajectory, trajectory.hyperbolic))}
+        fill="none"
+        stroke="#1f3b36"
+        strokeWidth={2}
+      />
+      <path
+        d={line(fittedAt(trajectory, trajectory.powerLaw))}
+        fill="none"
+        stroke="#c98f0c"
+        strokeWidth={2}
+        strokeDasharray="5 3"
+      />
+      {own.map((a, i) => {
+        const gx = x(a.generation) + ((i % 3) - 1) * 4;
+        return (
+          <g key={a.assay}>
+            {a.W_ci && (
+              <line x1={gx} x2={gx} y1={y(a.W_ci[0])} y2={y(a.W_ci[1])} stroke="#2e5a52" />
+            )}
+            <circle cx={gx} cy={y(a.W)} r={3.2} fill="#2e5a52" />
+          </g>
+        );
+      })}
+      <g transform={`translate(${M.left + 8} ${M.top + 6})`}>
+        <line x1={0} x2={16} y1={0} y2={0} stroke="#1f3b36" strokeWidth={2} />
+        <text x={20} y={4}>
+          hyperbolic
+        </text>
+        <line
+          x1={86}
+          x2={102}
+          y1={0}
+          y2={0}
+          stroke="#c98f0c"
+          strokeWidth={2}
+          strokeDasharray="5 3"
+        />
+        <text x={106} y={4}>
+          power law
+        </text>
+        <line x1={170} x2={186} y1={0} y2={0} stroke="#a8341f" strokeWidth={2} />
+        <text x={190} y={4}>
+          steps
+        </text>
+      </g>
+    </svg>
+  );
+}

@@ -1,0 +1,77 @@
+/**
+ * The plate-analysis worker: a thin adapter that decodes a photo, runs the cv/ core on it and
+ * hands results back in original photo pixels. It holds no state between calls except the
+ * opencv.js runtime, so the app may terminate it at any time (abort, idle) and start another.
+ */
+import { expose } from 'comlink';
+import {
+  analyzePlate,
+  classifyWithPalette,
+  learnPalette,
+  paletteFromExamples,
+} from '../cv/index.ts';
+import { loadOpenCv } from '../cv/opencv.ts';
+import type { AnalyzeOptions, Colony, Palette, PlateAnalysis } from '../cv/types.ts';
+import { decodePhoto } from './decode.ts';
+import { analysisToOriginal, dishToDecoded } from './rescale.ts';
+
+export interface AnalyseRequest {
+  photo: Blob;
+  /** File name, for error messages. */
+  name: string;
+  palette?: Palette;
+  /** A dish placed by the person, in original photo pixels. */
+  dish?: AnalyzeOptions['dish'];
+}
+
+export interface AnalyseResult {
+  analysis: PlateAnalysis;
+  /** A screen-sized upright JPEG of the photo, so the app never decodes the original. */
+  preview: Blob;
+}
+
+const api = {
+  /** Starts opencv.js ahead of the first plate. */
+  async warmUp(): Promise<void> {
+    await loadOpenCv();
+  },
+
+  async analyse(
+    request: AnalyseRequest,
+    onProgress?: (stage: string, fraction: number) => void,
+  ): Promise<AnalyseResult> {
+    onProgress?.('decode', 0);
+    const decoded = await decodePhoto(request.photo, request.name);
+    onProgress?.('opencv', 0.1);
+    await loadOpenCv();
+    const options: AnalyzeOptions = {
+      onProgress: (stage, fraction) => onProgress?.(stage, 0.15 + 0.85 * fraction),
+    };
+    if (request.palette) options.palette = request.palette;
+    if (request.dish) options.dish = dishToDecoded(request.dish, decoded.k);
+    const analysis = await analyzePlate(decoded.image, options);
+    return {
+      analysis: analysisToOriginal(analysis, decoded.k, decoded.width, decoded.height),
+      preview: decoded.preview,
+    };
+  },
+
+  async reclassify(analysis: PlateAnalysis, palette: Palette): Promise<PlateAnalysis> {
+    await loadOpenCv();
+    return classifyWithPalette(analysis, palette);
+  },
+
+  async teachPalette(a: Colony, b: Colony, names: [string, string]): Promise<Palette> {
+    await loadOpenCv();
+    return paletteFromExamples(a, b, names);
+  },
+
+  async learnPalette(analyses: PlateAnalysis[]): Promise<Palette | null> {
+    await loadOpenCv();
+    return learnPalette(analyses);
+  },
+};
+
+export type PlateWorkerApi = typeof api;
+
+expose(api);
