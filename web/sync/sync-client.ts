@@ -175,12 +175,13 @@ export async function createSyncClient(options: SyncClientOptions): Promise<Sync
     const info = await createTransport(saved, options.fetch).lab();
     if (info.ok) await turnOn(saved, info.value);
     else {
+      // Kept on: a passing failure retries by itself, and a refusal still answers `syncNow`.
       transport = createTransport(saved, options.fetch);
       await publish({
         phase: isPassing(info.failure) ? 'retrying' : 'refused',
         problem: describeFailure(info.failure),
       });
-      if (isPassing(info.failure)) scheduler.start();
+      scheduler.start();
     }
   } else await publish({});
 
