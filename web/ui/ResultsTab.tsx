@@ -1,5 +1,5 @@
 import { useMemo } from 'react';
-import { formatForReport } from '../../fitness/rounding.ts';
+import { roundForReport } from '../../fitness/rounding.ts';
 import type { ExperimentData } from '../bench/experiment-data.ts';
 import { experimentFitness } from '../results/experiment-fitness.ts';
 import { TrajectoryPlot } from './TrajectoryPlot.tsx';
@@ -96,7 +96,7 @@ export function ResultsTab({ data }: { data: ExperimentData }) {
                     <tr key={g.group}>
                       <td>{g.group}</td>
                       <td>{g.W.n}</td>
-                      <td>{formatForReport(g.W.mean)}</td>
+                      <td>{roundForReport(g.W.mean)}</td>
                       <td>{f3(g.W.sd)}</td>
                       <td>{g.W.ci ? `${f3(g.W.ci[0])}–${f3(g.W.ci[1])}` : '—'}</td>
                       <td>{p(g.W_vs_1?.p)}</td>
