@@ -22,7 +22,7 @@ const GLARE_GREYER = 2;
 const GLARE_WINDOW_MM = 25;
 const GLARE_MIN_DIAMETER_MM = 4;
 /** The halo taken in round a patch, as a multiple of GLARE_MIN_DIAMETER_MM. */
-const GLARE_HALO = 1.6;
+const GLARE_HALO = 1.0;
 
 export function glareMask(cv: OpenCv, quarterLab8: Mat, agarMask: Mat, frame: WorkingFrame): Mat {
   return withMats((keep) => {

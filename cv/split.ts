@@ -8,8 +8,8 @@ import type { Mat, OpenCv } from './opencv.ts';
  * Splits touching and slightly overlapping colonies: marker-controlled watershed (Beucher &
  * Meyer 1993) seeded at the peaks of the Euclidean distance transform of the foreground, the
  * usual recipe for touching round objects. A peak is a pixel that equals the maximum of the
- * distance map within a disc of 0.7 typical colony radii, so two equal colonies whose centres are
- * closer than that merge into one seed, while a pair at 0.7× the sum of their radii still splits.
+ * distance map within a disc of half a typical colony radius, so that a pair overlapping down to
+ * 0.7× the sum of their radii still gets two seeds.
  *
  * Output: `regions` (CV_32S, 1..n per colony candidate, 0 elsewhere), `components` (CV_32S, the
  * connected foreground blobs before splitting), `distance` (CV_32F), and the typical radius used.
@@ -38,7 +38,7 @@ export function splitTouching(
 
   const regions = keep(new cv.Mat());
   const regionCount = withMats((k) => {
-    const size = oddAtLeast(3, 1.4 * typicalRadius);
+    const size = oddAtLeast(3, 1.0 * typicalRadius);
     const disc = k(cv.getStructuringElement(cv.MORPH_ELLIPSE, new cv.Size(size, size)));
     const dilated = k(new cv.Mat());
     cv.dilate(distance, dilated, disc);

@@ -1,0 +1,110 @@
+import { beforeAll, describe, expect, it } from 'vitest';
+import { analyzePlate, learnPalette, type Palette, type PlateAnalysis } from '../cv/index.ts';
+import { generatePlate } from '../fixtures/plate-generator.ts';
+import type { PlateScene, PlateTruth } from '../fixtures/plate-types.ts';
+import { varietyScene } from '../fixtures/scene-variety.ts';
+import { median, scoreAnalysis } from './support/plate-scoring.ts';
+
+/**
+ * Accuracy of the plate-analysis core on generated phone-like plates with known truth
+ * (fixtures/plate-generator.ts, which shares no code with cv/). Thresholds are the targets of the
+ * analysis core: median count error under 3 %, class accuracy above 98 %, nothing on empty plates.
+ */
+interface Run {
+  scene: PlateScene;
+  truth: PlateTruth;
+  analysis: PlateAnalysis;
+}
+
+async function run(scene: PlateScene, palette?: Palette): Promise<Run> {
+  const { image, truth } = generatePlate(scene);
+  const analysis = await analyzePlate(image, palette ? { palette } : {});
+  return { scene, truth, analysis };
+}
+
+const SWEEP_COUNTS = [25, 40, 60, 80, 100, 120, 150, 180, 210, 240, 270, 300];
+
+describe('a batch of varied plates with 25–300 colonies', () => {
+  let runs: Run[] = [];
+  let palette: Palette | null = null;
+
+  beforeAll(async () => {
+    const first = [];
+    for (const [i, colonies] of SWEEP_COUNTS.entries()) {
+      first.push(await run(varietyScene(100 + i, { colonies, fractionClass1: 0.3 + 0.04 * i })));
+    }
+    // As the batch command does: one palette from the whole batch, then every plate against it.
+    palette = learnPalette(first.map((r) => r.analysis));
+    runs = [];
+    for (const r of first) runs.push(await run(r.scene, palette ?? undefined));
+  }, 180_000);
+
+  it('learns a two-colour palette from the batch', () => {
+    expect(palette).not.toBeNull();
+    expect(palette!.colours.map((c) => c.name).sort()).toEqual(['blue', 'cream']);
+  });
+
+  it('counts within 3 % (median) and finds the colonies that are there', () => {
+    const scores = runs.map((r) => scoreAnalysis(r.truth, r.analysis));
+    const table = runs.map((r, i) => ({
+      truth: r.truth.colonies.length,
+      found: r.analysis.colonies.reduce((s, c) => s + c.count, 0),
+      error: scores[i]!.countError.toFixed(3),
+      recall: scores[i]!.recall.toFixed(3),
+      precision: scores[i]!.precision.toFixed(3),
+    }));
+    console.table(table);
+    expect(median(scores.map((s) => Math.abs(s.countError)))).toBeLessThan(0.03);
+    expect(Math.max(...scores.map((s) => Math.abs(s.countError)))).toBeLessThan(0.1);
+    expect(median(scores.map((s) => s.recall))).toBeGreaterThan(0.95);
+    expect(median(scores.map((s) => s.precision))).toBeGreaterThan(0.95);
+  });
+
+  it('sorts more than 98 % of matched colonies into the right colour', () => {
+    let matched = 0;
+    let right = 0;
+    for (const r of runs) {
+      const s = scoreAnalysis(r.truth, r.analysis);
+      matched += s.truePositives;
+      right += s.classAccuracy * s.truePositives;
+    }
+    expect(right / matched).toBeGreaterThan(0.98);
+  });
+
+  it('classifies a 97:3 plate and a 100:0 plate against the batch palette', async () => {
+    const skewed = await run(varietyScene(7, { colonies: [97, 3] }), palette!);
+    const single = await run(varietyScene(8, { colonies: [0, 120] }), palette!);
+    expect(Math.abs((skewed.analysis.counts.blue ?? 0) - 97) / 97).toBeLessThan(0.05);
+    expect(Math.abs((skewed.analysis.counts.cream ?? 0) - 3)).toBeLessThanOrEqual(1);
+    expect(single.analysis.counts.blue ?? 0).toBeLessThanOrEqual(1);
+    expect(Math.abs((single.analysis.counts.cream ?? 0) - 120) / 120).toBeLessThan(0.05);
+  });
+});
+
+describe('plates that hold one colour or none', () => {
+  it('reports no colonies on empty plates, clutter and all', async () => {
+    for (const seed of [1, 2, 3]) {
+      const r = await run(varietyScene(seed, { colonies: 0 }));
+      expect(r.analysis.colonies).toEqual([]);
+    }
+  }, 60_000);
+
+  it('does not split a one-colour plate in two when it has no palette', async () => {
+    const r = await run({ seed: 21, colonies: [0, 150] });
+    expect(r.analysis.classes).toHaveLength(1);
+    expect(r.analysis.flags.map((f) => f.kind)).toContain('one-colour');
+  });
+});
+
+describe('dense plates (450–700 colonies)', () => {
+  it('reports its count error honestly: printed, and within 25 %', async () => {
+    for (const colonies of [450, 700]) {
+      const r = await run({ seed: 31, colonies, colonyRadiusMm: [0.3, 0.8] });
+      const s = scoreAnalysis(r.truth, r.analysis);
+      console.log(
+        `dense plate, ${colonies} colonies: count error ${(100 * s.countError).toFixed(1)} %`,
+      );
+      expect(Math.abs(s.countError)).toBeLessThan(0.25);
+    }
+  }, 60_000);
+});
