@@ -1,0 +1,76 @@
+import { describe, expect, it } from 'vitest';
+import { generatePlate } from '../fixtures/plate-generator.ts';
+import { analyzePlate } from './analyze.ts';
+import { PlateImageError } from './image-input.ts';
+import { loadOpenCv } from './opencv.ts';
+
+describe('analyzePlate', () => {
+  it('frees every Mat: 50 analyses leave the WASM heap the size it was after the first few', async () => {
+    const { cv } = await loadOpenCv();
+    const { image } = generatePlate({ seed: 5, width: 800, height: 600, colonies: 60 });
+    for (let i = 0; i < 3; i++) await analyzePlate(image);
+    const before = cv.HEAP8.length;
+    for (let i = 0; i < 50; i++) await analyzePlate(image);
+    expect(cv.HEAP8.length).toBe(before);
+  }, 120_000);
+
+  it('frees its Mats when it fails part-way too (a dish given outside the photo)', async () => {
+    const { cv } = await loadOpenCv();
+    const { image } = generatePlate({ seed: 6, width: 800, height: 600, colonies: 30 });
+    await analyzePlate(image);
+    const before = cv.HEAP8.length;
+    for (let i = 0; i < 20; i++) {
+      await analyzePlate(image, {
+        dish: { cx: 5000, cy: 5000, rx: 300, ry: 300, angleDeg: 0 },
+      }).catch(() => undefined);
+    }
+    expect(cv.HEAP8.length).toBe(before);
+  }, 60_000);
+
+  it('reports the working scale and keeps coordinates in the photo’s own pixels', async () => {
+    const { image, truth } = generatePlate({ seed: 7, width: 3000, height: 2250, colonies: 40 });
+    const a = await analyzePlate(image);
+    expect(a.width).toBe(3000);
+    expect(a.scale).toBeLessThan(1);
+    expect(a.dish!.cx).toBeCloseTo(truth.dish.cx, -1);
+    for (const c of a.colonies) {
+      expect(c.x).toBeGreaterThan(truth.dish.cx - truth.dish.agarRx);
+      expect(c.x).toBeLessThan(truth.dish.cx + truth.dish.agarRx);
+    }
+    expect(Object.keys(a.timings)).toEqual(
+      expect.arrayContaining(['dish', 'background', 'foreground', 'split', 'classify']),
+    );
+  });
+
+  it('uses a dish position the caller gives instead of detecting one', async () => {
+    const { image, truth } = generatePlate({ seed: 8, width: 1200, height: 900, colonies: 50 });
+    const d = truth.dish;
+    const a = await analyzePlate(image, {
+      dish: { cx: d.cx, cy: d.cy, rx: d.agarRx, ry: d.agarRy, angleDeg: d.angleDeg },
+    });
+    expect(a.dish!.source).toBe('given');
+    expect(Math.abs(a.colonies.length - 50)).toBeLessThanOrEqual(3);
+  });
+
+  it('flags a photo with no dish in it and does not invent colonies on a bare bench', async () => {
+    const w = 640;
+    const h = 480;
+    const data = new Uint8ClampedArray(w * h * 4);
+    for (let i = 0; i < w * h; i++) data.set([92, 90, 88, 255], i * 4);
+    const a = await analyzePlate({ width: w, height: h, data });
+    expect(a.flags.map((f) => f.kind)).toContain('dish-not-found');
+    expect(a.colonies).toEqual([]);
+  });
+
+  it('refuses buffers that cannot be a picture, saying why', async () => {
+    await expect(
+      analyzePlate({ width: 10, height: 10, data: new Uint8Array(400) }),
+    ).rejects.toThrow(PlateImageError);
+    await expect(
+      analyzePlate({ width: 100, height: 100, data: new Uint8Array(99) }),
+    ).rejects.toThrow(/holds 99 bytes; 100×100 RGBA needs 40000/);
+    await expect(
+      analyzePlate({ width: 10_000, height: 10_000, data: new Uint8Array(0) }),
+    ).rejects.toThrow(/100 MP; decode it at a reduced size/);
+  });
+});

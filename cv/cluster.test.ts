@@ -1,0 +1,39 @@
+import { describe, expect, it } from 'vitest';
+import { isTwoColours, kmeans2, type Point } from './cluster.ts';
+
+/** Points scattered round a centre by a fixed, seeded pattern (no randomness between runs). */
+function cloud(centre: Point, n: number, spread: number, phase = 0): Point[] {
+  return Array.from({ length: n }, (_, i) => {
+    const t = i * 2.399963 + phase; // golden-angle spiral
+    const r = spread * Math.sqrt((i + 0.5) / n);
+    return [
+      centre[0] + r * Math.cos(t),
+      centre[1] + r * Math.sin(t),
+      centre[2] + r * Math.cos(2 * t),
+    ];
+  });
+}
+
+describe('kmeans2 and the one-or-two-colours decision', () => {
+  it('separates two colours and sizes them right, however lopsided (97:3)', () => {
+    const pts = [...cloud([-18, 5, -25], 97, 3), ...cloud([2.5, 0, -2.5], 3, 1.5, 1)];
+    const c = kmeans2(pts)!;
+    expect(isTwoColours(c)).toBe(true);
+    expect([...c.sizes].sort((a, b) => a - b)).toEqual([3, 97]);
+  });
+
+  it('keeps one colour as one, however spread', () => {
+    const c = kmeans2(cloud([2.5, 0, -2.5], 150, 4));
+    expect(c === null || !isTwoColours(c)).toBe(true);
+  });
+
+  it('is deterministic: the same points give the same assignment', () => {
+    const pts = [...cloud([-10, 0, -20], 40, 3), ...cloud([3, 1, -3], 60, 2)];
+    expect(Array.from(kmeans2(pts)!.assignment)).toEqual(Array.from(kmeans2(pts)!.assignment));
+  });
+
+  it('returns null when there is nothing to split', () => {
+    expect(kmeans2([])).toBeNull();
+    expect(kmeans2([[1, 2, 3]])).toBeNull();
+  });
+});
