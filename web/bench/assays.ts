@@ -115,7 +115,10 @@ export function nextPlateOf(
   experiment: Experiment,
 ): Plate {
   const own = plates.filter((p) => p.sampleId === sample.id);
-  const last = own.at(-1);
+  const last = own.reduce<Plate | undefined>(
+    (m, p) => (!m || p.dilutionFold > m.dilutionFold ? p : m),
+    undefined,
+  );
   return newPlate(
     sample,
     last ? last.dilutionFold * 10 : experiment.defaultDilutionFold,

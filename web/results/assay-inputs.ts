@@ -20,8 +20,14 @@ export interface FitnessInputs {
 export function fitnessInputs(data: ExperimentData): FitnessInputs {
   const inputs: AssayInput[] = [];
   const waiting: FitnessInputs['waiting'] = [];
+  const seen = new Map<string, number>();
   for (const assay of data.assays) {
-    const label = assayLabel(assay);
+    // Two assays of one line, generation and replicate (e.g. both markers of a reciprocal
+    // design) get "#2", "#3" so every assay keeps its own row in the results.
+    const base = assayLabel(assay);
+    const n = (seen.get(base) ?? 0) + 1;
+    seen.set(base, n);
+    const label = n === 1 ? base : `${base} #${n}`;
     const platesOf = (timepoint: 'start' | 'end') => {
       const sampleIds = new Set(
         data.samples

@@ -1,5 +1,4 @@
 import { useMemo } from 'react';
-import { roundForReport } from '../../fitness/rounding.ts';
 import type { ExperimentData } from '../bench/experiment-data.ts';
 import { experimentFitness } from '../results/experiment-fitness.ts';
 import { TrajectoryPlot } from './TrajectoryPlot.tsx';
@@ -40,8 +39,10 @@ export function ResultsTab({ data }: { data: ExperimentData }) {
       )}
       {a && (
         <>
-          <section className="card" aria-label="Assays">
-            <h2>Relative fitness per assay</h2>
+          <details className="card" aria-label="Assays" open={a.assays.length <= 12}>
+            <summary>
+              <h2 style={{ display: 'inline' }}>Relative fitness per assay ({a.assays.length})</h2>
+            </summary>
             <p className="muted">
               W = m_test / m_ref (realised Malthusian parameters); interval from counting noise
               (bootstrap, 95%). r per day.
@@ -76,7 +77,7 @@ export function ResultsTab({ data }: { data: ExperimentData }) {
                 </tbody>
               </table>
             </div>
-          </section>
+          </details>
           <section className="card" aria-label="Groups">
             <h2>Replicate groups</h2>
             <div className="table-wrap">
@@ -96,7 +97,7 @@ export function ResultsTab({ data }: { data: ExperimentData }) {
                     <tr key={g.group}>
                       <td>{g.group}</td>
                       <td>{g.W.n}</td>
-                      <td>{roundForReport(g.W.mean)}</td>
+                      <td>{f3(g.W.mean)}</td>
                       <td>{f3(g.W.sd)}</td>
                       <td>{g.W.ci ? `${f3(g.W.ci[0])}–${f3(g.W.ci[1])}` : '—'}</td>
                       <td>{p(g.W_vs_1?.p)}</td>
@@ -105,9 +106,6 @@ export function ResultsTab({ data }: { data: ExperimentData }) {
                 </tbody>
               </table>
             </div>
-            <p className="muted">
-              Mean W shown to two significant figures; exports and calculations keep every digit.
-            </p>
           </section>
           {a.trajectories.map((t) => (
             <section key={t.line} className="card" aria-label={`Line ${t.line}`}>

@@ -77,10 +77,11 @@ export function TrajectoryPlot({
         Relative fitness W (vs. ancestor)
       </text>
       {step?.segments.map((s) => (
+        // A segment of one generation would be a point; widen each a little so it shows.
         <line
           key={`s${s.from}`}
-          x1={x(s.from)}
-          x2={x(s.to)}
+          x1={x(s.from) - 6}
+          x2={x(s.to) + 6}
           y1={y(s.w)}
           y2={y(s.w)}
           stroke="#a8341f"

@@ -1,0 +1,37 @@
+import { expect, test } from '@playwright/test';
+import { openApp, shot } from './helpers.ts';
+
+test('the demo is one tap away, marked as demo data, with photos, counts and fitness trajectories', async ({
+  page,
+}) => {
+  await openApp(page);
+  await page.getByRole('button', { name: 'Set up the demo' }).tap();
+  await expect(page.getByRole('heading', { name: 'Marrowfield pond project (demo)' })).toBeVisible({
+    timeout: 60_000,
+  });
+  await expect(page.getByText('DEMO DATA — invented plates and counts')).toBeVisible();
+  // The first bundled photo was read while the demo was set up, and the colours learned from it.
+  await expect(page.getByRole('region', { name: 'Marker colours' })).toContainText(
+    'Learned from the first plate',
+  );
+  await shot(page, '20-demo-bench');
+
+  // L2 at generation 2000 carries the bundled start and end photos.
+  await page.getByText('Line L2 · 6 assays').tap();
+  const start = page.getByTestId('plate-L2-g2000-r1-start-100000');
+  await expect(start.getByTestId('plate-count')).toContainText('(photo)');
+  await start.getByRole('link', { name: 'Photo of start plate' }).tap();
+  await expect(page.getByTestId('tally')).toBeVisible();
+  await shot(page, '21-demo-plate');
+  await page.getByRole('link', { name: 'Back' }).tap();
+
+  await page.getByRole('link', { name: 'Fitness' }).tap();
+  await expect(page.getByRole('heading', { name: 'Line L1 over generations' })).toBeVisible();
+  await expect(
+    page.getByRole('img', { name: 'Relative fitness of line L1 over generations' }),
+  ).toBeVisible();
+  await shot(page, '22-demo-fitness');
+  // Back home, the demo is opened again rather than set up twice.
+  await page.getByRole('link', { name: 'Back' }).tap();
+  await expect(page.getByRole('button', { name: 'Open the demo' })).toBeVisible();
+});

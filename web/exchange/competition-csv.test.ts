@@ -1,0 +1,73 @@
+import 'fake-indexeddb/auto';
+import { readFileSync } from 'node:fs';
+import { resolve } from 'node:path';
+import { describe, expect, it } from 'vitest';
+import { REQUIRED_COLUMNS, readCompetitionCsv } from '../../fitness/competition-csv.ts';
+import type { ExperimentData } from '../bench/experiment-data.ts';
+import { newExperiment } from '../bench/experiments.ts';
+import { fitnessInputs } from '../results/assay-inputs.ts';
+import { platesCsv } from './competition-csv.ts';
+import { assaysFromCsv } from './import-csv.ts';
+
+const EXAMPLE = resolve(import.meta.dirname, '../../fixtures/example-competition.csv');
+
+const experiment = newExperiment({
+  name: 'Round trip',
+  lines: ['L1'],
+  referenceName: 'ancestor',
+  transferDilution: 100,
+  defaultDilutionFold: 1e5,
+  defaultVolumeUl: 100,
+});
+
+function dataOf(batch: ReturnType<typeof assaysFromCsv>['batch']): ExperimentData {
+  return {
+    experiment,
+    assays: batch.assays ?? [],
+    samples: batch.samples ?? [],
+    plates: batch.plates ?? [],
+    analyses: new Map(),
+    corrections: new Map(),
+  };
+}
+
+describe('plate CSV in the fitness engine format', () => {
+  it('has exactly the columns the fitness engine requires, plus days', () => {
+    const header = platesCsv([]).trim().split(',');
+    expect(header).toEqual([...REQUIRED_COLUMNS, 'days']);
+  });
+
+  it('round-trips the shipped example: import, export, and the fitness reader sees the same plates', () => {
+    // Outside reference: the fitness engine's own reader of its own example file.
+    const text = readFileSync(EXAMPLE, 'utf8');
+    const original = readCompetitionCsv(text).assays;
+    const imported = assaysFromCsv(text, 'example-competition.csv', experiment);
+    expect(imported.assays).toBe(original.length);
+    const exported = readCompetitionCsv(
+      platesCsv(fitnessInputs(dataOf(imported.batch)).inputs),
+    ).assays;
+    const plates = (a: (typeof original)[number]) =>
+      [...a.start.map((p) => ['start', p] as const), ...a.end.map((p) => ['end', p] as const)]
+        .map(
+          ([s, p]) =>
+            `${s} ${p.dilutionFold} ${p.volumeMl} ${p.testColonies} ${p.referenceColonies}`,
+        )
+        .sort();
+    const key = (a: (typeof original)[number]) =>
+      `${a.group} ${a.line} ${a.generation} ${a.replicate}`;
+    const byKey = new Map(exported.map((a) => [key(a), a]));
+    for (const a of original) {
+      const back = byKey.get(key(a));
+      expect(back, key(a)).toBeDefined();
+      expect(plates(back!)).toEqual(plates(a));
+      expect(back!.foldDilutionSinceStart).toBe(a.foldDilutionSinceStart);
+      expect(back!.days).toBe(a.days);
+      expect(back!.group).toBe(a.group);
+    }
+  });
+
+  it('a malformed CSV is refused whole, naming the file and the row', () => {
+    const bad = `${REQUIRED_COLUMNS.join(',')}\nA1,g,L1,0,1,start,1000,100,12,x,,\n`;
+    expect(() => assaysFromCsv(bad, 'counts.csv', experiment)).toThrow(/counts\.csv, .*row 2/);
+  });
+});
