@@ -143,6 +143,44 @@ describe('two phones on one experiment', () => {
   });
 });
 
+describe('a deletion against an edit', () => {
+  it('keeps the edit as a head beside the tombstone, and a deletion chosen on one phone reaches both', async () => {
+    const token = await server.lab('delete-vs-edit');
+    const settings = { serverUrl: server.origin, token };
+    const a = await phone();
+    const b = await phone();
+    await a.client.connect(settings);
+    await b.client.connect(settings);
+    const base = plate('mf-plate-d');
+    await a.records.put('plates', base);
+    await a.client.syncNow();
+    await b.client.syncNow();
+
+    a.network.up = false;
+    b.network.up = false;
+    await a.records.remove({ plates: ['mf-plate-d'] });
+    await b.records.put('plates', revised(base, { reviewed: true }, 40));
+    a.network.up = true;
+    b.network.up = true;
+    await a.client.syncNow();
+    await b.client.syncNow();
+    const seenOnA = await a.client.syncNow();
+    expect(seenOnA.conflicts).toEqual([{ kind: 'plates', id: 'mf-plate-d', heads: 2 }]);
+    const heads = (await a.client.conflict('plates', 'mf-plate-d'))!.heads;
+    expect(heads.map((h) => h.deleted).sort()).toEqual([false, true]);
+    // The reviewed edit is not lost while the conflict stands: B still shows it.
+    expect((await b.records.get('plates', 'mf-plate-d'))?.reviewed).toBe(true);
+
+    await a.client.resolve('plates', 'mf-plate-d', null);
+    await a.client.syncNow();
+    const onB = await b.client.syncNow();
+    expect(onB.conflicts).toEqual([]);
+    expect(await b.records.get('plates', 'mf-plate-d')).toBeUndefined();
+    expect(await a.records.get('plates', 'mf-plate-d')).toBeUndefined();
+    expect((await serverHeads(token)).get('plates/mf-plate-d')).toEqual([null]);
+  });
+});
+
 describe('one phone', () => {
   it('keeps queued changes across a reload and sends them when the network returns', async () => {
     const token = await server.lab('reload');
