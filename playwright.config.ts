@@ -1,4 +1,5 @@
 import { defineConfig, devices } from '@playwright/test';
+import { CAMERA_FRAME } from './tests/e2e/camera-frame.ts';
 
 /**
  * End-to-end tests of the bench app in the machine's Chromium (Debian's package; Playwright
@@ -7,10 +8,25 @@ import { defineConfig, devices } from '@playwright/test';
  */
 const PORT = Number(process.env.RIVALPLATE_E2E_PORT ?? 4319);
 export const E2E_DIST = 'tests/artifacts/e2e-dist';
+const CHROMIUM = process.env.RIVALPLATE_CHROMIUM ?? '/usr/bin/chromium';
+// Flags seen to work for headless Debian Chromium on this machine (no GPU, no sandbox in CI).
+const CHROMIUM_ARGS = [
+  '--headless',
+  '--no-sandbox',
+  '--disable-gpu',
+  '--disable-quic',
+  '--no-first-run',
+  '--disable-background-networking',
+  '--disable-component-update',
+  '--disable-sync',
+  '--use-fake-device-for-media-stream',
+  '--use-fake-ui-for-media-stream',
+];
 
 export default defineConfig({
   testDir: 'tests/e2e',
   testMatch: '*.spec.ts',
+  globalSetup: './tests/e2e/global-setup.ts',
   outputDir: 'tests/artifacts/e2e-results',
   // The machine has two shared cores; one browser at a time keeps timings honest.
   workers: 1,
@@ -24,21 +40,24 @@ export default defineConfig({
     serviceWorkers: 'allow',
     trace: 'retain-on-failure',
     launchOptions: {
-      executablePath: process.env.RIVALPLATE_CHROMIUM ?? '/usr/bin/chromium',
-      args: [
-        '--headless',
-        '--no-sandbox',
-        '--disable-gpu',
-        '--disable-quic',
-        '--no-first-run',
-        '--disable-background-networking',
-        '--disable-component-update',
-        '--disable-sync',
-        '--use-fake-device-for-media-stream',
-        '--use-fake-ui-for-media-stream',
-      ],
+      executablePath: CHROMIUM,
+      args: CHROMIUM_ARGS,
     },
   },
+  projects: [
+    { name: 'phone', testIgnore: 'camera.spec.ts' },
+    {
+      // The fake camera serves one fixed frame made from a demo plate (global-setup.ts).
+      name: 'camera',
+      testMatch: 'camera.spec.ts',
+      use: {
+        launchOptions: {
+          executablePath: CHROMIUM,
+          args: [...CHROMIUM_ARGS, `--use-file-for-fake-video-capture=${CAMERA_FRAME}`],
+        },
+      },
+    },
+  ],
   webServer: {
     command: `npx vite preview --outDir ../${E2E_DIST} --port ${PORT} --strictPort --bypass-lock`,
     url: `http://127.0.0.1:${PORT}/`,

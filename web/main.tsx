@@ -4,6 +4,7 @@ import type { PlateWorkerApi } from '../worker/plate-worker.ts';
 import { WorkerBridge } from './analysis/worker-bridge.ts';
 import { ServicesContext } from './app/services.ts';
 import { openIdbStore } from './storage/idb-store.ts';
+import { requestPersistence } from './storage/quota.ts';
 import { App } from './ui/App.tsx';
 import './styles.css';
 
@@ -15,6 +16,9 @@ function createWorker(): Worker {
 
 openIdbStore().then(
   (store) => {
+    // Ask once per start: the browser decides silently (installed apps and engaged sites get it),
+    // and the storage card shows the answer.
+    void requestPersistence();
     const worker = new WorkerBridge<PlateWorkerApi>({
       create: createWorker,
       // opencv.js holds tens of MB; give it back after two quiet minutes.

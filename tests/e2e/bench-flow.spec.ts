@@ -55,13 +55,28 @@ test('set up, photograph, correct by tapping, type the other sample, see W; then
   await expect(page.getByTestId('count-1-value')).toHaveText(String(a1 - 1));
   await page.getByTestId('redo').tap();
   await expect(page.getByTestId('count-1-value')).toHaveText(String(a1));
+  // One more colony added by hand, so the corrected count differs from the automatic one.
+  await page.getByTestId('tool-add-0').tap();
+  await page.touchscreen.tap(review.x + 20, review.y + 8);
+  await expect(page.getByTestId('count-0-value')).toHaveText(String(a0 + 1));
   await page.getByTestId('mark-checked').tap();
   await expect(page.getByTestId('mark-checked')).toHaveText(/Checked/);
   await shot(page, '04-corrected');
   const corrected = [await count(page, 0), await count(page, 1)];
+  const picture = page.waitForEvent('download');
+  await page.getByRole('button', { name: 'Save picture' }).tap();
+  const png = readFileSync(await (await picture).path());
+  expect([...png.subarray(0, 8)]).toEqual([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]); // PNG signature
+
+  // The running accuracy figure: one checked plate, one colony off out of the corrected total.
+  await page.getByRole('link', { name: 'Back' }).tap();
+  await page.getByRole('link', { name: 'Back' }).tap();
+  await expect(page.getByTestId('accuracy')).toContainText(
+    `Over 1 checked plates of your own, the automatic counts differed from your corrected ones by ${(100 / (corrected[0]! + corrected[1]!)).toFixed(1)}%`,
+  );
+  await page.getByRole('link', { name: /E2E pond run/ }).tap();
 
   // The end sample typed in by hand.
-  await page.getByRole('link', { name: 'Back' }).tap();
   await assay
     .getByTestId('plate-L1-g0-r1-end-10000000')
     .getByRole('button', { name: 'Type' })
