@@ -10,16 +10,39 @@ import { SYNC_BASE_PATH } from '../../schema/sync-protocol.ts';
 
 const BIN = resolve(import.meta.dirname, '../../bin/rivalplate.js');
 
+/** The part of the server's request log the tests look at. */
+export interface LogLine {
+  msg?: string;
+  req?: { method?: string; url?: string };
+}
+
+/** The log line of a push request arriving, before its body is read. */
+export const pushArrives = (line: LogLine) =>
+  line.msg === 'incoming request' && line.req?.url === '/sync/v1/push';
+
+/** The log line of a push whose body passed the checks, as the server starts applying it. */
+export const pushStarted = (line: LogLine) => line.msg === 'push started';
+
 export interface ChildServer {
   sync: string;
   process: ChildProcess;
-  /** Resolves at the first log line whose message is `msg`. */
-  nextLog(msg: string): Promise<void>;
+  /**
+   * Resolves at the next log line that `matches` (the server logs one JSON object a line). Lines
+   * of requests that were answered before the call may still be on their way: match on what only
+   * the awaited request logs.
+   */
+  nextLog(matches: (line: LogLine) => boolean): Promise<void>;
   /** SIGKILL: no shutdown code runs, as in a crash or a power cut of the process. */
   kill(): Promise<void>;
   /** SIGTERM and wait for the clean exit. */
   stop(): Promise<void>;
 }
+
+/** Servers still running when the test process ends (a failed test) are ended with it. */
+const running = new Set<ChildProcess>();
+process.once('exit', () => {
+  for (const child of running) child.kill('SIGKILL');
+});
 
 /** `port` 0 takes any free port; a fixed one lets a restarted server keep its address. */
 export function startChildServer(
@@ -34,12 +57,18 @@ export function startChildServer(
       stdio: ['ignore', 'pipe', 'pipe'],
     },
   );
-  const waiting = new Map<string, () => void>();
+  const waiting = new Set<{ matches: (line: LogLine) => boolean; seen: () => void }>();
   let stderr = '';
   child.stderr!.on('data', (d) => {
     stderr += d;
   });
-  const exited = new Promise<void>((done) => child.once('exit', () => done()));
+  running.add(child);
+  const exited = new Promise<void>((done) =>
+    child.once('exit', () => {
+      running.delete(child);
+      done();
+    }),
+  );
 
   return new Promise((ready, fail) => {
     const timer = setTimeout(() => {
@@ -57,7 +86,10 @@ export function startChildServer(
         ready({
           sync: started[1]! + SYNC_BASE_PATH,
           process: child,
-          nextLog: (msg) => new Promise((seen) => waiting.set(msg, seen)),
+          nextLog: (matches) =>
+            new Promise((seen) => {
+              waiting.add({ matches, seen });
+            }),
           async kill() {
             child.kill('SIGKILL');
             await exited;
@@ -70,11 +102,11 @@ export function startChildServer(
         return;
       }
       if (!line.startsWith('{')) return;
-      const msg = (JSON.parse(line) as { msg?: string }).msg ?? '';
-      const seen = waiting.get(msg);
-      if (seen) {
-        waiting.delete(msg);
-        seen();
+      const parsed = JSON.parse(line) as LogLine;
+      for (const w of waiting) {
+        if (!w.matches(parsed)) continue;
+        waiting.delete(w);
+        w.seen();
       }
     });
   });

@@ -18,7 +18,7 @@ import type {
   PushResponse,
 } from '../../schema/sync-protocol.ts';
 import { DATABASE_FILE } from '../../server/data-folder.ts';
-import { startChildServer } from './child-server.ts';
+import { pushArrives, pushStarted, startChildServer } from './child-server.ts';
 import { call, startTestServer, type TestServer, tempDir } from './harness.ts';
 import { analysis, benchSession, changeOf } from './marrowfield.ts';
 import { makePhone } from './phone.ts';
@@ -198,20 +198,24 @@ describe('server process killed during a batch', () => {
     // batch to be killed while it works on it.
     const outcomes: string[] = [];
     const everything: Change[] = [];
-    // Killed as the server starts on the batch, and once just after it answered.
-    const killAt = ['push started', 'request completed'];
+    // Killed as the push arrives, as the server starts applying it, and just after it answered.
+    const killAt = ['as the push arrives', 'as the server applies it', 'after the answer'] as const;
+    // Each restarted server takes the retry and then the next round's batch.
+    let child = await startChildServer(dir);
     for (const [index, moment] of killAt.entries()) {
       const round = index + 1;
       const changes = Array.from({ length: 150 }, (_, i) =>
         changeOf('analyses', analysis(`kill-${round}-${i}`, `mf-plate-${i}`, 200)),
       );
       everything.push(...changes);
-      const child = await startChildServer(dir);
-      const started = child.nextLog(moment);
+      const logged =
+        moment === 'after the answer'
+          ? null
+          : child.nextLog(moment === 'as the push arrives' ? pushArrives : pushStarted);
       const sending = call(`${child.sync}/push`, token, {
         body: { device: 'phone-a', changes },
       }).catch(() => null);
-      await started;
+      await (logged ?? sending);
       await child.kill();
       tally.faults += 1;
       await sending;
@@ -228,20 +232,18 @@ describe('server process killed during a batch', () => {
       ).n;
       db.close();
       expect([0, 150]).toContain(n);
-      if (moment === 'request completed') expect(n).toBe(150);
+      if (moment === 'after the answer') expect(n).toBe(150);
       outcomes.push(`${n === 0 ? 'absent' : 'whole'} (killed at "${moment}")`);
 
-      const again = await startChildServer(dir);
-      const retry = await call<PushResponse>(`${again.sync}/push`, token, {
+      child = await startChildServer(dir);
+      const retry = await call<PushResponse>(`${child.sync}/push`, token, {
         body: { device: 'phone-a', changes },
       });
       expect(retry.json.accepted).toHaveLength(150);
       expect(retry.json.accepted.every((r) => r.repeat)).toBe(n === 150);
-      await again.stop();
     }
-    const last = await startChildServer(dir);
-    await audit(last.sync, token, everything);
-    await last.stop();
+    await audit(child.sync, token, everything);
+    await child.stop();
     rmSync(dir, { recursive: true, force: true });
     console.log(
       `server killed ${killAt.length} times: the batch was ${outcomes.join(', ')} after each restart`,
@@ -278,9 +280,10 @@ describe('the sync client when the server dies under it', () => {
     await phone.records.putBatch({ analyses });
     expect(phone.client.status().waiting).toBe(120);
 
-    const started = child.nextLog('push started');
+    // Killed as the push arrives: the server dies before it can answer.
+    const arrived = child.nextLog(pushArrives);
     const round = phone.client.syncNow();
-    await started;
+    await arrived;
     await child.kill();
     tally.faults += 1;
     const during = await round;
