@@ -23,14 +23,29 @@ export async function count(page: Page, cls: 0 | 1): Promise<number> {
   return Number(await page.getByTestId(`count-${cls}-value`).textContent());
 }
 
-/** Taps the centre of the `nth` outlined single colony (not a clump) of class `cls`. */
+/**
+ * Taps the centre of the `nth` outlined single colony (not a clump) of class `cls` among those
+ * inside the visible part of the review picture (zoomed in, most are outside it).
+ */
 export async function tapColony(page: Page, cls: 0 | 1, nth = 0): Promise<void> {
-  const mark = page
-    .locator(`[data-testid=review] .colony-mark[data-cls="${cls}"][data-count="1"] circle`)
-    .nth(nth * 2 + 1);
-  const box = await mark.boundingBox();
-  if (!box) throw new Error(`no colony of class ${cls} on screen`);
-  await page.touchscreen.tap(box.x + box.width / 2, box.y + box.height / 2);
+  const frame = (await page.getByTestId('review').boundingBox())!;
+  const marks = page.locator(
+    `[data-testid=review] .colony-mark[data-cls="${cls}"][data-count="1"] circle:not(.halo)`,
+  );
+  let seen = 0;
+  for (const mark of await marks.all()) {
+    const box = await mark.boundingBox();
+    if (!box) continue;
+    const x = box.x + box.width / 2;
+    const y = box.y + box.height / 2;
+    const inside =
+      x > frame.x + 10 &&
+      x < frame.x + frame.width - 10 &&
+      y > frame.y + 10 &&
+      y < frame.y + frame.height - 10;
+    if (inside && seen++ === nth) return page.touchscreen.tap(x, y);
+  }
+  throw new Error(`no colony of class ${cls} in view`);
 }
 
 /** Waits until the service worker controls the page (the app is then precached). */

@@ -1,0 +1,89 @@
+import { resolve } from 'node:path';
+import { expect, type Page, test } from '@playwright/test';
+import { count, DEMO, openApp, shot, tapColony } from './helpers.ts';
+
+const PHOTO = resolve(DEMO, 'marrowfield-L2-day1.jpg');
+
+async function readOnePlate(page: Page) {
+  await openApp(page);
+  await page.getByRole('button', { name: 'New experiment' }).tap();
+  await page.getByLabel('Experiment name').fill('Tools');
+  await page.getByRole('button', { name: 'Create experiment' }).tap();
+  await page.getByRole('button', { name: 'Save assay' }).tap();
+  await page.getByRole('link', { name: 'Photo of start plate' }).tap();
+  await page.getByTestId('file-input').setInputFiles(PHOTO);
+  await expect(page.getByTestId('tally')).toBeVisible({ timeout: 60_000 });
+}
+
+const total = async (page: Page) => (await count(page, 0)) + (await count(page, 1));
+
+test('pinch to zoom, and a tap while zoomed still hits the colony under the finger', async ({
+  page,
+  context,
+}) => {
+  await readOnePlate(page);
+  const box = (await page.getByTestId('review').boundingBox())!;
+  const cx = box.x + box.width / 2;
+  const cy = box.y + box.height / 2;
+  // Two fingers spreading apart, through the DevTools protocol (Playwright taps with one).
+  const cdp = await context.newCDPSession(page);
+  const touch = (type: string, d: number) =>
+    cdp.send('Input.dispatchTouchEvent', {
+      type,
+      touchPoints:
+        type === 'touchEnd'
+          ? []
+          : [
+              { x: cx - d, y: cy, id: 1 },
+              { x: cx + d, y: cy, id: 2 },
+            ],
+    });
+  await touch('touchStart', 20);
+  for (const d of [40, 60, 80]) await touch('touchMove', d);
+  await touch('touchEnd', 0);
+  const transform = await page
+    .locator('[data-testid=review] svg > g, [data-testid=review] > g')
+    .first()
+    .getAttribute('transform');
+  const scale = Number(/scale\(([\d.]+)\)/.exec(transform ?? '')?.[1]);
+  expect(scale).toBeGreaterThan(2.5);
+  await shot(page, '40-zoomed');
+
+  const before = await total(page);
+  await page.getByTestId('tool-remove').tap();
+  await tapColony(page, 0, 0);
+  await expect.poll(() => total(page)).toBe(before - 1);
+});
+
+test('teach colours by tapping one colony of each; drag the dish smaller and re-read inside it', async ({
+  page,
+}) => {
+  await readOnePlate(page);
+  await page.getByTestId('tool-teach').tap();
+  await tapColony(page, 0);
+  await expect(page.getByText('Now tap a colony of the other colour.').first()).toBeVisible();
+  await tapColony(page, 1);
+  await expect(page.getByText('Colours taught.')).toBeVisible({ timeout: 30_000 });
+
+  const before = await total(page);
+  const rim = page.locator('[data-testid=review] .dish-handle[data-handle=rim]');
+  const centre = (await page
+    .locator('[data-testid=review] .dish-handle[data-handle=centre]')
+    .boundingBox())!;
+  const r = (await rim.boundingBox())!;
+  const from = { x: r.x + r.width / 2, y: r.y + r.height / 2 };
+  const to = { x: centre.x + centre.width / 2 + (from.x - centre.x) / 2, y: from.y };
+  await page.mouse.move(from.x, from.y);
+  await page.mouse.down();
+  await page.mouse.move((from.x + to.x) / 2, to.y);
+  await page.mouse.move(to.x, to.y);
+  await page.mouse.up();
+  await page.getByRole('button', { name: 'Re-read inside the moved dish' }).tap();
+  // Half the radius, a quarter of the area: far fewer colonies inside.
+  await expect.poll(() => total(page), { timeout: 60_000 }).toBeLessThan(before * 0.6);
+  await shot(page, '41-smaller-dish');
+  await page.getByRole('link', { name: 'Back' }).tap();
+  await expect(page.getByRole('region', { name: 'Marker colours' })).toContainText(
+    'Taught by tapping',
+  );
+});
