@@ -27,7 +27,7 @@ test('pinch to zoom, and a tap while zoomed still hits the colony under the fing
   const cy = box.y + box.height / 2;
   // Two fingers spreading apart, through the DevTools protocol (Playwright taps with one).
   const cdp = await context.newCDPSession(page);
-  const touch = (type: string, d: number) =>
+  const touch = (type: 'touchStart' | 'touchMove' | 'touchEnd', d: number) =>
     cdp.send('Input.dispatchTouchEvent', {
       type,
       touchPoints:
