@@ -38,6 +38,14 @@ export function flagText(flag: QualityFlag): FlagRecord {
       };
     case 'one-colour':
       return { kind: flag.kind, detail: `One colour only: ${flag.reason}` };
+    default: {
+      // A flag the analysis core added after this list was written: shown with its numbers.
+      const { kind, ...values } = flag as { kind: string };
+      const detail = Object.entries(values)
+        .map(([k, v]) => `${k} ${String(v)}`)
+        .join(', ');
+      return { kind, detail: `${kind.replace(/-/g, ' ')}${detail ? `: ${detail}` : ''}` };
+    }
   }
 }
 
