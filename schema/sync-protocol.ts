@@ -35,6 +35,8 @@ export const SYNC_LIMITS = {
   pushBytes: 8 * 1024 * 1024,
   /** Records in one pull answer. */
   recordsPerPull: 500,
+  /** Bytes of record bodies in one pull answer, so a phone on a poor network gets it whole. */
+  pullBytes: 4 * 1024 * 1024,
   /** Bytes of one photo chunk. */
   chunkBytes: 1024 * 1024,
 } as const;

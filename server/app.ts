@@ -27,6 +27,9 @@ export interface SyncServerOptions {
 export async function buildSyncServer(options: SyncServerOptions): Promise<FastifyInstance> {
   const app = Fastify({
     logger: options.log,
+    // A phone on a poor network may take a while over an 8 MiB push, but not forever: a request
+    // that stalls longer than this is dropped, and the phone retries.
+    requestTimeout: 120_000,
     ...(options.tls ? { https: options.tls } : {}),
   }) as unknown as FastifyInstance;
   app.setValidatorCompiler(checkCompiler);

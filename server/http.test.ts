@@ -7,6 +7,7 @@ import type { PullResponse, PushResponse, SyncErrorBody } from '../schema/sync-p
 import { SYNC_LIMITS } from '../schema/sync-protocol.ts';
 import { call, startTestServer, type TestServer } from '../tests/sync/harness.ts';
 import {
+  analysis,
   benchSession,
   changeOf,
   experiment,
@@ -171,6 +172,24 @@ describe('pull cursor', () => {
     await push(token, { device: 'a', changes: [changeOf('plates', plate('mf-plate-late'))] });
     const late = await pull(token, cursor);
     expect(late.json.records.map((r) => r.id)).toEqual(['mf-plate-late']);
+  });
+});
+
+describe('pull size', () => {
+  it('cuts a page at the byte budget, so a phone is never sent one answer too big to finish', async () => {
+    const token = await server.lab('pull-bytes');
+    // 180 dense analyses of about 28 KB each: 5 MB, over the 4 MiB budget of one page.
+    const changes = Array.from({ length: 180 }, (_, i) =>
+      changeOf('analyses', analysis(`mf-an-big-${i}`, `mf-plate-${i}`, 200)),
+    );
+    await push(token, { device: 'a', changes });
+    const first = await pull(token);
+    expect(first.json.more).toBe(true);
+    expect(first.json.records.length).toBeGreaterThan(50);
+    expect(first.json.records.length).toBeLessThan(180);
+    const rest = await pull(token, first.json.cursor);
+    expect(rest.json.more).toBe(false);
+    expect(first.json.records.length + rest.json.records.length).toBe(180);
   });
 });
 

@@ -35,6 +35,7 @@ export function recordRoutes(scope: FastifyInstance, store: SyncStore): void {
   scope.get<{ Querystring: { since: number; limit: number } }>(
     '/changes',
     { schema: { querystring: checkPullQuery } },
-    async (request) => store.pull(request.lab.id, request.query.since, request.query.limit),
+    async (request) =>
+      store.pull(request.lab.id, request.query.since, request.query.limit, SYNC_LIMITS.pullBytes),
   );
 }

@@ -306,20 +306,28 @@ export function openSqliteStore(options: SqliteOptions): SyncStore {
     async push(labId, device, changes) {
       return guarded(() => pushAll(labId, device, changes));
     },
-    async pull(labId, since, limit) {
+    async pull(labId, since, limit, maxBytes) {
       // One read transaction, so the records and their heads are from the same moment.
       return db.transaction(() => {
         const rows = q.changedSince.all(labId, since, limit + 1);
-        const page = rows.slice(0, limit);
-        const records: PulledRecord[] = page.map((r) => ({
-          kind: r.kind as PulledRecord['kind'],
-          id: r.record_id,
-          heads: (JSON.parse(r.heads) as string[]).map((h) =>
-            revisionFromRow(q.revisionByHash.get(labId, r.kind, r.record_id, h)!),
-          ),
-        }));
-        const last = page.at(-1)?.last_seq ?? since;
-        return { records, cursor: String(last), more: rows.length > limit };
+        const records: PulledRecord[] = [];
+        let bytes = 0;
+        let last = since;
+        for (const r of rows.slice(0, limit)) {
+          const heads = (JSON.parse(r.heads) as string[]).map(
+            (h) => q.revisionByHash.get(labId, r.kind, r.record_id, h)!,
+          );
+          bytes += heads.reduce((sum, h) => sum + (h.body?.length ?? 0), 0);
+          // Always at least one record, so a record larger than the budget still gets through.
+          if (records.length > 0 && bytes > maxBytes) break;
+          records.push({
+            kind: r.kind as PulledRecord['kind'],
+            id: r.record_id,
+            heads: heads.map(revisionFromRow),
+          });
+          last = r.last_seq;
+        }
+        return { records, cursor: String(last), more: rows.length > records.length };
       })();
     },
     async beginUpload(labId, request) {

@@ -42,8 +42,11 @@ export interface SyncStore {
 
   /** Applies a whole push in one transaction; a repeat of a stored revision writes nothing. */
   push(labId: number, device: string, changes: HashedChange[]): Promise<PushResponse>;
-  /** Records whose heads changed after `since`, oldest change first. */
-  pull(labId: number, since: number, limit: number): Promise<PullResponse>;
+  /**
+   * Records whose heads changed after `since`, oldest change first: at most `limit` of them, and
+   * no more than fill `maxBytes` of record bodies (but always one, however large).
+   */
+  pull(labId: number, since: number, limit: number, maxBytes: number): Promise<PullResponse>;
 
   /** Starts an upload, or returns the one already started for the same photo. */
   beginUpload(labId: number, request: PhotoUploadRequest): Promise<Upload>;
