@@ -18,7 +18,11 @@ import { startTestServer, type TestServer, tempDir } from './harness.ts';
 import { assay, experiment, plate, revised, sample } from './marrowfield.ts';
 
 const CHROMIUM = process.env.RIVALPLATE_CHROMIUM ?? '/usr/bin/chromium';
-type PhoneWindow = Window & { startPhone(): Promise<BrowserPhone>; phone: BrowserPhone };
+type PhoneWindow = Window & {
+  startPhone(): Promise<BrowserPhone>;
+  requestBackgroundSync(): Promise<boolean>;
+  phone: BrowserPhone;
+};
 
 let appDir: string;
 let server: TestServer;
@@ -161,6 +165,10 @@ describe('two phones in Chromium', () => {
     );
     // The first plate, both offline edits and the resolution: nothing was thrown away.
     expect(stored).toEqual([{ n: 4 }]);
+    // This page has no service worker: asking for Background Sync says no instead of waiting.
+    expect(
+      await a.page.evaluate(() => (window as unknown as PhoneWindow).requestBackgroundSync()),
+    ).toBe(false);
     await a.context.close();
     await b.context.close();
   });

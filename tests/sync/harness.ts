@@ -6,22 +6,16 @@ import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import Database from 'better-sqlite3';
-import type { FastifyInstance } from 'fastify';
 import { SYNC_BASE_PATH } from '../../schema/sync-protocol.ts';
 import { buildSyncServer } from '../../server/app.ts';
 import { DATABASE_FILE, openDataFolder } from '../../server/data-folder.ts';
-import type { LabSettings, SyncStore } from '../../server/storage/sync-store.ts';
+import type { LabSettings } from '../../server/storage/sync-store.ts';
 import { newToken, tokenHash } from '../../server/tokens.ts';
 
 export interface TestServer {
   /** Base URL of the sync routes, e.g. http://127.0.0.1:41234/sync/v1 */
   sync: string;
   origin: string;
-  port: number;
-  dir: string;
-  file: string;
-  store: SyncStore;
-  app: FastifyInstance;
   /** Adds a lab and returns a fresh token for it. */
   lab(name: string, settings?: Partial<LabSettings>): Promise<string>;
   /** Rows in a table, read through a separate connection, as another process would see them. */
@@ -37,19 +31,13 @@ export async function startTestServer(
   options: { dir?: string; maxBytes?: number; appDir?: string } = {},
 ): Promise<TestServer> {
   const dir = options.dir ?? tempDir();
-  const { store, file } = openDataFolder(dir, options.maxBytes);
+  const { store } = openDataFolder(dir, options.maxBytes);
   const app = await buildSyncServer({ store, appDir: options.appDir ?? null, log: false });
   const origin = await app.listen({ port: 0, host: '127.0.0.1' });
-  const port = Number(new URL(origin).port);
   const reader = new Database(join(dir, DATABASE_FILE), { readonly: true });
   return {
     sync: origin + SYNC_BASE_PATH,
     origin,
-    port,
-    dir,
-    file,
-    store,
-    app,
     async lab(name, settings = {}) {
       const lab =
         (await store.findLab(name)) ??

@@ -32,8 +32,11 @@ export function browserEnv(win: Window = window): SchedulerEnv {
 export async function requestBackgroundSync(win: Window = window): Promise<boolean> {
   const container = win.navigator.serviceWorker;
   if (!container) return false;
-  const registration = (await container.ready) as ServiceWorkerRegistration & WithBackgroundSync;
-  if (!registration.sync) return false;
+  // Not `container.ready`: that waits for ever on a page without a service worker.
+  const registration = (await container.getRegistration()) as
+    | (ServiceWorkerRegistration & WithBackgroundSync)
+    | undefined;
+  if (!registration?.sync) return false;
   try {
     await registration.sync.register(BACKGROUND_SYNC_TAG);
     return true;

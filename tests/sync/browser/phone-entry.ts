@@ -5,7 +5,7 @@
 
 import { openIdbStore } from '../../../web/storage/idb-store.ts';
 import type { RecordStore } from '../../../web/storage/record-store.ts';
-import { browserEnv } from '../../../web/sync/browser-env.ts';
+import { browserEnv, requestBackgroundSync } from '../../../web/sync/browser-env.ts';
 import { DEFAULT_POLICY } from '../../../web/sync/scheduler.ts';
 import { createSyncClient, type SyncClient } from '../../../web/sync/sync-client.ts';
 import { openSyncState } from '../../../web/sync/sync-state.ts';
@@ -26,4 +26,4 @@ async function startPhone(): Promise<BrowserPhone> {
   return { client, records: client.records };
 }
 
-Object.assign(window, { startPhone });
+Object.assign(window, { startPhone, requestBackgroundSync });
