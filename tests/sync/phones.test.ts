@@ -240,6 +240,26 @@ describe('one phone', () => {
     again.client.stop();
   });
 
+  it('works with sync off, keeping what it changed for when sync is turned on', async () => {
+    const token = await server.lab('off-and-on');
+    const p = await phone();
+    await p.records.put('plates', plate('mf-plate-before'));
+    expect(p.client.status()).toMatchObject({ phase: 'off', waiting: 1 });
+    await p.client.connect({ serverUrl: server.origin, token });
+    expect((await p.client.syncNow()).waiting).toBe(0);
+    await p.client.disconnect();
+    await p.records.put('plates', plate('mf-plate-while-off'));
+    expect(p.client.status()).toMatchObject({ phase: 'off', waiting: 1 });
+    expect((await serverHeads(token)).has('plates/mf-plate-while-off')).toBe(false);
+    await p.client.connect({ serverUrl: server.origin, token });
+    await p.client.syncNow();
+    expect([...(await serverHeads(token)).keys()].sort()).toEqual([
+      'plates/mf-plate-before',
+      'plates/mf-plate-while-off',
+    ]);
+    p.client.stop();
+  });
+
   it('says clearly when the token is wrong or the server is not there', async () => {
     const p = await phone();
     expect(await p.client.connect({ serverUrl: server.origin, token: 'rpt_wrong' })).toEqual({
