@@ -1,11 +1,17 @@
 import { createContext, useContext } from 'react';
 import type { PlateWorker } from '../analysis/plate-reading.ts';
 import type { RecordStore } from '../storage/record-store.ts';
+import type { SyncClient } from '../sync/sync-client.ts';
 
-/** What the screens need from outside React: the record store and the plate-analysis worker. */
+/**
+ * What the screens need from outside React: the record store (writes through it are queued for
+ * the lab's server when sync is on), the plate-analysis worker, and the sync client (null when
+ * its own storage could not be opened: the app then works on its own).
+ */
 export interface Services {
   store: RecordStore;
   worker: PlateWorker;
+  sync: SyncClient | null;
 }
 
 export const ServicesContext = createContext<Services | null>(null);

@@ -6,6 +6,7 @@ import { installDemo } from '../demo/install-demo.ts';
 import { labAccuracy } from '../review/lab-accuracy.ts';
 import { NewExperimentForm } from './NewExperimentForm.tsx';
 import { StorageCard } from './StorageCard.tsx';
+import { SyncCard } from './SyncCard.tsx';
 import { TopBar } from './TopBar.tsx';
 
 export function HomeScreen() {
@@ -111,6 +112,7 @@ export function HomeScreen() {
             </p>
           )}
         </section>
+        <SyncCard />
         <StorageCard />
       </main>
     </>
