@@ -12,11 +12,11 @@ import {
 } from '../fitness/analysis.ts';
 import { DEFAULT_BOOTSTRAP_DRAWS } from '../fitness/competition.ts';
 import { readCompetitionCsv } from '../fitness/competition-csv.ts';
-import { COUNTABLE_RANGES, type CountableRange } from '../fitness/countable-range.ts';
 import { FitnessError } from '../fitness/errors.ts';
 import { analysisJson, assertAllFinite } from '../fitness/report.ts';
 import { analysisText, type TextOptions } from './fitness-format.ts';
 import type { CommandIo } from './io.ts';
+import { parseRange, UsageError, wholeNumber } from './options.ts';
 
 const HELP = `Usage: rivalplate fitness [options] FILE.csv
 
@@ -44,24 +44,6 @@ Options:
 
 Exit status: 0 done, 1 the data had problems (each names its row or assay), 2 usage error.
 `;
-
-function parseRange(text: string): CountableRange {
-  if (text in COUNTABLE_RANGES) return COUNTABLE_RANGES[text as keyof typeof COUNTABLE_RANGES];
-  const m = /^(\d+)-(\d+)$/.exec(text);
-  if (m && Number(m[1]) <= Number(m[2])) {
-    return { min: Number(m[1]), max: Number(m[2]), source: `lab setting (${m[1]}–${m[2]})` };
-  }
-  throw new UsageError(`--range: expected bam, sm9215, iso7218 or MIN-MAX, got "${text}"`);
-}
-
-class UsageError extends Error {}
-
-function wholeNumber(text: string, option: string, min: number): number {
-  if (!/^\d+$/.test(text) || Number(text) < min) {
-    throw new UsageError(`${option}: expected a whole number ≥ ${min}, got "${text}"`);
-  }
-  return Number(text);
-}
 
 function parse(args: string[]) {
   const { values, positionals } = parseArgs({

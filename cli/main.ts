@@ -11,6 +11,10 @@ type Command = {
 };
 
 const COMMANDS: Record<string, Command> = {
+  count: {
+    summary: 'count the colonies of each marker colour on plate photos',
+    load: () => import('./count-command.ts'),
+  },
   fitness: {
     summary: 'relative fitness, replicate statistics and trajectories from a CSV of plate counts',
     load: () => import('./fitness-command.ts'),

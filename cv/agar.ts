@@ -137,11 +137,35 @@ function quarterAgar(cv: OpenCv, lab8: Mat, agarMask: Mat): Mat {
   });
 }
 
+/**
+ * The background median, taken twice: where the first pass finds colonies (more than
+ * COLONY_DELTA_E from it, grown by one pixel), their pixels are replaced by that first estimate
+ * and the median is taken again. On a crowded plate a 9 mm window is a fifth colony, enough to
+ * tint a single-pass median and make bare agar between blue colonies look yellow.
+ */
+const COLONY_DELTA_E = 6;
 function medianBackground(cv: OpenCv, quarter: Mat, full: Size, frame: WorkingFrame): Mat {
   return withMats((keep) => {
     const k = oddAtLeast(3, BACKGROUND_WINDOW_MM / frame.mmPerPx / 4);
+    const first = keep(new cv.Mat());
+    cv.medianBlur(quarter, first, k);
+    const diff = keep(new cv.Mat());
+    cv.absdiff(quarter, first, diff);
+    const planes = keep(new cv.MatVector());
+    cv.split(diff, planes);
+    // Chebyshev distance in 8-bit Lab units is enough to spot colonies here.
+    const colony = keep(new cv.Mat());
+    cv.threshold(keep(planes.get(0)), colony, COLONY_DELTA_E * 2.55, 255, cv.THRESH_BINARY);
+    for (const c of [1, 2]) {
+      const p = keep(new cv.Mat());
+      cv.threshold(keep(planes.get(c)), p, COLONY_DELTA_E, 255, cv.THRESH_BINARY);
+      cv.bitwise_or(colony, p, colony);
+    }
+    cv.dilate(colony, colony, keep(cv.getStructuringElement(cv.MORPH_ELLIPSE, new cv.Size(3, 3))));
+    const cleaned = keep(quarter.clone());
+    first.copyTo(cleaned, colony);
     const median = keep(new cv.Mat());
-    cv.medianBlur(quarter, median, k);
+    cv.medianBlur(cleaned, median, k);
     const up = keep(new cv.Mat());
     cv.resize(median, up, new cv.Size(full.width, full.height), 0, 0, cv.INTER_LINEAR);
     return labToFloat(cv, up);

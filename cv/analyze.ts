@@ -113,7 +113,7 @@ function runPipeline(
     deltaLab: subtract(c.region.lab, c.region.backgroundLab),
   }));
   const classes = classify(samples, options.palette);
-  const colonies: Colony[] = candidates.map((c, i) => {
+  const all: Colony[] = candidates.map((c, i) => {
     const [x, y] = toOriginal(frame, c.region.x, c.region.y);
     const area = c.region.area / frame.scale ** 2;
     return {
@@ -129,9 +129,10 @@ function runPipeline(
       deltaLab: roundLab(samples[i]!.deltaLab),
     };
   });
+  const colonies = all.filter((_, i) => !classes.outlier[i]);
   stage('classify', 0.95);
 
-  flags.push(...colonyFlags(colonies, classes.oneColour));
+  flags.push(...colonyFlags(colonies, classes.oneColour, all.length - colonies.length));
   const meanContrast =
     candidates.reduce((s, c) => s + c.region.contrast, 0) / Math.max(1, candidates.length);
   const edge = edgeWidthMm(cv, agar.deltaE, fg.mask, meanContrast, frame.mmPerPx);

@@ -7,6 +7,11 @@ import type { ComponentStats, RegionStats } from './measure.ts';
  * - Specks (dust, agar flaws, noise): blobs smaller than a disc of MIN_COLONY_RADIUS_MM (a
  *   colony 0.45 mm across is still kept), and small blobs whose contrast barely clears the
  *   detection threshold: a real colony that small is a crisp dome, noise is not.
+ * - Chroma ghosts: JPEG keeps colour at half resolution, so a saturated colony bleeds a faint tint
+ *   into the agar beside it. A small blob that differs from the agar in tint but not in lightness
+ *   is such a ghost; every real colony here is lighter or darker than its agar.
+ * - Slivers and satellites: thin pieces the watershed cuts off the edge of a colony in a touching
+ *   group, and small blobs hugging a bigger colony (its blurred rim, cut loose by thresholding).
  * - Strokes (marker-pen writing seen through the lid): blobs far longer than they are thick and
  *   thinner than a typical colony. A chain of touching colonies is long too, but as thick as its
  *   colonies, so it stays.
@@ -29,6 +34,16 @@ import type { ComponentStats, RegionStats } from './measure.ts';
 const MIN_COLONY_RADIUS_MM = 0.22;
 /** Below 2× the minimum area, a region must stand this many thresholds above the agar. */
 const SMALL_CONTRAST = 1.3;
+/** The region's mean colour must stand this many thresholds from the agar's. */
+const MEAN_DIFFERENCE = 0.8;
+/** Chroma ghosts: smaller than GHOST_AREA minimum colonies and within GHOST_L of the agar's L*. */
+const GHOST_AREA = 3;
+const GHOST_L = 1.5;
+/** Slivers: split-off pieces smaller than this share of a typical colony's disc. */
+const SLIVER = 0.15;
+/** Satellites: smaller than SATELLITE_AREA minimum colonies, within SATELLITE_GAP_MM of a bigger one. */
+const SATELLITE_AREA = 3;
+const SATELLITE_GAP_MM = 0.3;
 const STROKE_ELONGATION = 4.5;
 const STROKE_THINNESS = 0.7;
 /** Ink: darker than the agar by this much in L*, and with a chroma below INK_CHROMA. */
@@ -36,7 +51,7 @@ const INK_DARKER = 15;
 const INK_CHROMA = 12;
 /** A grey shade: darker than the agar and within this colour difference of it in a*, b*. */
 const GREY_SHADE_CHROMA = 6;
-const CLUMP_ELONGATION = 1.45;
+const CLUMP_ELONGATION = 1.35;
 const WALL_THINNESS = 0.5;
 export const WALL_ZONE_MM = 1.2;
 const WALL_CRUMB = 0.35;
@@ -73,12 +88,23 @@ export function selectCandidates(
   const kept = regions.filter((r) => {
     if (verdict.get(r.component) !== 'keep' || r.area < minArea) return false;
     // A region no different from the agar on average is agar enclosed by something else (the
-    // inside of a pen letter, a filled ring), not a colony.
+    // inside of a pen letter, a filled ring) or a fringe of ringing round a dark colony, whose
+    // pixels stray both ways: its mean colour must differ from the agar as much as its pixels do.
     if (
       r.contrast < threshold ||
+      meanColourDifference(r) < MEAN_DIFFERENCE * threshold ||
       (r.area < 2 * minArea && r.contrast < SMALL_CONTRAST * threshold)
     ) {
       rejected.specks++;
+      return false;
+    }
+    if (r.area < GHOST_AREA * minArea && Math.abs(r.lab[0] - r.backgroundLab[0]) < GHOST_L) {
+      rejected.specks++; // a chroma ghost, see above
+      return false;
+    }
+    const comp = byId.get(r.component);
+    if (comp && comp.regions > 1 && r.area < SLIVER * Math.PI * typicalRadius ** 2) {
+      rejected.specks++; // a sliver the watershed cut off a colony's edge
       return false;
     }
     if (!isInk(r) && !isGreyShade(r)) return true;
@@ -91,12 +117,44 @@ export function selectCandidates(
     rejected.wall++;
     return false;
   });
-  const candidates = inside.map((region) => ({
+  const alone = dropSatellites(inside, minArea, SATELLITE_GAP_MM / mmPerPx);
+  rejected.specks += inside.length - alone.length;
+  const candidates = alone.map((region) => ({
     region,
     split: (byId.get(region.component)?.regions ?? 1) > 1,
     count: clumpCount(region, typicalArea),
   }));
   return { candidates, rejected, typicalArea };
+}
+
+/**
+ * Drops small regions hugging a bigger one and coloured like a faint copy of it: the blurred or
+ * JPEG-smeared rim of a colony that thresholding cut loose. A small colony of the other colour,
+ * or a full-strength one of the same colour, touching a big one is kept. n is a few hundred, so
+ * trying every pair is cheap.
+ */
+function dropSatellites(regions: RegionStats[], minArea: number, gapPx: number): RegionStats[] {
+  const radius = (r: RegionStats) => Math.sqrt(r.area / Math.PI);
+  const delta = (r: RegionStats) => [0, 1, 2].map((k) => r.lab[k]! - r.backgroundLab[k]!);
+  const fainterCopy = (small: RegionStats, big: RegionStats) => {
+    const a = delta(small);
+    const b = delta(big);
+    const na = Math.hypot(a[0]!, a[1]!, a[2]!);
+    const nb = Math.hypot(b[0]!, b[1]!, b[2]!);
+    const cos = (a[0]! * b[0]! + a[1]! * b[1]! + a[2]! * b[2]!) / (na * nb || 1);
+    return cos > 0.8 && na < 0.5 * nb;
+  };
+  return regions.filter((small) => {
+    if (small.area >= SATELLITE_AREA * minArea) return true;
+    const rs = radius(small);
+    return !regions.some(
+      (big) =>
+        big !== small &&
+        big.area > 2 * small.area &&
+        Math.hypot(big.x - small.x, big.y - small.y) - radius(big) - rs < gapPx &&
+        fainterCopy(small, big),
+    );
+  });
 }
 
 function clumpCount(region: RegionStats, typicalArea: number): number {
@@ -117,6 +175,14 @@ function componentVerdict(
   }
   if (c.rimPixels > 0 && c.halfWidth < WALL_THINNESS * typicalRadius) return 'wall';
   return 'keep';
+}
+
+function meanColourDifference(r: RegionStats): number {
+  return Math.hypot(
+    r.lab[0] - r.backgroundLab[0],
+    r.lab[1] - r.backgroundLab[1],
+    r.lab[2] - r.backgroundLab[2],
+  );
 }
 
 function isGreyShade(r: RegionStats): boolean {

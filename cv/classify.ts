@@ -21,6 +21,8 @@ export interface ColourSample {
 export interface Classification {
   cls: ColonyClass[];
   confidence: number[];
+  /** Against a palette: samples further than OUTLIER_SPREADS spreads from both colours. */
+  outlier: boolean[];
   classes: ColourClass[];
   /** Why a plate was taken as one colour (no palette and no second colour found). */
   oneColour: string | null;
@@ -28,6 +30,11 @@ export interface Classification {
 
 /** Below this confidence a colony's class is doubtful. */
 export const LOW_CONFIDENCE = 0.75;
+/**
+ * Against a palette, a colony further than this many spreads from both colours is neither marker
+ * (a tinted droplet, a JPEG ghost) and is left out. Colonies of a colour sit within about 2.
+ */
+export const OUTLIER_SPREADS = 4;
 /** Smallest spread used to scale distances, in feature units: real colours always vary this much. */
 const MIN_SPREAD = 2;
 
@@ -40,6 +47,7 @@ export function classify(samples: readonly ColourSample[], palette?: Palette): C
     return {
       cls: [],
       confidence: [],
+      outlier: [],
       classes: palette ? paletteClasses(palette) : [],
       oneColour: null,
     };
@@ -52,6 +60,7 @@ export function classify(samples: readonly ColourSample[], palette?: Palette): C
     return {
       cls: samples.map(() => 0),
       confidence: samples.map(() => 1),
+      outlier: samples.map(() => false),
       classes: [{ cls: 0, name: colourName(lab), hex: labToHex(lab), deltaLab: delta }],
       oneColour: 'no second colony colour stands apart from the spread of the first',
     };
@@ -60,6 +69,7 @@ export function classify(samples: readonly ColourSample[], palette?: Palette): C
   const spreads = model.colours.map((c) => Math.max(MIN_SPREAD, c.spread));
   const cls: ColonyClass[] = [];
   const confidence: number[] = [];
+  const outlier: boolean[] = [];
   for (const f of features) {
     const d0 = distance(f, centres[0]!) / spreads[0]!;
     const d1 = distance(f, centres[1]!) / spreads[1]!;
@@ -67,8 +77,9 @@ export function classify(samples: readonly ColourSample[], palette?: Palette): C
     cls.push(k);
     const total = d0 + d1;
     confidence.push(total === 0 ? 0.5 : (k === 0 ? d1 : d0) / total);
+    outlier.push(palette !== undefined && Math.min(d0, d1) > OUTLIER_SPREADS);
   }
-  return { cls, confidence, classes: paletteClasses(model), oneColour: null };
+  return { cls, confidence, outlier, classes: paletteClasses(model), oneColour: null };
 }
 
 /**

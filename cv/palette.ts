@@ -15,19 +15,25 @@ export function paletteFromExamples(a: Colony, b: Colony, names?: [string, strin
   return paletteFromSamples(a, b, names);
 }
 
-/** Re-sorts an analysis's colonies against a palette without segmenting the photo again. */
+/**
+ * Re-sorts an analysis's colonies against a palette without segmenting the photo again; blobs of
+ * neither palette colour are left out and counted in a 'colour-outliers' flag.
+ */
 export function classifyWithPalette(analysis: PlateAnalysis, palette: Palette): PlateAnalysis {
   const result = classify(analysis.colonies, palette);
-  const colonies = analysis.colonies.map((c, i) => ({
-    ...c,
-    cls: result.cls[i]!,
-    confidence: Math.round(result.confidence[i]! * 1000) / 1000,
-  }));
+  const colonies = analysis.colonies
+    .map((c, i) => ({
+      ...c,
+      cls: result.cls[i]!,
+      confidence: Math.round(result.confidence[i]! * 1000) / 1000,
+    }))
+    .filter((_, i) => !result.outlier[i]);
+  const outliers = analysis.colonies.length - colonies.length;
   return {
     ...analysis,
     colonies,
     classes: result.classes,
     counts: countsByClass(colonies, result.classes),
-    flags: [...imageFlags(analysis.flags), ...colonyFlags(colonies, result.oneColour)],
+    flags: [...imageFlags(analysis.flags), ...colonyFlags(colonies, result.oneColour, outliers)],
   };
 }

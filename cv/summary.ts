@@ -16,8 +16,13 @@ export function countsByClass(
 }
 
 /** Flags that follow from the colonies alone (clumps, doubtful colours, one-colour plates). */
-export function colonyFlags(colonies: readonly Colony[], oneColour: string | null): QualityFlag[] {
+export function colonyFlags(
+  colonies: readonly Colony[],
+  oneColour: string | null,
+  outliers: number,
+): QualityFlag[] {
   const flags: QualityFlag[] = [];
+  if (outliers > 0) flags.push({ kind: 'colour-outliers', colonies: outliers });
   const clumps = colonies.filter((c) => c.count > 1);
   if (clumps.length > 0) {
     flags.push({

@@ -84,6 +84,8 @@ export type QualityFlag =
   | { kind: 'glare'; fraction: number }
   | { kind: 'clumps-estimated'; clumps: number; colonies: number }
   | { kind: 'low-confidence'; colonies: number }
+  /** Blobs of neither palette colour, left out of the count (tinted droplets, JPEG ghosts). */
+  | { kind: 'colour-outliers'; colonies: number }
   | { kind: 'out-of-focus'; edgeWidthMm: number }
   | { kind: 'one-colour'; reason: string };
 

@@ -31,7 +31,9 @@ describe('a batch of varied plates with 25–300 colonies', () => {
   beforeAll(async () => {
     const first = [];
     for (const [i, colonies] of SWEEP_COUNTS.entries()) {
-      first.push(await run(varietyScene(100 + i, { colonies, fractionClass1: 0.3 + 0.04 * i })));
+      // Lid glare hides the colonies under it by design; plates with glare are checked below.
+      const scene = varietyScene(100 + i, { colonies, fractionClass1: 0.3 + 0.04 * i, glare: 0 });
+      first.push(await run(scene));
     }
     // As the batch command does: one palette from the whole batch, then every plate against it.
     palette = learnPalette(first.map((r) => r.analysis));
@@ -79,6 +81,19 @@ describe('a batch of varied plates with 25–300 colonies', () => {
     expect(single.analysis.counts.blue ?? 0).toBeLessThanOrEqual(1);
     expect(Math.abs((single.analysis.counts.cream ?? 0) - 120) / 120).toBeLessThan(0.05);
   });
+});
+
+describe('plates under lid glare', () => {
+  it('flags the glare, counts nothing in it, and misses no more than the glare covers', async () => {
+    for (const seed of [41, 42, 43]) {
+      const r = await run(varietyScene(seed, { colonies: 150, glare: 2 }));
+      const glare = r.analysis.flags.find((f) => f.kind === 'glare');
+      expect(glare).toBeDefined();
+      const s = scoreAnalysis(r.truth, r.analysis);
+      expect(s.precision).toBeGreaterThan(0.95);
+      expect(-s.countError).toBeLessThan(0.03 + 2 * (glare as { fraction: number }).fraction);
+    }
+  }, 60_000);
 });
 
 describe('plates that hold one colour or none', () => {

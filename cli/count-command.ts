@@ -1,0 +1,216 @@
+/**
+ * `rivalplate count [options] FILE|FOLDER...`: counts the colonies on plate photos with the same
+ * analysis core the app runs in its worker.
+ */
+import { readdir, stat, writeFile } from 'node:fs/promises';
+import { extname, join } from 'node:path';
+import { parseArgs } from 'node:util';
+import type { Palette, PlateAnalysis } from '../cv/index.ts';
+import { type CountableRange, DEFAULT_COUNTABLE_RANGE } from '../fitness/countable-range.ts';
+import { type CountRecord, countRecord, csvErrorRow, csvHeader, csvRow } from './count-record.ts';
+import { decodePhoto } from './decode-image.ts';
+import type { CommandIo } from './io.ts';
+import { loadCvCore } from './opencv-quiet.ts';
+import { parseRange, UsageError, wholeNumber } from './options.ts';
+import { readPaletteFile, writePaletteFile } from './palette-file.ts';
+
+const HELP = `Usage: rivalplate count [options] FILE|FOLDER...
+
+Finds the dish and counts the colonies of each marker colour on plate photos (JPEG, PNG, WebP;
+EXIF orientation applied). Folders are searched for such files (not recursively).
+
+Without --palette, the two colony colours are learned from the whole batch first and every plate
+is classified against them, so a plate holding only one strain is not split in two.
+
+Options:
+  --json                 one JSON object per photo, one per line
+  --csv                  one CSV row per photo (a count column per colour)
+  --palette FILE         classify against this palette (from --save-palette)
+  --save-palette FILE    write the palette learned from this batch
+  --out FILE             write the results to FILE instead of standard output
+  --range NAME|MIN-MAX   countable range per plate: bam (25–250, default), sm9215 (30–300),
+                         iso7218 (10–300), or MIN-MAX
+  --dish-mm N            inner dish diameter in mm (default 90)
+  -h, --help             show this help
+
+A file that cannot be read is reported and skipped; the exit status is then 1.
+Exit status: 0 all photos counted, 1 some could not be, 2 usage error.
+`;
+
+const PHOTO_EXTENSIONS = new Set(['.jpg', '.jpeg', '.png', '.webp']);
+
+interface Options {
+  format: 'json' | 'csv' | 'text';
+  palette?: string;
+  savePalette?: string;
+  out?: string;
+  range: CountableRange;
+  dishMm: number;
+  inputs: string[];
+}
+
+type Outcome =
+  | { file: string; analysis: PlateAnalysis; original: Original; ms: number }
+  | { file: string; error: string };
+type Original = { width: number; height: number; decodedScale: number };
+
+export async function run(args: string[], io: CommandIo): Promise<number> {
+  let options: Options;
+  try {
+    options = parseOptions(args);
+  } catch (e) {
+    if (e instanceof UsageError || e instanceof TypeError) {
+      io.err(`rivalplate count: ${e.message}\n\n${HELP}`);
+      return 2;
+    }
+    throw e;
+  }
+  if (options.inputs.length === 0) {
+    io.out(HELP);
+    return 0;
+  }
+  const files = await expandInputs(options.inputs, io);
+  const core = await loadCvCore();
+  let palette: Palette | undefined;
+  if (options.palette) {
+    try {
+      palette = await readPaletteFile(options.palette);
+    } catch (e) {
+      io.err(`rivalplate count: ${(e as Error).message}`);
+      return 2;
+    }
+  }
+
+  const outcomes: Outcome[] = [];
+  for (const [i, file] of files.entries()) {
+    if (io.isTty) io.err(`\r[${i + 1}/${files.length}] ${file}`.padEnd(70).slice(0, 100));
+    outcomes.push(await countOne(core, file, options, palette));
+  }
+  if (io.isTty && files.length > 0) io.err('');
+
+  if (!palette) {
+    const learned = core.learnPalette(analysesOf(outcomes));
+    if (learned) {
+      palette = learned;
+      for (const o of outcomes)
+        if ('analysis' in o) o.analysis = core.classifyWithPalette(o.analysis, learned);
+    }
+  }
+  if (options.savePalette) {
+    if (palette) await writePaletteFile(options.savePalette, palette);
+    else io.err('rivalplate count: no palette saved: the batch shows only one colony colour');
+  }
+
+  const records = outcomes.map((o) =>
+    'analysis' in o ? countRecord(o.file, o.original, o.analysis, o.ms, options.range) : o,
+  );
+  const text = render(records, options.format, palette);
+  if (options.out) await writeFile(options.out, text);
+  else io.out(text);
+  let failed = 0;
+  for (const o of outcomes) {
+    if ('error' in o) {
+      failed++;
+      io.err(`rivalplate count: ${o.file}: ${o.error}`);
+    }
+  }
+  return failed > 0 || files.length === 0 ? 1 : 0;
+}
+
+async function countOne(
+  core: Awaited<ReturnType<typeof loadCvCore>>,
+  file: string,
+  options: Options,
+  palette: Palette | undefined,
+): Promise<Outcome> {
+  try {
+    const photo = await decodePhoto(file);
+    const started = performance.now();
+    const analysis = await core.analyzePlate(photo.pixels, {
+      dishDiameterMm: options.dishMm,
+      ...(palette ? { palette } : {}),
+    });
+    const original = { width: photo.width, height: photo.height, decodedScale: photo.scale };
+    return { file, analysis, original, ms: performance.now() - started };
+  } catch (e) {
+    return { file, error: e instanceof Error ? e.message : String(e) };
+  }
+}
+
+function analysesOf(outcomes: readonly Outcome[]): PlateAnalysis[] {
+  return outcomes.flatMap((o) => ('analysis' in o ? [o.analysis] : []));
+}
+
+function parseOptions(args: string[]): Options {
+  const { values, positionals } = parseArgs({
+    args,
+    allowPositionals: true,
+    options: {
+      json: { type: 'boolean' },
+      csv: { type: 'boolean' },
+      palette: { type: 'string' },
+      'save-palette': { type: 'string' },
+      out: { type: 'string' },
+      range: { type: 'string' },
+      'dish-mm': { type: 'string' },
+      help: { type: 'boolean', short: 'h' },
+    },
+  });
+  if (values.json && values.csv) throw new UsageError('choose one of --json and --csv');
+  return {
+    format: values.json ? 'json' : values.csv ? 'csv' : 'text',
+    ...(values.palette ? { palette: values.palette } : {}),
+    ...(values['save-palette'] ? { savePalette: values['save-palette'] } : {}),
+    ...(values.out ? { out: values.out } : {}),
+    range: values.range ? parseRange(values.range) : DEFAULT_COUNTABLE_RANGE,
+    dishMm: values['dish-mm'] ? wholeNumber(values['dish-mm'], '--dish-mm', 20) : 90,
+    inputs: values.help ? [] : positionals,
+  };
+}
+
+/** Files as given; folders replaced by their photo files in name order. */
+async function expandInputs(inputs: readonly string[], io: CommandIo): Promise<string[]> {
+  const files: string[] = [];
+  for (const input of inputs) {
+    const info = await stat(input).catch(() => null);
+    if (info?.isDirectory()) {
+      const names = (await readdir(input)).filter((n) =>
+        PHOTO_EXTENSIONS.has(extname(n).toLowerCase()),
+      );
+      if (names.length === 0)
+        io.err(`rivalplate count: ${input}: no JPEG, PNG or WebP files in this folder`);
+      files.push(...names.sort().map((n) => join(input, n)));
+    } else {
+      files.push(input); // missing or unreadable files are reported by countOne, in order
+    }
+  }
+  return files;
+}
+
+function render(
+  records: readonly (CountRecord | { file: string; error: string })[],
+  format: Options['format'],
+  palette: Palette | undefined,
+): string {
+  const names = palette
+    ? palette.colours.map((c) => c.name)
+    : [...new Set(records.flatMap((r) => ('counts' in r ? Object.keys(r.counts) : [])))];
+  if (format === 'json') {
+    return records.map((r) => JSON.stringify(r)).join('\n') + (records.length ? '\n' : '');
+  }
+  if (format === 'csv') {
+    const rows = records.map((r) =>
+      'error' in r ? csvErrorRow(r.file, r.error, names) : csvRow(r, names),
+    );
+    return `${[csvHeader(names), ...rows].join('\n')}\n`;
+  }
+  const lines = records.map((r) => {
+    if ('error' in r) return `${r.file}\n  not counted: ${r.error}`;
+    const counts = names.map((n) => `${n} ${r.counts[n] ?? 0}`).join(', ');
+    const flags = r.flags.length ? `; ${r.flags.map((f) => f.kind).join(', ')}` : '';
+    const countable =
+      r.countable.status === 'countable' ? '' : `; ${r.countable.status} for ${r.countable.range}`;
+    return `${r.file}\n  ${r.total} colonies (${counts})${countable}${flags}; ${r.ms} ms`;
+  });
+  return `${lines.join('\n')}\n`;
+}

@@ -1,0 +1,112 @@
+import type { PlateAnalysis } from '../cv/index.ts';
+import {
+  type CountableRange,
+  type CountableStatus,
+  countableStatus,
+} from '../fitness/countable-range.ts';
+
+/**
+ * One line of `rivalplate count` output: an analysis in the ORIGINAL photo's pixels (the photo
+ * may have been decoded smaller; `decodedScale` is decoded pixels per original pixel).
+ */
+export interface CountRecord {
+  file: string;
+  width: number;
+  height: number;
+  dish: { cx: number; cy: number; r: number; rx: number; ry: number; angleDeg: number } | null;
+  colonies: { x: number; y: number; r: number; cls: number; confidence: number; count: number }[];
+  counts: Record<string, number>;
+  classes: { cls: number; name: string; hex: string }[];
+  total: number;
+  countable: { status: CountableStatus; range: string };
+  flags: PlateAnalysis['flags'];
+  ms: number;
+}
+
+export function countRecord(
+  file: string,
+  original: { width: number; height: number; decodedScale: number },
+  a: PlateAnalysis,
+  ms: number,
+  range: CountableRange,
+): CountRecord {
+  const k = 1 / original.decodedScale;
+  const r1 = (v: number) => Math.round(v * 10) / 10;
+  const total = a.colonies.reduce((s, c) => s + c.count, 0);
+  return {
+    file,
+    width: original.width,
+    height: original.height,
+    dish: a.dish && {
+      cx: r1(a.dish.cx * k),
+      cy: r1(a.dish.cy * k),
+      r: r1(a.dish.r * k),
+      rx: r1(a.dish.rx * k),
+      ry: r1(a.dish.ry * k),
+      angleDeg: r1(a.dish.angleDeg),
+    },
+    colonies: a.colonies.map((c) => ({
+      x: r1(c.x * k),
+      y: r1(c.y * k),
+      r: r1(c.r * k),
+      cls: c.cls,
+      confidence: c.confidence,
+      count: c.count,
+    })),
+    counts: a.counts,
+    classes: a.classes.map((c) => ({ cls: c.cls, name: c.name, hex: c.hex })),
+    total,
+    countable: { status: countableStatus(total, range), range: range.source },
+    flags: a.flags,
+    ms: Math.round(ms),
+  };
+}
+
+/** CSV (RFC 4180): one row per photo, a count column per colour class named in `classNames`. */
+export function csvHeader(classNames: readonly string[]): string {
+  return [
+    'file',
+    'width',
+    'height',
+    'dish_cx',
+    'dish_cy',
+    'dish_r',
+    'total',
+    ...classNames.map((n) => `count_${n.replace(/\s+/g, '_')}`),
+    'countable',
+    'countable_range',
+    'flags',
+    'ms',
+    'error',
+  ].join(',');
+}
+
+export function csvRow(r: CountRecord, classNames: readonly string[]): string {
+  return [
+    r.file,
+    r.width,
+    r.height,
+    r.dish?.cx ?? '',
+    r.dish?.cy ?? '',
+    r.dish?.r ?? '',
+    r.total,
+    ...classNames.map((n) => r.counts[n] ?? 0),
+    r.countable.status,
+    r.countable.range,
+    r.flags.map((f) => f.kind).join(' '),
+    r.ms,
+    '',
+  ]
+    .map(csvField)
+    .join(',');
+}
+
+export function csvErrorRow(file: string, message: string, classNames: readonly string[]): string {
+  const blanks = Array.from({ length: 10 + classNames.length }, () => '');
+  return [file, ...blanks, message].map(csvField).join(',');
+}
+
+function csvField(v: string | number): string {
+  const s = String(v);
+  return /[",\n\r]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
+}

@@ -1,0 +1,21 @@
+/**
+ * Loads the cv core in a Node process without opencv.js's process hooks. When its emscripten
+ * runtime is evaluated it installs an uncaughtException handler that re-throws (printing the
+ * whole 10 MB script) and an unhandledRejection handler that aborts the runtime; a command line
+ * tool reports its own errors, so those two handlers are taken off again.
+ */
+export async function loadCvCore(): Promise<typeof import('../cv/index.ts')> {
+  const before = {
+    uncaught: new Set(process.listeners('uncaughtException')),
+    rejection: new Set(process.listeners('unhandledRejection')),
+  };
+  const core = await import('../cv/index.ts');
+  await core.loadOpenCv();
+  for (const l of process.listeners('uncaughtException')) {
+    if (!before.uncaught.has(l)) process.removeListener('uncaughtException', l);
+  }
+  for (const l of process.listeners('unhandledRejection')) {
+    if (!before.rejection.has(l)) process.removeListener('unhandledRejection', l);
+  }
+  return core;
+}
