@@ -1,6 +1,7 @@
 import { useState } from 'react';
 import type { ClassIndex } from '../../schema/records.ts';
 import { useServices } from '../app/services.ts';
+import { useDraft } from '../app/use-draft.ts';
 import { type AssayDraft, newAssay, nextAssayDraft } from '../bench/assays.ts';
 import { classLooks } from '../bench/colours.ts';
 import type { ExperimentData } from '../bench/experiment-data.ts';
@@ -10,8 +11,9 @@ type DraftFields = { [K in keyof AssayDraft]: AssayDraft[K] | null };
 
 export function AssayForm({ data, onClose }: { data: ExperimentData; onClose: () => void }) {
   const { store } = useServices();
-  const [draft, setDraft] = useState<DraftFields>(() =>
-    nextAssayDraft(data.experiment, data.assays, data.plates, data.samples),
+  const [draft, setDraft, clearDraft] = useDraft<DraftFields>(
+    `assay-form.${data.experiment.id}`,
+    () => nextAssayDraft(data.experiment, data.assays, data.plates, data.samples),
   );
   const [error, setError] = useState<string | null>(null);
   const looks = classLooks(data.experiment);
@@ -28,7 +30,10 @@ export function AssayForm({ data, onClose }: { data: ExperimentData; onClose: ()
     await store.putBatch({ assays: [made.assay], samples: made.samples, plates: made.plates });
     setError(null);
     if (keepOpen) setDraft({ ...complete, replicate: complete.replicate + 1 });
-    else onClose();
+    else {
+      clearDraft();
+      onClose();
+    }
   }
   const onSave = (keepOpen: boolean) =>
     save(keepOpen).catch((e: unknown) =>
@@ -110,7 +115,14 @@ export function AssayForm({ data, onClose }: { data: ExperimentData; onClose: ()
         <button type="button" className="btn" onClick={() => onSave(true)}>
           Save, next replicate
         </button>
-        <button type="button" className="btn quiet" onClick={onClose}>
+        <button
+          type="button"
+          className="btn quiet"
+          onClick={() => {
+            clearDraft();
+            onClose();
+          }}
+        >
           Close
         </button>
       </div>

@@ -1,4 +1,4 @@
-import { useState } from 'react';
+import { useDraft } from '../app/use-draft.ts';
 import { classLooks } from '../bench/colours.ts';
 import type { ExperimentData } from '../bench/experiment-data.ts';
 import { AssayCard } from './AssayCard.tsx';
@@ -6,7 +6,10 @@ import { AssayForm } from './AssayForm.tsx';
 import { PaletteCard } from './PaletteCard.tsx';
 
 export function AssaysTab({ data }: { data: ExperimentData }) {
-  const [adding, setAdding] = useState(data.assays.length === 0);
+  const [adding, setAdding] = useDraft(
+    `assay-form-open.${data.experiment.id}`,
+    () => data.assays.length === 0,
+  );
   const looks = classLooks(data.experiment);
   const lines = [...new Set(data.assays.map((a) => a.line))];
   return (

@@ -1,6 +1,7 @@
 import { useState } from 'react';
 import { go } from '../app/route.ts';
 import { useServices } from '../app/services.ts';
+import { useDraft } from '../app/use-draft.ts';
 import { useLive } from '../app/use-live.ts';
 import { installDemo } from '../demo/install-demo.ts';
 import { labAccuracy } from '../review/lab-accuracy.ts';
@@ -15,7 +16,7 @@ export function HomeScreen() {
   const accuracy = useLive((s) => labAccuracy(s.store), []);
   const [demoStep, setDemoStep] = useState<string | null>(null);
   const [demoError, setDemoError] = useState<string | null>(null);
-  const [creating, setCreating] = useState(false);
+  const [creating, setCreating] = useDraft('new-experiment-open', () => false);
 
   const list = experiments.state === 'ready' ? experiments.value : [];
   const demo = list.find((e) => e.demo);

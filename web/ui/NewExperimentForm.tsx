@@ -1,17 +1,25 @@
 import { useState } from 'react';
 import { useServices } from '../app/services.ts';
+import { useDraft } from '../app/use-draft.ts';
 import { BLANK_EXPERIMENT, newExperiment, parseLines } from '../bench/experiments.ts';
 import { NumberField } from './NumberField.tsx';
 
 /** Calls `onDone` with the new experiment's id, or with null when cancelled. */
 export function NewExperimentForm({ onDone }: { onDone: (id: string | null) => void }) {
   const { store } = useServices();
-  const [name, setName] = useState('');
-  const [lines, setLines] = useState(BLANK_EXPERIMENT.lines.join(', '));
-  const [reference, setReference] = useState(BLANK_EXPERIMENT.referenceName);
-  const [transfer, setTransfer] = useState<number | null>(BLANK_EXPERIMENT.transferDilution);
-  const [dilution, setDilution] = useState<number | null>(BLANK_EXPERIMENT.defaultDilutionFold);
-  const [volume, setVolume] = useState<number | null>(BLANK_EXPERIMENT.defaultVolumeUl);
+  const [form, setForm, clearForm] = useDraft('new-experiment', () => ({
+    name: '',
+    lines: BLANK_EXPERIMENT.lines.join(', '),
+    reference: BLANK_EXPERIMENT.referenceName,
+    transfer: BLANK_EXPERIMENT.transferDilution as number | null,
+    dilution: BLANK_EXPERIMENT.defaultDilutionFold as number | null,
+    volume: BLANK_EXPERIMENT.defaultVolumeUl as number | null,
+  }));
+  const field =
+    <K extends keyof typeof form>(key: K) =>
+    (v: (typeof form)[K]) =>
+      setForm((f) => ({ ...f, [key]: v }));
+  const { name, lines, reference, transfer, dilution, volume } = form;
   const [error, setError] = useState<string | null>(null);
 
   async function save() {
@@ -29,6 +37,7 @@ export function NewExperimentForm({ onDone }: { onDone: (id: string | null) => v
       defaultVolumeUl: volume,
     });
     await store.put('experiments', e);
+    clearForm();
     onDone(e.id);
   }
 
@@ -46,22 +55,26 @@ export function NewExperimentForm({ onDone }: { onDone: (id: string | null) => v
         Experiment name
         <input
           value={name}
-          onChange={(e) => setName(e.target.value)}
+          onChange={(e) => field('name')(e.target.value)}
           placeholder="e.g. Pond isolate, spring run"
         />
       </label>
       <label className="field">
         Evolved lines
-        <input value={lines} onChange={(e) => setLines(e.target.value)} />
+        <input value={lines} onChange={(e) => field('lines')(e.target.value)} />
       </label>
       <label className="field">
         Reference strain
-        <input value={reference} onChange={(e) => setReference(e.target.value)} />
+        <input value={reference} onChange={(e) => field('reference')(e.target.value)} />
       </label>
       <div className="grid3">
-        <NumberField label="Transfer dilution (fold)" value={transfer} onChange={setTransfer} />
-        <NumberField label="Plate dilution (fold)" value={dilution} onChange={setDilution} />
-        <NumberField label="Volume plated (µL)" value={volume} onChange={setVolume} />
+        <NumberField
+          label="Transfer dilution (fold)"
+          value={transfer}
+          onChange={field('transfer')}
+        />
+        <NumberField label="Plate dilution (fold)" value={dilution} onChange={field('dilution')} />
+        <NumberField label="Volume plated (µL)" value={volume} onChange={field('volume')} />
       </div>
       <p className="muted">
         The two marker colours are learned from the first plate you photograph; you can teach them
@@ -72,7 +85,14 @@ export function NewExperimentForm({ onDone }: { onDone: (id: string | null) => v
         <button type="submit" className="btn primary">
           Create experiment
         </button>
-        <button type="button" className="btn quiet" onClick={() => onDone(null)}>
+        <button
+          type="button"
+          className="btn quiet"
+          onClick={() => {
+            clearForm();
+            onDone(null);
+          }}
+        >
           Cancel
         </button>
       </div>

@@ -3,6 +3,7 @@ import { countableStatus, DEFAULT_COUNTABLE_RANGE } from '../../fitness/countabl
 import type { Assay, Plate, Sample } from '../../schema/records.ts';
 import { hrefOf } from '../app/route.ts';
 import { useServices } from '../app/services.ts';
+import { useDraft } from '../app/use-draft.ts';
 import type { ExperimentData } from '../bench/experiment-data.ts';
 import { plateCount } from '../bench/plate-counts.ts';
 import { revised } from '../storage/stamp.ts';
@@ -20,7 +21,7 @@ export function PlateRow({
   data: ExperimentData;
 }) {
   const { store } = useServices();
-  const [editing, setEditing] = useState(false);
+  const [editing, setEditing, clearEditing] = useDraft(`plate-editing.${plate.id}`, () => false);
   const analysis = data.analyses.get(plate.id);
   const count = plateCount(plate, assay, analysis, data.corrections.get(plate.id));
   const status = count
@@ -80,7 +81,7 @@ export function PlateRow({
           plate={plate}
           onSave={async (change) => {
             await store.put('plates', revised(plate, change));
-            setEditing(false);
+            clearEditing();
           }}
         />
       )}
@@ -95,10 +96,15 @@ function PlateEditor({
   plate: Plate;
   onSave: (change: Partial<Plate>) => Promise<void>;
 }) {
-  const [dilution, setDilution] = useState<number | null>(plate.dilutionFold);
-  const [volume, setVolume] = useState<number | null>(plate.volumeUl);
-  const [test, setTest] = useState<number | null>(plate.typedCounts?.test ?? null);
-  const [ref, setRef] = useState<number | null>(plate.typedCounts?.reference ?? null);
+  const [form, setForm, clearForm] = useDraft(`plate-edit.${plate.id}`, () => ({
+    dilution: plate.dilutionFold as number | null,
+    volume: plate.volumeUl as number | null,
+    test: plate.typedCounts?.test ?? (null as number | null),
+    ref: plate.typedCounts?.reference ?? (null as number | null),
+  }));
+  const field = (key: keyof typeof form) => (v: number | null) =>
+    setForm((f) => ({ ...f, [key]: v }));
+  const { dilution, volume, test, ref } = form;
   const [error, setError] = useState<string | null>(null);
   const typed = test !== null || ref !== null;
   return (
@@ -115,16 +121,24 @@ function PlateEditor({
           dilutionFold: dilution,
           volumeUl: volume,
           typedCounts: typed ? { test: test!, reference: ref! } : null,
-        }).catch((err: unknown) =>
-          setError(`Not saved: ${err instanceof Error ? err.message : String(err)}`),
-        );
+        })
+          .then(clearForm)
+          .catch((err: unknown) =>
+            setError(`Not saved: ${err instanceof Error ? err.message : String(err)}`),
+          );
       }}
     >
       <div className="grid2">
-        <NumberField label="Dilution (fold)" value={dilution} onChange={setDilution} />
-        <NumberField label="Volume (µL)" value={volume} onChange={setVolume} />
-        <NumberField label="Test colonies" value={test} onChange={setTest} whole optional />
-        <NumberField label="Reference colonies" value={ref} onChange={setRef} whole optional />
+        <NumberField label="Dilution (fold)" value={dilution} onChange={field('dilution')} />
+        <NumberField label="Volume (µL)" value={volume} onChange={field('volume')} />
+        <NumberField label="Test colonies" value={test} onChange={field('test')} whole optional />
+        <NumberField
+          label="Reference colonies"
+          value={ref}
+          onChange={field('ref')}
+          whole
+          optional
+        />
       </div>
       {plate.photoId && (
         <p className="muted">
