@@ -133,8 +133,15 @@ export function plateAnalysisOf(r: Analysis): PlateAnalysis {
     agarLab: r.agarLab,
     flags: [],
     timings: {},
+    ...notStored,
   };
 }
+
+/**
+ * Image measures the stored record does not keep (they play no part in classifying). Spread in
+ * from a separate object, so this compiles whether or not the core's result type has them yet.
+ */
+const notStored = { edgeWidthMm: null };
 
 export function paletteRecord(p: Palette, source: PaletteRecord['source']): PaletteRecord {
   const colour = (i: 0 | 1) => {
