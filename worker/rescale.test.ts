@@ -35,6 +35,8 @@ const decoded: PlateAnalysis = {
   agarLab: [85, 0, 15],
   flags: [],
   timings: {},
+  // Spread from a separate object: compiles with and without this field in the core's type.
+  ...{ edgeWidthMm: 0.2 },
 };
 
 describe('analysisToOriginal', () => {
