@@ -117,6 +117,17 @@ test('set up, photograph, correct by tapping, type the other sample, see W; then
     `L1 g0 r1,L1,L1,0,1,start,100000,100,${corrected[1]},${corrected[0]},,1`,
     'L1 g0 r1,L1,L1,0,1,end,10000000,100,180,95,100,1',
   ]);
+  const resultsDownload = page.waitForEvent('download');
+  await page.getByTestId('export-results').tap();
+  const results = readFileSync(await (await resultsDownload).path(), 'utf8')
+    .trim()
+    .split(/\r\n/);
+  expect(results[0]).toBe(
+    'assay,group,line,generation,replicate,W,W_ci_low,W_ci_high,r,r_per_day,m_test,m_ref,flags',
+  );
+  const row = results[1]!.split(',');
+  expect(row.slice(0, 5)).toEqual(['L1 g0 r1', 'L1', 'L1', '0', '1']);
+  expect(Number(row[5])).toBeCloseTo(W, 10);
   await shot(page, '07-files');
 
   // Offline: reload from the service worker's cache; everything is still there and a new plate

@@ -11,6 +11,8 @@ export interface FitnessInputs {
   inputs: AssayInput[];
   /** Assays left out because a plate has no count yet, with the reason. */
   waiting: { assay: string; reason: string }[];
+  /** Image-quality flags of the photographed plates that feed each assay, by assay label. */
+  imageFlags: Map<string, { plate: string; kind: string; detail: string }[]>;
 }
 
 /**
@@ -20,6 +22,7 @@ export interface FitnessInputs {
 export function fitnessInputs(data: ExperimentData): FitnessInputs {
   const inputs: AssayInput[] = [];
   const waiting: FitnessInputs['waiting'] = [];
+  const imageFlags: FitnessInputs['imageFlags'] = new Map();
   const seen = new Map<string, number>();
   for (const assay of data.assays) {
     // Two assays of one line, generation and replicate (e.g. both markers of a reciprocal
@@ -38,11 +41,18 @@ export function fitnessInputs(data: ExperimentData): FitnessInputs {
         .filter((p) => sampleIds.has(p.sampleId))
         .sort((a, b) => a.dilutionFold - b.dilutionFold)
         .flatMap((p, i) => {
-          const c = plateCount(p, assay, data.analyses.get(p.id), data.corrections.get(p.id));
+          const analysis = data.analyses.get(p.id);
+          const c = plateCount(p, assay, analysis, data.corrections.get(p.id));
           if (!c) return [];
+          const plateLabel = `${label} ${timepoint} plate ${i + 1} (1:${p.dilutionFold})`;
+          if (c.source === 'photo' && analysis?.flags.length) {
+            const list = imageFlags.get(label) ?? [];
+            list.push(...analysis.flags.map((f) => ({ plate: plateLabel, ...f })));
+            imageFlags.set(label, list);
+          }
           return [
             {
-              label: `${label} ${timepoint} plate ${i + 1} (1:${p.dilutionFold})`,
+              label: plateLabel,
               dilutionFold: p.dilutionFold,
               volumeMl: p.volumeUl / 1000,
               testColonies: c.test,
@@ -72,5 +82,5 @@ export function fitnessInputs(data: ExperimentData): FitnessInputs {
       end,
     });
   }
-  return { inputs, waiting };
+  return { inputs, waiting, imageFlags };
 }

@@ -24,3 +24,19 @@ export function formatBytes(n: number): string {
   if (n < 1024 ** 3) return `${(n / 1024 / 1024).toFixed(1)} MB`;
   return `${(n / 1024 ** 3).toFixed(2)} GB`;
 }
+
+/** Share of the quota a new photo may not push the usage past. */
+const QUOTA_LIMIT = 0.95;
+
+/**
+ * Throws an Error naming the file when storing `bytes` more would take the device past 95 % of
+ * the quota, so a photo is refused with a message rather than failing half-written.
+ */
+export async function ensureRoomFor(bytes: number, name: string): Promise<void> {
+  const s = await storageStatus();
+  if (s.usedBytes === null || !s.quotaBytes) return;
+  if (s.usedBytes + bytes > s.quotaBytes * QUOTA_LIMIT)
+    throw new Error(
+      `${name} (${formatBytes(bytes)}) does not fit: ${formatBytes(s.usedBytes)} of ${formatBytes(s.quotaBytes)} are used. Export a backup and remove old experiments first.`,
+    );
+}

@@ -6,6 +6,7 @@ import { useServices } from '../app/services.ts';
 import { useLive } from '../app/use-live.ts';
 import { attachPhoto } from '../bench/photos.ts';
 import { loadPlate } from '../bench/plate-data.ts';
+import { ensureRoomFor } from '../storage/quota.ts';
 import { PhotoSource } from './PhotoSource.tsx';
 import { ReadingStatus } from './ReadingStatus.tsx';
 import { ReviewPanel } from './ReviewPanel.tsx';
@@ -45,6 +46,7 @@ export function PlateScreen({ experimentId, plateId }: { experimentId: string; p
 
   const takePhoto = (blob: Blob, name: string) =>
     start(async (signal, onProgress) => {
+      await ensureRoomFor(blob.size, name);
       const { plate, photo } = await attachPhoto(store, d.plate, blob, name);
       await readPlate(store, worker, d.experiment, plate, photo, { signal, onProgress });
     });

@@ -71,12 +71,40 @@ export function ResultsTab({ data }: { data: ExperimentData }) {
                             {fl.code}
                           </span>
                         ))}
+                        {fit.imageFlags.get(x.assay)?.map((fl) => (
+                          <span
+                            key={fl.plate + fl.kind}
+                            className="flag"
+                            title={`${fl.plate}: ${fl.detail}`}
+                          >
+                            {fl.kind}
+                          </span>
+                        ))}
                       </td>
                     </tr>
                   ))}
                 </tbody>
               </table>
             </div>
+            {a.assays.some((x) => x.flags.length || fit.imageFlags.get(x.assay)?.length) && (
+              <details>
+                <summary>What the flags say</summary>
+                <ul className="muted">
+                  {a.assays.flatMap((x) => [
+                    ...x.flags.map((fl) => (
+                      <li key={`${x.assay}-${fl.code}`}>
+                        {x.assay}: {fl.message}
+                      </li>
+                    )),
+                    ...(fit.imageFlags.get(x.assay) ?? []).map((fl) => (
+                      <li key={`${fl.plate}-${fl.kind}`}>
+                        {fl.plate}: {fl.detail}
+                      </li>
+                    )),
+                  ])}
+                </ul>
+              </details>
+            )}
           </details>
           <section className="card" aria-label="Groups">
             <h2>Replicate groups</h2>
