@@ -83,10 +83,10 @@ export async function run(args: string[], io: CommandIo): Promise<number> {
 
   const outcomes: Outcome[] = [];
   for (const [i, file] of files.entries()) {
-    if (io.isTty) io.err(`\r[${i + 1}/${files.length}] ${file}`.padEnd(70).slice(0, 100));
+    io.status?.(`[${i + 1}/${files.length}] ${file}`.slice(0, 100));
     outcomes.push(await countOne(core, file, options, palette));
   }
-  if (io.isTty && files.length > 0) io.err('');
+  if (files.length > 0) io.status?.('');
 
   if (!palette) {
     const learned = core.learnPalette(analysesOf(outcomes));

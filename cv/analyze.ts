@@ -151,6 +151,7 @@ function runPipeline(
     classes: classes.classes,
     agarLab: roundLab(agar.agarLab),
     flags,
+    edgeWidthMm: edge === null ? null : round(edge, 3),
     timings,
   };
 }

@@ -51,7 +51,7 @@ const INK_DARKER = 15;
 const INK_CHROMA = 12;
 /** A grey shade: darker than the agar and within this colour difference of it in a*, b*. */
 const GREY_SHADE_CHROMA = 6;
-const CLUMP_ELONGATION = 1.35;
+const CLUMP_ELONGATION = 2.0;
 const WALL_THINNESS = 0.5;
 export const WALL_ZONE_MM = 1.2;
 const WALL_CRUMB = 0.35;

@@ -189,6 +189,7 @@ export interface OpenCv {
   THRESH_BINARY: number;
   THRESH_BINARY_INV: number;
   THRESH_OTSU: number;
+  THRESH_TOZERO: number;
   MORPH_ELLIPSE: number;
   MORPH_RECT: number;
   MORPH_OPEN: number;

@@ -7,9 +7,9 @@ import type { Mat, OpenCv } from './opencv.ts';
 /**
  * Splits touching and slightly overlapping colonies: marker-controlled watershed (Beucher &
  * Meyer 1993) seeded at the peaks of the Euclidean distance transform of the foreground, the
- * usual recipe for touching round objects. A peak is a pixel that equals the maximum of the
- * distance map within a disc of half a typical colony radius, so that a pair overlapping down to
- * 0.7× the sum of their radii still gets two seeds.
+ * usual recipe for touching round objects. Peaks are found at the scale of each colony (see
+ * scaledPeaks), so that a pair overlapping down to 0.7× the sum of their radii still gets two
+ * seeds while one big colony gets one.
  *
  * Output: `regions` (CV_32S, 1..n per colony candidate, 0 elsewhere), `components` (CV_32S, the
  * connected foreground blobs before splitting), `distance` (CV_32F), and the typical radius used.
@@ -38,12 +38,7 @@ export function splitTouching(
 
   const regions = keep(new cv.Mat());
   const regionCount = withMats((k) => {
-    const size = oddAtLeast(3, 1.0 * typicalRadius);
-    const disc = k(cv.getStructuringElement(cv.MORPH_ELLIPSE, new cv.Size(size, size)));
-    const dilated = k(new cv.Mat());
-    cv.dilate(distance, dilated, disc);
-    const peaks = k(new cv.Mat());
-    cv.compare(distance, dilated, peaks, cv.CMP_GE);
+    const peaks = k(scaledPeaks(cv, distance));
     const floor = k(new cv.Mat());
     cv.threshold(distance, floor, Math.max(1.5, 0.3 * typicalRadius), 255, cv.THRESH_BINARY);
     const floor8 = k(new cv.Mat());
@@ -75,6 +70,32 @@ export function splitTouching(
     return n;
   });
   return { regions, regionCount, components, componentCount, distance, typicalRadius };
+}
+
+/**
+ * Pixels of the distance map that no higher value overshadows, where a value v overshadows the
+ * disc of radius SEED_REACH·v round it: a big colony's centre suppresses the small bumps a ragged
+ * outline gives its distance map, while two small touching colonies keep a seed each. The reach
+ * depends on the value, so it is applied per octave of values: a max filter over the pixels of
+ * each octave [v, 2v), of radius SEED_REACH·v, and a pixel survives if it beats them all.
+ */
+const SEED_REACH = 0.7;
+function scaledPeaks(cv: OpenCv, distance: Mat): Mat {
+  return withMats((keep) => {
+    const peaks = new cv.Mat(distance.rows, distance.cols, cv.CV_8UC1, [255, 0, 0, 0]);
+    const top = cv.minMaxLoc(distance).maxVal;
+    for (let v = 1.5; v <= top; v *= 2) {
+      const octave = keep(new cv.Mat());
+      cv.threshold(distance, octave, v, 0, cv.THRESH_TOZERO);
+      const size = oddAtLeast(3, 2 * SEED_REACH * v);
+      const disc = keep(cv.getStructuringElement(cv.MORPH_ELLIPSE, new cv.Size(size, size)));
+      cv.dilate(octave, octave, disc);
+      const beats = keep(new cv.Mat());
+      cv.compare(distance, octave, beats, cv.CMP_GE);
+      cv.bitwise_and(peaks, beats, peaks);
+    }
+    return peaks;
+  });
 }
 
 /**

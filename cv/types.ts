@@ -102,6 +102,8 @@ export interface PlateAnalysis {
   /** The agar colour in the middle of the dish. */
   agarLab: Lab;
   flags: QualityFlag[];
+  /** Sharpness: mean width of colony edges in mm (focus.ts); null without colonies. */
+  edgeWidthMm: number | null;
   /** Milliseconds per stage. */
   timings: Record<string, number>;
 }
