@@ -1,3 +1,4 @@
+import { readFileSync } from 'node:fs';
 import { resolve } from 'node:path';
 import { expect, type Page, test } from '@playwright/test';
 import { count, DEMO, openApp, shot, tapColony } from './helpers.ts';
@@ -86,4 +87,24 @@ test('teach colours by tapping one colony of each; drag the dish smaller and re-
   await expect(page.getByRole('region', { name: 'Marker colours' })).toContainText(
     'Taught by tapping',
   );
+});
+
+test('a photo stored sideways with an EXIF orientation is read upright', async ({ page }) => {
+  const rotated = resolve(DEMO, 'marrowfield-L5-day1-rotated.jpg');
+  // Reference: the generator's truth file gives the dish in upright pixels of a 1600 × 1200
+  // picture; the file itself is stored 1200 × 1600 with EXIF orientation 6.
+  const truth = JSON.parse(readFileSync(rotated.replace('.jpg', '.truth.json'), 'utf8'));
+  await openApp(page);
+  await page.getByRole('button', { name: 'New experiment' }).tap();
+  await page.getByLabel('Experiment name').fill('Sideways');
+  await page.getByRole('button', { name: 'Create experiment' }).tap();
+  await page.getByRole('button', { name: 'Save assay' }).tap();
+  await page.getByRole('link', { name: 'Photo of start plate' }).tap();
+  await page.getByTestId('file-input').setInputFiles(rotated);
+  await expect(page.getByTestId('tally')).toBeVisible({ timeout: 60_000 });
+  await expect(page.getByTestId('review')).toHaveAttribute('viewBox', '0 0 1600 1200');
+  const dish = page.locator('[data-testid=review] ellipse.dish');
+  expect(Math.abs(Number(await dish.getAttribute('cx')) - truth.dish.cx)).toBeLessThan(20);
+  expect(Math.abs(Number(await dish.getAttribute('cy')) - truth.dish.cy)).toBeLessThan(20);
+  await shot(page, '42-exif-upright');
 });

@@ -60,33 +60,36 @@ export function SyncCard() {
         </div>
       ))}
       {status.phase === 'off' ? (
-        <form
-          className="stack"
-          onSubmit={(e) => {
-            e.preventDefault();
-            act(async () => {
-              const problem = await sync.connect({ serverUrl: url.trim(), token: token.trim() });
-              return problem ? Promise.reject(new Error(problem.message)) : 'Connected.';
-            });
-          }}
-        >
-          <label className="field">
-            Server address
-            <input
-              type="url"
-              value={url}
-              onChange={(e) => setUrl(e.target.value)}
-              placeholder="https://rivalplate.lab.example"
-            />
-          </label>
-          <label className="field">
-            Token
-            <input value={token} onChange={(e) => setToken(e.target.value)} autoComplete="off" />
-          </label>
-          <button type="submit" className="btn" disabled={!url.trim() || !token.trim()}>
-            Connect
-          </button>
-        </form>
+        <details>
+          <summary>Share this phone's plates with the lab server</summary>
+          <form
+            className="stack"
+            onSubmit={(e) => {
+              e.preventDefault();
+              act(async () => {
+                const problem = await sync.connect({ serverUrl: url.trim(), token: token.trim() });
+                return problem ? Promise.reject(new Error(problem.message)) : 'Connected.';
+              });
+            }}
+          >
+            <label className="field">
+              Server address
+              <input
+                type="url"
+                value={url}
+                onChange={(e) => setUrl(e.target.value)}
+                placeholder="https://rivalplate.lab.example"
+              />
+            </label>
+            <label className="field">
+              Token
+              <input value={token} onChange={(e) => setToken(e.target.value)} autoComplete="off" />
+            </label>
+            <button type="submit" className="btn" disabled={!url.trim() || !token.trim()}>
+              Connect
+            </button>
+          </form>
+        </details>
       ) : (
         <div className="row">
           <button
