@@ -11,6 +11,9 @@ import sharp from 'sharp';
  * results back by dividing by it.
  */
 export const MAX_DECODE_PIXELS = 16_000_000;
+
+// One photo at a time: libvips' operation cache would only hold on to decoded pixels.
+sharp.cache(false);
 /** Files claiming more pixels than this are refused before decoding (sharp's own guard). */
 const MAX_INPUT_PIXELS = 400_000_000;
 

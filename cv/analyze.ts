@@ -74,7 +74,10 @@ function runPipeline(
   );
   stage('dish', 0.2);
 
-  const rgb = keep(workingImage(cv, keep, src, frame));
+  const rgb = keep(workingImage(cv, src, frame));
+  // The full-size copy is no longer needed: freeing it now keeps the WASM heap from growing to
+  // hold it and the working planes at once (a 12 MP photo is 48 MB of RGBA).
+  src.delete();
   const dishW = toWorkingDish(geometry, frame);
   stage('working-image', 0.3);
 
@@ -156,16 +159,18 @@ function runPipeline(
   };
 }
 
-function workingImage(cv: OpenCv, keep: Keep, src: Mat, frame: WorkingFrame): Mat {
-  const { x, y, width, height } = frame.roi;
-  const crop = keep(src.roi(new cv.Rect(x, y, width, height)));
-  const small = keep(new cv.Mat());
-  cv.resize(crop, small, new cv.Size(frame.width, frame.height), 0, 0, cv.INTER_AREA);
-  const rgb = new cv.Mat();
-  cv.cvtColor(small, rgb, cv.COLOR_RGBA2RGB);
-  // Light smoothing: sensor noise and JPEG blocks would otherwise set the detection threshold.
-  cv.GaussianBlur(rgb, rgb, new cv.Size(3, 3), 0.8);
-  return rgb;
+function workingImage(cv: OpenCv, src: Mat, frame: WorkingFrame): Mat {
+  return withMats((keep) => {
+    const { x, y, width, height } = frame.roi;
+    const crop = keep(src.roi(new cv.Rect(x, y, width, height)));
+    const small = keep(new cv.Mat());
+    cv.resize(crop, small, new cv.Size(frame.width, frame.height), 0, 0, cv.INTER_AREA);
+    const rgb = new cv.Mat();
+    cv.cvtColor(small, rgb, cv.COLOR_RGBA2RGB);
+    // Light smoothing: sensor noise and JPEG blocks would otherwise set the detection threshold.
+    cv.GaussianBlur(rgb, rgb, new cv.Size(3, 3), 0.8);
+    return rgb;
+  });
 }
 
 function toWorkingDish(d: Dish, f: WorkingFrame): Dish {
