@@ -21,7 +21,9 @@ for (let i = 0; i < WARM_UP + RUNS; i++) {
   colonies = a.colonies.length;
   if (i < WARM_UP) continue;
   totals.push(t);
-  for (const [k, v] of Object.entries(a.timings)) (stageRuns[k] ??= []).push(v);
+  for (const [k, v] of Object.entries(a.timings)) {
+    stageRuns[k] = [...(stageRuns[k] ?? []), v];
+  }
 }
 const median = (v: number[]) => [...v].sort((a, b) => a - b)[v.length >> 1]!;
 const stages = Object.fromEntries(Object.entries(stageRuns).map(([k, v]) => [k, median(v)]));
