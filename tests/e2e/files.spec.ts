@@ -33,5 +33,7 @@ test('a plate CSV is imported into an experiment and its fitness computed; a bad
     page.getByRole('heading', { name: `Relative fitness per assay (${assays})` }),
   ).toBeVisible();
   await expect(page.getByRole('heading', { name: 'Line L6 over generations' })).toBeVisible();
+  // The example's four marker-control assays (fixtures/example-competition.csv).
+  await expect(page.getByTestId('marker-effect')).toContainText('marker-control, n = 4');
   await shot(page, '50-imported-fitness');
 });

@@ -1,0 +1,85 @@
+import type { Analysis } from '../../fitness/analysis.ts';
+import type { FitnessInputs } from '../results/assay-inputs.ts';
+import { fixed3, interval } from '../results/format.ts';
+
+/** Per assay: W with its counting-noise interval, r per day with its SE, and every flag. */
+export function AssayResults({
+  analysis,
+  imageFlags,
+}: {
+  analysis: Analysis;
+  imageFlags: FitnessInputs['imageFlags'];
+}) {
+  const flagged = analysis.assays.some((x) => x.flags.length || imageFlags.get(x.assay)?.length);
+  return (
+    <details className="card" aria-label="Assays" open={analysis.assays.length <= 12}>
+      <summary>
+        <h2 style={{ display: 'inline' }}>Relative fitness per assay ({analysis.assays.length})</h2>
+      </summary>
+      <p className="muted">
+        W = m_test / m_ref (realised Malthusian parameters), interval from counting noise
+        (bootstrap, 95%); r per day = (m_test − m_ref) / days, ± its counting SE.
+      </p>
+      <div className="table-wrap">
+        <table className="results num" data-testid="assay-results">
+          <thead>
+            <tr>
+              <th>Assay</th>
+              <th>W</th>
+              <th>95% CI</th>
+              <th>r/day ± SE</th>
+              <th>Flags</th>
+            </tr>
+          </thead>
+          <tbody>
+            {analysis.assays.map((x) => (
+              <tr key={x.assay} data-testid={`result-${x.assay}`}>
+                <td>{x.assay}</td>
+                <td data-testid="W">{fixed3(x.W)}</td>
+                <td>{interval(x.W_ci)}</td>
+                <td>
+                  {fixed3(x.rPerDay)} ± {fixed3(x.countingSe.r / x.days)}
+                </td>
+                <td style={{ textAlign: 'left' }}>
+                  {x.flags.map((fl) => (
+                    <span key={fl.code} className="flag" title={fl.message}>
+                      {fl.code}
+                    </span>
+                  ))}
+                  {imageFlags.get(x.assay)?.map((fl) => (
+                    <span
+                      key={fl.plate + fl.kind}
+                      className="flag"
+                      title={`${fl.plate}: ${fl.detail}`}
+                    >
+                      {fl.kind}
+                    </span>
+                  ))}
+                </td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      </div>
+      {flagged && (
+        <details>
+          <summary>What the flags say</summary>
+          <ul className="muted">
+            {analysis.assays.flatMap((x) => [
+              ...x.flags.map((fl) => (
+                <li key={`${x.assay}-${fl.code}`}>
+                  {x.assay}: {fl.message}
+                </li>
+              )),
+              ...(imageFlags.get(x.assay) ?? []).map((fl) => (
+                <li key={`${fl.plate}-${fl.kind}`}>
+                  {fl.plate}: {fl.detail}
+                </li>
+              )),
+            ])}
+          </ul>
+        </details>
+      )}
+    </details>
+  );
+}

@@ -1,0 +1,59 @@
+import type { Analysis } from '../../fitness/analysis.ts';
+import { fixed3, interval, pValue } from '../results/format.ts';
+
+/** Replicate groups, the marker effect when there are marker controls, and the group comparison. */
+export function GroupResults({ analysis }: { analysis: Analysis }) {
+  const m = analysis.markerEffect;
+  const c = analysis.comparison;
+  return (
+    <section className="card" aria-label="Groups">
+      <h2>Replicate groups</h2>
+      <div className="table-wrap">
+        <table className="results num">
+          <thead>
+            <tr>
+              <th>Group</th>
+              <th>n</th>
+              <th>mean W</th>
+              <th>SD</th>
+              <th>95% CI (t)</th>
+              <th>p (W = 1)</th>
+              <th>mean r</th>
+              <th>p (r = 0)</th>
+            </tr>
+          </thead>
+          <tbody>
+            {analysis.groups.map((g) => (
+              <tr key={g.group}>
+                <td>{g.group}</td>
+                <td>{g.W.n}</td>
+                <td>{fixed3(g.W.mean)}</td>
+                <td>{fixed3(g.W.sd)}</td>
+                <td>{interval(g.W.ci)}</td>
+                <td>{pValue(g.W_vs_1?.p)}</td>
+                <td>{fixed3(g.r.mean)}</td>
+                <td>{pValue(g.r_vs_0?.p)}</td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      </div>
+      <p className="muted">Two-sided one-sample t-tests; intervals from Student's t.</p>
+      {m && (
+        <p data-testid="marker-effect">
+          <b>Marker effect</b> ({m.group}, n = {m.n}): mean W {fixed3(m.W.mean)}, 95% CI{' '}
+          {interval(m.W.ci)}, p (W = 1) {pValue(m.W_vs_1?.p)}.{' '}
+          {m.applied
+            ? 'The other assays were corrected by it.'
+            : 'Not applied to the other assays.'}
+        </p>
+      )}
+      {c?.W && (
+        <p>
+          <b>{c.test === 'welch' ? "Welch's t-test" : 'One-way ANOVA'}</b> of W across{' '}
+          {c.groups.length} groups: p = {pValue(c.W.p)}.
+        </p>
+      )}
+    </section>
+  );
+}
