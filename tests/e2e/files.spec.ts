@@ -37,3 +37,36 @@ test('a plate CSV is imported into an experiment and its fitness computed; a bad
   await expect(page.getByTestId('marker-effect')).toContainText('marker-control, n = 4');
   await shot(page, '50-imported-fitness');
 });
+
+test('a file that is not a photo, or an empty one, gets a message naming it and nothing breaks', async ({
+  page,
+}) => {
+  await openApp(page);
+  await page.getByRole('button', { name: 'New experiment' }).tap();
+  await page.getByLabel('Experiment name').fill('Bad files');
+  await page.getByRole('button', { name: 'Create experiment' }).tap();
+  await page.getByRole('button', { name: 'Save assay' }).tap();
+  await page.getByRole('link', { name: 'Photo of start plate' }).tap();
+  await page.getByTestId('file-input').setInputFiles({
+    name: 'notes.jpg',
+    mimeType: 'image/jpeg',
+    buffer: Buffer.from('plate 3: 120 blue, 80 cream'),
+  });
+  await expect(page.getByRole('alert')).toContainText(
+    'notes.jpg: not a picture this browser can read',
+  );
+  await page.getByText('Replace the photo').tap();
+  await page
+    .getByTestId('file-input')
+    .last()
+    .setInputFiles({ name: 'empty.jpg', mimeType: 'image/jpeg', buffer: Buffer.alloc(0) });
+  await expect(page.getByRole('alert')).toContainText('empty.jpg: the file is empty');
+  await shot(page, '51-bad-photo');
+  // The app still works: a real photo after the bad ones is read.
+  await page.getByText('Replace the photo').tap();
+  await page
+    .getByTestId('file-input')
+    .last()
+    .setInputFiles(resolve(ROOT, 'fixtures/demo/marrowfield-L2-day0.jpg'));
+  await expect(page.getByTestId('tally')).toBeVisible({ timeout: 60_000 });
+});
