@@ -1,5 +1,5 @@
 import { useState } from 'react';
-import type { ClassIndex, ColonyRecord, DishRecord } from '../../schema/records.ts';
+import type { DishRecord } from '../../schema/records.ts';
 import { teachColours } from '../analysis/teach.ts';
 import { useServices } from '../app/services.ts';
 import { useObjectUrl } from '../app/use-object-url.ts';
@@ -14,15 +14,11 @@ import {
   editForTap,
   type TapTool,
 } from '../review/edits.ts';
+import type { Tool } from '../review/tool.ts';
 import { useCorrections } from '../review/use-corrections.ts';
 import { revised } from '../storage/stamp.ts';
 import { ReviewView } from './ReviewView.tsx';
-
-type Tool =
-  | { kind: 'add'; cls: ClassIndex }
-  | { kind: 'remove' }
-  | { kind: 'switch' }
-  | { kind: 'teach'; first: ColonyRecord | null };
+import { TallyBar } from './TallyBar.tsx';
 
 export function ReviewPanel({
   data,
@@ -47,6 +43,18 @@ export function ReviewPanel({
     : [analysis.classes[0], analysis.classes[1]];
   const colonies = correctedColonies(analysis.colonies, corr.stack.edits);
   const counts = countsByClass(colonies);
+
+  const savePicture = () =>
+    annotatedPng(preview, analysis.width, colonies, looks, counts)
+      .then((b) =>
+        saveBlob(
+          b,
+          `${assay.line}-g${assay.generation}-r${assay.replicate}-${data.sample.timepoint}-${plate.dilutionFold}.png`,
+        ),
+      )
+      .catch((e: unknown) =>
+        setMessage(`Picture not saved: ${e instanceof Error ? e.message : String(e)}`),
+      );
 
   function tap(x: number, y: number, slack: number) {
     setMessage(null);
@@ -85,18 +93,6 @@ export function ReviewPanel({
       );
   }
 
-  const toolButton = (t: Tool, label: React.ReactNode, testId: string) => (
-    <button
-      type="button"
-      className="btn"
-      data-testid={testId}
-      aria-pressed={JSON.stringify(tool) === JSON.stringify(t)}
-      onClick={() => setTool(t)}
-    >
-      {label}
-    </button>
-  );
-
   return (
     <>
       {analysis.flags.length > 0 && (
@@ -126,99 +122,35 @@ export function ReviewPanel({
         </p>
       )}
       {corr.saveError && <p className="banner alarm">{corr.saveError}</p>}
-      <div className="tally">
-        <div className="counts num" data-testid="tally">
-          {looks.map((l, i) => (
-            <span key={l.name} data-testid={`count-${i}`}>
-              <span className="dot" style={{ background: l.hex }} /> {l.name}{' '}
-              <span data-testid={`count-${i}-value`}>{counts[i as 0 | 1]}</span>
-              <span className="muted"> {assay.testClass === i ? 'test' : 'ref'}</span>
-            </span>
-          ))}
-        </div>
-        <div className="toolbar">
-          {toolButton(
-            { kind: 'add', cls: 0 },
-            <>
-              + <span className="dot" style={{ background: looks[0].hex }} />
-            </>,
-            'tool-add-0',
-          )}
-          {toolButton(
-            { kind: 'add', cls: 1 },
-            <>
-              + <span className="dot" style={{ background: looks[1].hex }} />
-            </>,
-            'tool-add-1',
-          )}
-          {toolButton({ kind: 'remove' }, 'Remove', 'tool-remove')}
-          {toolButton({ kind: 'switch' }, 'Switch', 'tool-switch')}
-          <button
-            type="button"
-            className="btn quiet"
-            onClick={corr.undo}
-            disabled={!corr.stack.edits.length}
-            data-testid="undo"
-          >
-            Undo
+      <TallyBar
+        looks={looks}
+        counts={counts}
+        testClass={assay.testClass}
+        tool={tool}
+        onTool={setTool}
+        canUndo={corr.stack.edits.length > 0}
+        canRedo={corr.stack.undone.length > 0}
+        onUndo={corr.undo}
+        onRedo={corr.redo}
+      >
+        <button
+          type="button"
+          className="btn primary"
+          data-testid="mark-checked"
+          disabled={plate.reviewed}
+          onClick={() => void store.put('plates', revised(plate, { reviewed: true }))}
+        >
+          {plate.reviewed ? 'Checked ✓' : 'Mark checked'}
+        </button>
+        {movedDish && (
+          <button type="button" className="btn" disabled={busy} onClick={() => onReread(movedDish)}>
+            Re-read inside the moved dish
           </button>
-        </div>
-        <div className="row">
-          <button
-            type="button"
-            className="btn quiet"
-            onClick={corr.redo}
-            disabled={!corr.stack.undone.length}
-            data-testid="redo"
-          >
-            Redo
-          </button>
-          <button
-            type="button"
-            className="btn primary"
-            data-testid="mark-checked"
-            disabled={plate.reviewed}
-            onClick={() => void store.put('plates', revised(plate, { reviewed: true }))}
-          >
-            {plate.reviewed ? 'Checked ✓' : 'Mark checked'}
-          </button>
-          {movedDish && (
-            <button
-              type="button"
-              className="btn"
-              disabled={busy}
-              onClick={() => onReread(movedDish)}
-            >
-              Re-read inside the moved dish
-            </button>
-          )}
-          {toolButton({ kind: 'teach', first: null }, 'Teach colours', 'tool-teach')}
-          <button
-            type="button"
-            className="btn quiet"
-            onClick={() =>
-              void annotatedPng(preview, analysis.width, colonies, looks, counts).then((b) =>
-                saveBlob(
-                  b,
-                  `${assay.line}-g${assay.generation}-r${assay.replicate}-${data.sample.timepoint}-${plate.dilutionFold}.png`,
-                ),
-              )
-            }
-          >
-            Save picture
-          </button>
-        </div>
-        <p className="muted" style={{ margin: 0 }}>
-          {tool.kind === 'add' && 'Tap empty agar to add a colony of the chosen colour.'}
-          {tool.kind === 'remove' && 'Tap a colony to remove it.'}
-          {tool.kind === 'switch' && 'Tap a colony to switch its colour.'}
-          {tool.kind === 'teach' &&
-            (tool.first
-              ? 'Now a colony of the other colour.'
-              : 'Tap one colony of either colour.')}{' '}
-          Pinch to zoom; drag the dish's handles to move it.
-        </p>
-      </div>
+        )}
+        <button type="button" className="btn quiet" onClick={savePicture}>
+          Save picture
+        </button>
+      </TallyBar>
     </>
   );
 }
