@@ -19,6 +19,7 @@ const GENERATIONS = [500, 1000, 2000];
 const GAIN = [0.32, 0.25, 0.4, 0.18, 0.29, 0.36];
 const DILUTION = 100_000;
 const TRANSFER = 100;
+const END_VOLUME_UL = 50;
 
 export interface DemoSeed {
   batch: RecordBatch;
@@ -75,15 +76,18 @@ export function demoSeed(photoNames: readonly string[]): DemoSeed {
           volumeUl: 100,
         });
         // Reference grows 100-fold a day and is diluted 100-fold: its density comes back; the
-        // test line grows 100^W-fold, so its end count is the start count × 100^(W − 1).
+        // test line grows 100^W-fold, so its end density is the start density × 100^(W − 1).
+        // The end plates take half the volume, as a lab would to keep the fitter line's plate
+        // countable.
         const W = 1 + (GAIN[li]! * generation) / (generation + 800);
         a.plates[0].typedCounts = {
           test: poissonDraw(105, uniform),
           reference: poissonDraw(100, uniform),
         };
+        a.plates[1].volumeUl = END_VOLUME_UL;
         a.plates[1].typedCounts = {
-          test: poissonDraw(105 * TRANSFER ** (W - 1), uniform),
-          reference: poissonDraw(100, uniform),
+          test: poissonDraw(52.5 * TRANSFER ** (W - 1), uniform),
+          reference: poissonDraw(50, uniform),
         };
         assays.push(a);
       }
