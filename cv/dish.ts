@@ -227,16 +227,17 @@ function fitEllipseTo(cv: OpenCv, keep: Keep, points: [number, number][]): Ellip
   };
 }
 
-/** Distance of a point from the ellipse boundary, measured along its ray from the centre. */
-export function ellipseResidual(
-  e: { cx: number; cy: number; rx: number; ry: number; angleDeg: number },
-  [x, y]: [number, number],
-): number {
+/** A point in the ellipse's own frame: u along rx, v along ry, origin at the centre. */
+function ellipseFrame(e: Ellipse, x: number, y: number): [number, number] {
   const a = (e.angleDeg * Math.PI) / 180;
   const dx = x - e.cx;
   const dy = y - e.cy;
-  const u = dx * Math.cos(a) + dy * Math.sin(a);
-  const v = -dx * Math.sin(a) + dy * Math.cos(a);
+  return [dx * Math.cos(a) + dy * Math.sin(a), -dx * Math.sin(a) + dy * Math.cos(a)];
+}
+
+/** Distance of a point from the ellipse boundary, measured along its ray from the centre. */
+export function ellipseResidual(e: Ellipse, [x, y]: [number, number]): number {
+  const [u, v] = ellipseFrame(e, x, y);
   const dist = Math.hypot(u, v);
   if (dist === 0) return Math.min(e.rx, e.ry);
   const boundary = 1 / Math.sqrt((u / dist / e.rx) ** 2 + (v / dist / e.ry) ** 2);
@@ -244,15 +245,7 @@ export function ellipseResidual(
 }
 
 /** Normalised radius of a point in the ellipse (1 on the boundary). */
-export function ellipseRadius(
-  e: { cx: number; cy: number; rx: number; ry: number; angleDeg: number },
-  x: number,
-  y: number,
-): number {
-  const a = (e.angleDeg * Math.PI) / 180;
-  const dx = x - e.cx;
-  const dy = y - e.cy;
-  const u = dx * Math.cos(a) + dy * Math.sin(a);
-  const v = -dx * Math.sin(a) + dy * Math.cos(a);
+export function ellipseRadius(e: Ellipse, x: number, y: number): number {
+  const [u, v] = ellipseFrame(e, x, y);
   return Math.sqrt((u / e.rx) ** 2 + (v / e.ry) ** 2);
 }

@@ -1,22 +1,10 @@
 import type { AnalysedAssay, Analysis } from '../../fitness/analysis.ts';
 import type { AssayInput } from '../../fitness/competition.ts';
+import { REQUIRED_COLUMNS } from '../../fitness/competition-csv.ts';
 import { toCsv } from './csv-write.ts';
 
 /** The fitness engine's tidy CSV (README "Fitness from a CSV"): one row per counted plate. */
-export const PLATE_COLUMNS = [
-  'assay',
-  'group',
-  'line',
-  'generation',
-  'replicate',
-  'sample',
-  'dilution_fold',
-  'volume_ul',
-  'test_colonies',
-  'reference_colonies',
-  'fold_dilution_since_start',
-  'days',
-] as const;
+export const PLATE_COLUMNS = [...REQUIRED_COLUMNS, 'days'] as const;
 
 export function platesCsv(inputs: readonly AssayInput[]): string {
   const rows = inputs.flatMap((a) =>
