@@ -1,4 +1,4 @@
-import type { AnalyzeOptions, Dish, PlateAnalysis } from '../cv/types.ts';
+import type { AnalyzeOptions, PlateAnalysis } from '../cv/types.ts';
 
 /**
  * The worker analyses a decoded copy at most WORKING_MAX_SIDE pixels long; the app keeps every
@@ -40,5 +40,3 @@ type GivenDish = NonNullable<AnalyzeOptions['dish']>;
 export function dishToDecoded(d: GivenDish, k: number): GivenDish {
   return { cx: d.cx / k, cy: d.cy / k, rx: d.rx / k, ry: d.ry / k, angleDeg: d.angleDeg };
 }
-
-export type { Dish };

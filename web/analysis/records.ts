@@ -9,7 +9,7 @@ import type {
 import type { Colony, Palette, PlateAnalysis, QualityFlag } from '../../worker/types.ts';
 
 /** Words for the image-quality flags, shown beside the counts they concern. */
-export function flagText(flag: QualityFlag): FlagRecord {
+function flagText(flag: QualityFlag): FlagRecord {
   switch (flag.kind) {
     case 'dish-not-found':
       return {

@@ -11,7 +11,7 @@ import type { RecordBatch } from '../storage/record-store.ts';
  * from a seeded Poisson model of an invented fitness gain per line, so the demo is the same on
  * every device and every number in it is visibly demo data.
  */
-export const DEMO_NAME = 'Marrowfield pond project (demo)';
+const DEMO_NAME = 'Marrowfield pond project (demo)';
 
 const LINES = ['L1', 'L2', 'L3', 'L4', 'L5', 'L6'];
 const GENERATIONS = [500, 1000, 2000];
@@ -36,7 +36,7 @@ const PHOTO_GENERATION = 2000;
  * "marrowfield-L2-day0.jpg" shows line L2's start plate (day 0), "…-day1-….jpg" its end plate.
  * Names that do not follow the pattern are left out.
  */
-export function plateForPhoto(name: string, assays: readonly NewAssay[]): Plate | null {
+function plateForPhoto(name: string, assays: readonly NewAssay[]): Plate | null {
   const m = /-(L\d+)-day([01])\b/.exec(name);
   if (!m) return null;
   const a = assays.find(

@@ -4,7 +4,7 @@ import { REQUIRED_COLUMNS } from '../../fitness/competition-csv.ts';
 import { toCsv } from './csv-write.ts';
 
 /** The fitness engine's tidy CSV (README "Fitness from a CSV"): one row per counted plate. */
-export const PLATE_COLUMNS = [...REQUIRED_COLUMNS, 'days'] as const;
+const PLATE_COLUMNS = [...REQUIRED_COLUMNS, 'days'] as const;
 
 export function platesCsv(inputs: readonly AssayInput[]): string {
   const rows = inputs.flatMap((a) =>
@@ -29,7 +29,7 @@ export function platesCsv(inputs: readonly AssayInput[]): string {
   return toCsv(PLATE_COLUMNS, rows);
 }
 
-export const RESULT_COLUMNS = [
+const RESULT_COLUMNS = [
   'assay',
   'group',
   'line',

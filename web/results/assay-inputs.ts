@@ -3,7 +3,7 @@ import type { Assay } from '../../schema/records.ts';
 import type { ExperimentData } from '../bench/experiment-data.ts';
 import { plateCount } from '../bench/plate-counts.ts';
 
-export function assayLabel(a: Assay): string {
+function assayLabel(a: Assay): string {
   return `${a.line} g${a.generation} r${a.replicate}`;
 }
 

@@ -99,7 +99,7 @@ export function editForTap(
 }
 
 /** Median colony radius, or null on an empty plate. */
-export function typicalRadius(colonies: readonly ColonyRecord[]): number | null {
+function typicalRadius(colonies: readonly ColonyRecord[]): number | null {
   if (colonies.length === 0) return null;
   const r = colonies.map((c) => c.r).sort((a, b) => a - b);
   return r[Math.floor(r.length / 2)]!;
