@@ -21,8 +21,8 @@ import type { ComponentStats, RegionStats } from './measure.ts';
  * - Grey shades: regions darker than the agar with hardly any colour of their own (the soft edge
  *   of an ink stroke, the shadowed side of a droplet, the dim rim round lid glare). A colony is
  *   either lighter than the agar (pale, white, cream) or coloured; a grey shade is neither.
- * - Wall glints: blobs on the rim of the counting area that are thinner than half a typical
- *   colony, and regions within WALL_ZONE_MM of the wall smaller than a third of a typical colony.
+ * - Wall glints: blobs on the rim of the counting area thinner than WALL_THINNESS typical colony
+ *   radii, and regions within WALL_ZONE_MM of the wall smaller than a third of a typical colony.
  *   Reflections and the wall's inner face show as thin arcs and crumbs there; a colony growing
  *   against the wall is as thick as any other and is kept.
  * - Clumps: a region the watershed could not split, recognised by not being round: its area is
@@ -52,7 +52,7 @@ const INK_CHROMA = 12;
 /** A grey shade: darker than the agar and within this colour difference of it in a*, b*. */
 const GREY_SHADE_CHROMA = 6;
 const CLUMP_ELONGATION = 2.0;
-const WALL_THINNESS = 0.5;
+const WALL_THINNESS = 0.35;
 export const WALL_ZONE_MM = 1.2;
 const WALL_CRUMB = 0.35;
 
@@ -86,7 +86,10 @@ export function selectCandidates(
     if (v !== 'keep') rejected[v]++;
   }
   const kept = regions.filter((r) => {
-    if (verdict.get(r.component) !== 'keep' || r.area < minArea) return false;
+    const v = verdict.get(r.component);
+    // A colony touching a pen stroke shares its blob; it is as thick as a colony, the stroke is not.
+    const fatInStroke = v === 'strokes' && r.halfWidth >= STROKE_THINNESS * typicalRadius;
+    if ((v !== 'keep' && !fatInStroke) || r.area < minArea) return false;
     // A region no different from the agar on average is agar enclosed by something else (the
     // inside of a pen letter, a filled ring) or a fringe of ringing round a dark colony, whose
     // pixels stray both ways: its mean colour must differ from the agar as much as its pixels do.

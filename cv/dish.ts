@@ -16,10 +16,12 @@ import type { Dish } from './types.ts';
 const PREVIEW_SIDE = 640;
 const RAYS = 120;
 /**
- * Share of the agar radius where colonies are counted: a band of about 0.7 mm next to the wall is
- * left out, where the wall's reflections and its inner face show.
+ * Share of the agar radius where colonies are counted. The edge found is the agar's own (the
+ * wall starts there), so the whole agar counts; what the wall throws onto the agar next to it
+ * (glints, the wall's inner face, crumbs) is rejected by the wall-zone rules in candidates.ts,
+ * which keep a colony growing against the wall.
  */
-export const AGAR_FRACTION = 0.995;
+export const AGAR_FRACTION = 1;
 
 export function detectDish(cv: OpenCv, rgba: Mat): Dish | null {
   return withMats((keep) => {
