@@ -60,23 +60,26 @@ export async function readPlate(
   if (!palette && !result.analysis.flags.some((f) => f.kind === 'one-colour')) {
     learned = await worker.call((api) => api.learnPalette([result.analysis]), options.signal);
   }
-  await store.putBatch(
-    {
-      photos: [
-        revised(photo, {
-          preview: result.preview,
-          width: result.analysis.width,
-          height: result.analysis.height,
-        }),
-      ],
-      analyses: [analysis],
-      plates: [revised(plate, { reviewed: false })],
-      ...(learned && {
-        experiments: [revised(experiment, { palette: paletteRecord(learned, 'learned') })],
+  await store.putBatch({
+    photos: [
+      revised(photo, {
+        preview: result.preview,
+        width: result.analysis.width,
+        height: result.analysis.height,
       }),
-    },
-    { analyses: old.map((a) => a.id), corrections: oldCorrections.map((c) => c.id) },
-  );
+    ],
+    analyses: [analysis],
+    plates: [revised(plate, { reviewed: false })],
+    ...(learned && {
+      experiments: [revised(experiment, { palette: paletteRecord(learned, 'learned') })],
+    }),
+  });
+  // The old reading goes only once the new one is stored: a crash in between leaves an extra
+  // analysis (the newest is the one shown), never a plate without one.
+  await store.remove({
+    analyses: old.map((a) => a.id),
+    corrections: oldCorrections.map((c) => c.id),
+  });
   return analysis;
 }
 

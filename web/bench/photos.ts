@@ -4,7 +4,7 @@ import { newStamp, revised } from '../storage/stamp.ts';
 
 /**
  * Keeps a new photo of a plate as soon as it is taken, before any analysis, so it survives the
- * tab closing. A plate's earlier photo, its analyses and corrections go in the same transaction.
+ * tab closing. The plate's earlier photo, its analyses and corrections are then deleted.
  */
 export async function attachPhoto(
   store: RecordStore,
@@ -26,13 +26,13 @@ export async function attachPhoto(
     store.children('corrections', plate.id),
   ]);
   const updated = revised(plate, { photoId: photo.id, typedCounts: null, reviewed: false });
-  await store.putBatch(
-    { photos: [photo], plates: [updated] },
-    {
-      photos: plate.photoId ? [plate.photoId] : [],
-      analyses: analyses.map((a) => a.id),
-      corrections: corrections.map((c) => c.id),
-    },
-  );
+  await store.putBatch({ photos: [photo], plates: [updated] });
+  // The earlier photo and its readings go once the new one is stored: a crash in between
+  // leaves them orphaned, never the plate pointing at nothing.
+  await store.remove({
+    photos: plate.photoId ? [plate.photoId] : [],
+    analyses: analyses.map((a) => a.id),
+    corrections: corrections.map((c) => c.id),
+  });
   return { plate: updated, photo };
 }

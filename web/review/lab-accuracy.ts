@@ -12,7 +12,9 @@ export async function labAccuracy(store: RecordStore): Promise<CountAccuracy | n
   const reviewed: ReviewedPlate[] = [];
   for (const plate of plates) {
     if (!plate.reviewed || !plate.photoId || demo.has(plate.experimentId)) continue;
-    const analysis = (await store.children('analyses', plate.id)).at(-1);
+    const analysis = (await store.children('analyses', plate.id))
+      .sort((a, b) => a.updatedAt.localeCompare(b.updatedAt))
+      .at(-1);
     if (!analysis) continue;
     const corrections = (await store.children('corrections', plate.id)).find(
       (c) => c.analysisId === analysis.id,

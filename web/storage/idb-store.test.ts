@@ -85,6 +85,16 @@ describe('IndexedDB record store', () => {
     expect(await store.all('experiments')).toEqual([]);
   });
 
+  it('removes the records named, of several kinds at once, and leaves the rest', async () => {
+    const store = await freshStore();
+    const e = experiment();
+    const [a1, a2] = [assay(e.id, 'L1'), assay(e.id, 'L2')];
+    await store.putBatch({ experiments: [e], assays: [a1, a2] });
+    await store.remove({ experiments: [e.id], assays: [a1.id] });
+    expect(await store.all('experiments')).toEqual([]);
+    expect((await store.all('assays')).map((a) => a.id)).toEqual([a2.id]);
+  });
+
   it('reports a stored record that fails the restore gate instead of returning it', async () => {
     const store = await freshStore();
     const bad = { ...assay('e1', 'L1'), foldDilutionSinceStart: -5 };

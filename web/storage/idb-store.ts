@@ -2,7 +2,7 @@ import { type IDBPDatabase, openDB } from 'idb';
 import { KINDS, RECORD_KINDS } from '../../schema/kinds.ts';
 import type { RecordKind, RecordsByKind } from '../../schema/records.ts';
 import { restoreRecord } from '../../schema/restore.ts';
-import type { RecordStore } from './record-store.ts';
+import type { RecordBatch, RecordIds, RecordStore } from './record-store.ts';
 
 const DB_VERSION = 1;
 const PARENT_INDEX = 'byParent';
@@ -40,37 +40,38 @@ export async function openIdbStore(name = 'rivalplate'): Promise<RecordStore> {
     return out;
   }
 
-  const store: RecordStore = {
+  /** One transaction over every kind touched. */
+  async function write(batch: RecordBatch, remove: RecordIds): Promise<void> {
+    const kinds = RECORD_KINDS.filter((k) => batch[k]?.length || remove[k]?.length);
+    if (kinds.length === 0) return;
+    const tx = db.transaction(kinds, 'readwrite');
+    const requests: Promise<unknown>[] = [];
+    try {
+      for (const k of kinds) {
+        for (const id of remove[k] ?? []) requests.push(tx.objectStore(k).delete(id));
+        for (const r of batch[k] ?? []) requests.push(tx.objectStore(k).put(r));
+      }
+    } catch (e) {
+      // A put can throw at once (a record without its key); that alone does not abort the
+      // transaction, so the records before it would commit. Abort so a batch is all or nothing;
+      // the aborted requests' rejections are expected and consumed here.
+      tx.abort();
+      await Promise.allSettled([...requests, tx.done]);
+      throw e;
+    }
+    await Promise.all([...requests, tx.done]);
+    changed();
+  }
+
+  return {
     problems,
     async put(kind, record) {
       const tx = db.transaction(kind, 'readwrite');
       await Promise.all([tx.store.put(record), tx.done]);
       changed();
     },
-    async putBatch(batch, remove = {}) {
-      const kinds = RECORD_KINDS.filter((k) => batch[k]?.length || remove[k]?.length);
-      if (kinds.length === 0) return;
-      const tx = db.transaction(kinds, 'readwrite');
-      const requests: Promise<unknown>[] = [];
-      try {
-        for (const k of kinds) {
-          for (const id of remove[k] ?? []) requests.push(tx.objectStore(k).delete(id));
-          for (const r of batch[k] ?? []) requests.push(tx.objectStore(k).put(r));
-        }
-      } catch (e) {
-        // A put can throw at once (a record without its key); that alone does not abort the
-        // transaction, so the records before it would commit. Abort so a batch is all or nothing;
-        // the aborted requests' rejections are expected and consumed here.
-        tx.abort();
-        await Promise.allSettled([...requests, tx.done]);
-        throw e;
-      }
-      await Promise.all([...requests, tx.done]);
-      changed();
-    },
-    remove(ids) {
-      return store.putBatch({}, ids);
-    },
+    putBatch: (batch) => write(batch, {}),
+    remove: (ids) => write({}, ids),
     async get(kind, id) {
       const raw = await db.get(kind, id);
       return raw === undefined ? undefined : restored(kind, [raw])[0];
@@ -86,5 +87,4 @@ export async function openIdbStore(name = 'rivalplate'): Promise<RecordStore> {
       return () => listeners.delete(listener);
     },
   };
-  return store;
 }

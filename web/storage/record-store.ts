@@ -13,8 +13,9 @@ export type RecordIds = { [K in RecordKind]?: string[] };
  */
 export interface RecordStore {
   put<K extends RecordKind>(kind: K, record: RecordsByKind[K]): Promise<void>;
-  /** Writes `batch` and deletes the records named in `remove`, all in one transaction. */
-  putBatch(batch: RecordBatch, remove?: RecordIds): Promise<void>;
+  /** Writes every record of `batch` in one transaction: all of them or none. */
+  putBatch(batch: RecordBatch): Promise<void>;
+  /** Deletes the records named, in one transaction. */
   remove(ids: RecordIds): Promise<void>;
   get<K extends RecordKind>(kind: K, id: string): Promise<RecordsByKind[K] | undefined>;
   /** Records whose parent field (see schema KINDS) holds `parentId`. */
