@@ -23,8 +23,9 @@ import type { Dish, Lab } from './types.ts';
  *    counting and reported.
  */
 export interface AgarModel {
-  lab: Mat;
-  background: Mat;
+  /** The image and its background in opencv's 8-bit Lab (see lab8ToLab). */
+  lab8: Mat;
+  background8: Mat;
   deltaE: Mat;
   countMask: Mat;
   /** The outermost pixels of the counting area, next to the dish wall (8-bit 0/255). */
@@ -46,17 +47,19 @@ export function modelAgar(
   const agarMask = keep(ellipseMask(cv, rgb.rows, rgb.cols, dish, dish.agarFraction));
   const lab8 = keep(new cv.Mat());
   cv.cvtColor(rgb, lab8, cv.COLOR_RGB2Lab);
-  const lab = keep(labToFloat(cv, lab8));
 
   const quarter = keep(quarterAgar(cv, lab8, agarMask));
   const glare = keep(glareMask(cv, quarter, agarMask, frame));
   const agarArea = Math.max(1, cv.countNonZero(agarMask));
   const glareFraction = cv.countNonZero(glare) / agarArea;
 
-  const background = keep(
+  const background8 = keep(
     medianBackground(cv, quarter, { width: rgb.cols, height: rgb.rows }, frame),
   );
-  const deltaE = keep(labDistance(cv, lab, background));
+  // The float planes live only as long as the distance takes: 16 MB each at 1.3 MP.
+  const deltaE = keep(
+    withMats((k) => labDistance(cv, k(labToFloat(cv, lab8)), k(labToFloat(cv, background8)))),
+  );
 
   const countMask = keep(new cv.Mat());
   const notGlare = keep(new cv.Mat());
@@ -64,10 +67,10 @@ export function modelAgar(
   cv.bitwise_and(agarMask, notGlare, countMask);
 
   const rim = keep(rimOf(cv, agarMask));
-  const centre = background.data32F;
-  const ci = (Math.round(dish.cy) * background.cols + Math.round(dish.cx)) * 3;
-  const agarLab: Lab = [centre[ci] ?? 0, centre[ci + 1] ?? 0, centre[ci + 2] ?? 0];
-  return { lab, background, deltaE, countMask, rim, glareFraction, agarLab };
+  const centre = background8.data;
+  const ci = (Math.round(dish.cy) * background8.cols + Math.round(dish.cx)) * 3;
+  const agarLab = lab8ToLab(centre[ci] ?? 0, centre[ci + 1] ?? 128, centre[ci + 2] ?? 128);
+  return { lab8, background8, deltaE, countMask, rim, glareFraction, agarLab };
 }
 
 /** An 8-bit 0/255 mask of the dish ellipse scaled by `fraction`. */
@@ -105,6 +108,11 @@ function rimOf(cv: OpenCv, mask: Mat): Mat {
     cv.subtract(mask, inner, rim);
     return rim;
   });
+}
+
+/** One pixel of opencv's 8-bit Lab (L*·255/100, a*+128, b*+128) in real units. */
+export function lab8ToLab(l: number, a: number, b: number): Lab {
+  return [(l * 100) / 255, a - 128, b - 128];
 }
 
 /** opencv's 8-bit Lab stores L*·255/100, a*+128, b*+128; this undoes that into real units. */
@@ -166,9 +174,9 @@ function medianBackground(cv: OpenCv, quarter: Mat, full: Size, frame: WorkingFr
     first.copyTo(cleaned, colony);
     const median = keep(new cv.Mat());
     cv.medianBlur(cleaned, median, k);
-    const up = keep(new cv.Mat());
+    const up = new cv.Mat();
     cv.resize(median, up, new cv.Size(full.width, full.height), 0, 0, cv.INTER_LINEAR);
-    return labToFloat(cv, up);
+    return up;
   });
 }
 

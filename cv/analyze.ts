@@ -96,8 +96,8 @@ function runPipeline(
     split.components,
     split.componentCount,
     split.distance,
-    agar.lab,
-    agar.background,
+    agar.lab8,
+    agar.background8,
     agar.deltaE,
     agar.rim,
   );

@@ -1,3 +1,4 @@
+import { lab8ToLab } from './agar.ts';
 import type { Mat } from './opencv.ts';
 import type { Lab } from './types.ts';
 
@@ -38,8 +39,8 @@ export function measureRegions(
   components: Mat,
   componentCount: number,
   distance: Mat,
-  lab: Mat,
-  background: Mat,
+  lab8: Mat,
+  background8: Mat,
   deltaE: Mat,
   rim: Mat,
 ): { regions: RegionStats[]; components: ComponentStats[] } {
@@ -60,8 +61,8 @@ export function measureRegions(
   const r = regions.data32S;
   const c = components.data32S;
   const d = distance.data32F;
-  const L = lab.data32F;
-  const B = background.data32F;
+  const L = lab8.data;
+  const B = background8.data;
   const E = deltaE.data32F;
   const w = regions.cols;
   for (let i = 0; i < r.length; i++) {
@@ -96,8 +97,9 @@ export function measureRegions(
       area: a,
       x: sx[id]! / a + 0.5,
       y: sy[id]! / a + 0.5,
-      lab: [sLab[3 * id]! / a, sLab[3 * id + 1]! / a, sLab[3 * id + 2]! / a],
-      backgroundLab: [sBg[3 * id]! / a, sBg[3 * id + 1]! / a, sBg[3 * id + 2]! / a],
+      // The 8-bit encoding is linear, so the mean of the codes decodes to the mean colour.
+      lab: lab8ToLab(sLab[3 * id]! / a, sLab[3 * id + 1]! / a, sLab[3 * id + 2]! / a),
+      backgroundLab: lab8ToLab(sBg[3 * id]! / a, sBg[3 * id + 1]! / a, sBg[3 * id + 2]! / a),
       contrast: sDe[id]! / a,
       halfWidth: rHalf[id]!,
       component: comp[id]!,

@@ -12,7 +12,7 @@ import { writePlate } from '../../fixtures/plate-files.ts';
 import { generatePlate } from '../../fixtures/plate-generator.ts';
 
 const OUT = resolve(import.meta.dirname, '../../bench/out');
-const RUNNER = resolve(import.meta.dirname, 'plate-bench-run.ts');
+const RUNNER = resolve(import.meta.dirname, 'plate-bench-child.js');
 const SIZES = [
   { name: '12 MP', width: 4000, height: 3000 },
   { name: '3 MP', width: 2000, height: 1500 },
@@ -34,7 +34,7 @@ for (const size of SIZES) {
   const file = join(OUT, `plate-${size.width}x${size.height}.png`);
   const plate = generatePlate({ seed: 12, width: size.width, height: size.height, colonies: 200 });
   await writePlate(plate, file, { format: 'png' });
-  const output = execFileSync(process.execPath, ['--import', 'tsx', RUNNER, file], {
+  const output = execFileSync(process.execPath, [RUNNER, file], {
     encoding: 'utf8',
   });
   const r = JSON.parse(output.trim().split('\n').at(-1)!) as RunResult;
