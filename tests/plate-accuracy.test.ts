@@ -112,14 +112,14 @@ describe('plates that hold one colour or none', () => {
 });
 
 describe('dense plates (450–700 colonies)', () => {
-  it('reports its count error honestly: printed, and within 25 %', async () => {
+  it('reports its count error honestly: printed, and within 10 %', async () => {
     for (const colonies of [450, 700]) {
       const r = await run({ seed: 31, colonies, colonyRadiusMm: [0.3, 0.8] });
       const s = scoreAnalysis(r.truth, r.analysis);
       console.log(
         `dense plate, ${colonies} colonies: count error ${(100 * s.countError).toFixed(1)} %`,
       );
-      expect(Math.abs(s.countError)).toBeLessThan(0.25);
+      expect(Math.abs(s.countError)).toBeLessThan(0.1);
     }
   }, 60_000);
 });
