@@ -36,6 +36,12 @@ test('a plate CSV is imported into an experiment and its fitness computed; a bad
   // The example's four marker-control assays (fixtures/example-competition.csv).
   await expect(page.getByTestId('marker-effect')).toContainText('marker-control, n = 4');
   await shot(page, '50-imported-fitness');
+
+  // Deleting the experiment takes two taps and leaves the start screen empty.
+  await page.getByRole('link', { name: 'Files' }).tap();
+  await page.getByRole('button', { name: 'Delete experiment' }).tap();
+  await page.getByRole('button', { name: 'Tap again to delete it all' }).tap();
+  await expect(page.getByText('No experiments on this device yet.')).toBeVisible();
 });
 
 test('a file that is not a photo, or an empty one, gets a message naming it and nothing breaks', async ({

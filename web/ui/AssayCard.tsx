@@ -2,8 +2,10 @@ import type { Assay } from '../../schema/records.ts';
 import { useServices } from '../app/services.ts';
 import { nextPlateOf } from '../bench/assays.ts';
 import { type ClassLook, otherClass } from '../bench/colours.ts';
+import { assayRecordIds } from '../bench/delete.ts';
 import type { ExperimentData } from '../bench/experiment-data.ts';
 import { revised } from '../storage/stamp.ts';
+import { ConfirmButton } from './ConfirmButton.tsx';
 import { PlateRow } from './PlateRow.tsx';
 
 export function AssayCard({
@@ -54,7 +56,14 @@ export function AssayCard({
           return (
             <div key={s.id} className="plates">
               {plates.map((p) => (
-                <PlateRow key={p.id} plate={p} sample={s} assay={assay} data={data} />
+                <PlateRow
+                  key={p.id}
+                  plate={p}
+                  sample={s}
+                  assay={assay}
+                  data={data}
+                  deletable={plates.length > 1}
+                />
               ))}
               <button
                 type="button"
@@ -66,6 +75,13 @@ export function AssayCard({
             </div>
           );
         })}
+      </div>
+      <div className="row" style={{ marginTop: 8 }}>
+        <ConfirmButton
+          label="Delete assay"
+          armed="Tap again: the assay, its plates and photos go"
+          onConfirm={() => void assayRecordIds(store, assay).then((ids) => store.remove(ids))}
+        />
       </div>
     </article>
   );

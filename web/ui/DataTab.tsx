@@ -1,5 +1,7 @@
 import { useState } from 'react';
+import { go } from '../app/route.ts';
 import { useServices } from '../app/services.ts';
+import { experimentRecordIds } from '../bench/delete.ts';
 import type { ExperimentData } from '../bench/experiment-data.ts';
 import { backupJson, newerOnly, readBackup } from '../exchange/backup.ts';
 import { platesCsv, resultsCsv } from '../exchange/competition-csv.ts';
@@ -7,6 +9,7 @@ import { saveBlob } from '../exchange/download.ts';
 import { assaysFromCsv } from '../exchange/import-csv.ts';
 import { fitnessInputs } from '../results/assay-inputs.ts';
 import { experimentFitness } from '../results/experiment-fitness.ts';
+import { ConfirmButton } from './ConfirmButton.tsx';
 import { StorageCard } from './StorageCard.tsx';
 
 const slug = (s: string) =>
@@ -123,6 +126,22 @@ export function DataTab({ data }: { data: ExperimentData }) {
             {note.text}
           </p>
         )}
+      </section>
+      <section className="card stack" aria-label="Delete">
+        <h2>Delete this experiment</h2>
+        <p className="muted">
+          Everything of it goes from this phone: assays, plates, photos and corrections. Export a
+          backup first to keep a copy.
+        </p>
+        <ConfirmButton
+          label="Delete experiment"
+          armed="Tap again to delete it all"
+          onConfirm={() =>
+            void experimentRecordIds(store, data.experiment.id)
+              .then((ids) => store.remove(ids))
+              .then(() => go({ screen: 'home' }), failed)
+          }
+        />
       </section>
       <StorageCard />
     </>

@@ -3,8 +3,10 @@ import { go } from '../app/route.ts';
 import { useServices } from '../app/services.ts';
 import { useDraft } from '../app/use-draft.ts';
 import { useLive } from '../app/use-live.ts';
+import { experimentRecordIds } from '../bench/delete.ts';
 import { installDemo } from '../demo/install-demo.ts';
 import { labAccuracy } from '../review/lab-accuracy.ts';
+import { ConfirmButton } from './ConfirmButton.tsx';
 import { NewExperimentForm } from './NewExperimentForm.tsx';
 import { StorageCard } from './StorageCard.tsx';
 import { SyncCard } from './SyncCard.tsx';
@@ -52,6 +54,17 @@ export function HomeScreen() {
           >
             {demo ? 'Open the demo' : 'Set up the demo'}
           </button>
+          {demo && (
+            <ConfirmButton
+              label="Remove the demo"
+              armed="Tap again to remove the demo"
+              onConfirm={() =>
+                void experimentRecordIds(services.store, demo.id).then((ids) =>
+                  services.store.remove(ids),
+                )
+              }
+            />
+          )}
           {demoStep && (
             <p className="muted" role="status">
               {demoStep}
@@ -71,9 +84,10 @@ export function HomeScreen() {
           </div>
           {creating && (
             <NewExperimentForm
-              onDone={(id) =>
-                id ? go({ screen: 'experiment', id, tab: 'assays' }) : setCreating(false)
-              }
+              onDone={(id) => {
+                setCreating(false);
+                if (id) go({ screen: 'experiment', id, tab: 'assays' });
+              }}
             />
           )}
           {list.length === 0 && !creating && (

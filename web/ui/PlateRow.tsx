@@ -4,9 +4,11 @@ import type { Assay, Plate, Sample } from '../../schema/records.ts';
 import { hrefOf } from '../app/route.ts';
 import { useServices } from '../app/services.ts';
 import { useDraft } from '../app/use-draft.ts';
+import { plateRecordIds } from '../bench/delete.ts';
 import type { ExperimentData } from '../bench/experiment-data.ts';
 import { plateCount } from '../bench/plate-counts.ts';
 import { revised } from '../storage/stamp.ts';
+import { ConfirmButton } from './ConfirmButton.tsx';
 import { NumberField } from './NumberField.tsx';
 
 export function PlateRow({
@@ -14,11 +16,14 @@ export function PlateRow({
   sample,
   assay,
   data,
+  deletable,
 }: {
   plate: Plate;
   sample: Sample;
   assay: Assay;
   data: ExperimentData;
+  /** The sample has other plates: this one may go (a sample keeps at least one). */
+  deletable: boolean;
 }) {
   const { store } = useServices();
   const [editing, setEditing, clearEditing] = useDraft(`plate-editing.${plate.id}`, () => false);
@@ -83,6 +88,13 @@ export function PlateRow({
             await store.put('plates', revised(plate, change));
             clearEditing();
           }}
+        />
+      )}
+      {editing && deletable && (
+        <ConfirmButton
+          label="Delete this plate"
+          armed="Tap again: the plate and its photo go"
+          onConfirm={() => void plateRecordIds(store, plate).then((ids) => store.remove(ids))}
         />
       )}
     </div>
