@@ -43,7 +43,9 @@ export async function experimentRecordIds(
 
 function merged(parts: RecordIds[]): RecordIds {
   const out: Record<string, string[]> = {};
-  for (const part of parts)
-    for (const [kind, ids] of Object.entries(part)) (out[kind] ??= []).push(...(ids ?? []));
+  for (const part of parts) {
+    for (const [kind, ids] of Object.entries(part))
+      out[kind] = [...(out[kind] ?? []), ...(ids ?? [])];
+  }
   return out as RecordIds;
 }
