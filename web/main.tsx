@@ -3,6 +3,7 @@ import { createRoot } from 'react-dom/client';
 import type { PlateWorkerApi } from '../worker/plate-worker.ts';
 import { WorkerBridge } from './analysis/worker-bridge.ts';
 import { ServicesContext } from './app/services.ts';
+import type { FitnessWorkerApi } from './results/fitness-worker.ts';
 import { openIdbStore } from './storage/idb-store.ts';
 import { requestPersistence } from './storage/quota.ts';
 import { browserEnv, requestBackgroundSync } from './sync/browser-env.ts';
@@ -13,8 +14,12 @@ import './styles.css';
 
 const root = createRoot(document.getElementById('root')!);
 
-function createWorker(): Worker {
+function createPlateWorker(): Worker {
   return new Worker(new URL('../worker/plate-worker.ts', import.meta.url), { type: 'module' });
+}
+
+function createFitnessWorker(): Worker {
+  return new Worker(new URL('./results/fitness-worker.ts', import.meta.url), { type: 'module' });
 }
 
 async function start(): Promise<void> {
@@ -37,15 +42,21 @@ async function start(): Promise<void> {
   // and the storage card shows the answer.
   void requestPersistence();
   const worker = new WorkerBridge<PlateWorkerApi>({
-    create: createWorker,
+    create: createPlateWorker,
     // opencv.js holds tens of MB; give it back after two quiet minutes.
     idleMs: 120_000,
     // A 12 MP photo takes a few seconds here; a minute means the worker is stuck.
     timeoutMs: 60_000,
   });
+  const fitness = new WorkerBridge<FitnessWorkerApi>({
+    create: createFitnessWorker,
+    idleMs: 120_000,
+    // The largest experiments take under a second here.
+    timeoutMs: 30_000,
+  });
   root.render(
     <StrictMode>
-      <ServicesContext.Provider value={{ store: sync?.records ?? local, worker, sync }}>
+      <ServicesContext.Provider value={{ store: sync?.records ?? local, worker, fitness, sync }}>
         <App />
       </ServicesContext.Provider>
     </StrictMode>,

@@ -136,6 +136,8 @@ test('set up, photograph, correct by tapping, type the other sample, see W; then
   await context.setOffline(true);
   await page.reload();
   await expect(page.getByRole('heading', { name: 'E2E pond run' })).toBeVisible();
+  await page.getByRole('link', { name: 'Fitness' }).tap();
+  await expect(cell).toHaveText(W.toFixed(3)); // the fitness worker came from the cache too
   await page.getByRole('link', { name: 'Bench' }).tap();
   await expect(
     assay.getByTestId('plate-L1-g0-r1-end-10000000').getByTestId('plate-count'),

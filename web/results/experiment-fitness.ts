@@ -1,22 +1,20 @@
-import { type Analysis, analyse } from '../../fitness/analysis.ts';
-import { FitnessError } from '../../fitness/errors.ts';
+import type { Analysis } from '../../fitness/analysis.ts';
+import type { WorkerBridge } from '../analysis/worker-bridge.ts';
 import type { ExperimentData } from '../bench/experiment-data.ts';
 import { type FitnessInputs, fitnessInputs } from './assay-inputs.ts';
+import type { FitnessWorkerApi } from './fitness-worker.ts';
 
-export interface ExperimentFitness extends FitnessInputs {
-  analysis: Analysis | null;
-  /** Why the whole analysis could not run, in the fitness engine's words. */
-  error: string | null;
-}
+export type FitnessWorker = WorkerBridge<FitnessWorkerApi>;
 
-/** Runs the fitness engine over every assay with counted start and end plates. */
-export function experimentFitness(data: ExperimentData): ExperimentFitness {
+export type ExperimentFitness = FitnessInputs & { analysis: Analysis | null };
+
+/** Every assay with counted start and end plates through the fitness engine, in its worker. */
+export async function experimentFitness(
+  worker: FitnessWorker,
+  data: ExperimentData,
+  signal?: AbortSignal,
+): Promise<ExperimentFitness> {
   const inputs = fitnessInputs(data);
-  if (inputs.inputs.length === 0) return { ...inputs, analysis: null, error: null };
-  try {
-    return { ...inputs, analysis: analyse(inputs.inputs), error: null };
-  } catch (e) {
-    if (e instanceof FitnessError) return { ...inputs, analysis: null, error: e.message };
-    throw e;
-  }
+  const analysis = await worker.call((api) => api.run(inputs.inputs), signal);
+  return { ...inputs, analysis };
 }

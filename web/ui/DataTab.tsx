@@ -19,7 +19,7 @@ const slug = (s: string) =>
     .toLowerCase() || 'experiment';
 
 export function DataTab({ data }: { data: ExperimentData }) {
-  const { store } = useServices();
+  const { store, fitness } = useServices();
   const [note, setNote] = useState<{ ok: boolean; text: string } | null>(null);
   const name = slug(data.experiment.name);
   const say = (ok: boolean, text: string) => setNote({ ok, text });
@@ -80,15 +80,18 @@ export function DataTab({ data }: { data: ExperimentData }) {
             type="button"
             className="btn"
             data-testid="export-results"
-            onClick={() => {
-              const fit = experimentFitness(data);
-              if (!fit.analysis)
-                return say(false, 'No assay has counted start and end plates yet.');
-              saveBlob(
-                new Blob([resultsCsv(fit.analysis)], { type: 'text/csv' }),
-                `${name}-fitness.csv`,
-              );
-            }}
+            onClick={() =>
+              experimentFitness(fitness, data)
+                .then((fit) => {
+                  if (!fit.analysis)
+                    return say(false, 'No assay has counted start and end plates yet.');
+                  saveBlob(
+                    new Blob([resultsCsv(fit.analysis)], { type: 'text/csv' }),
+                    `${name}-fitness.csv`,
+                  );
+                })
+                .catch(failed)
+            }
           >
             Fitness results (CSV)
           </button>

@@ -1,16 +1,23 @@
-import { useMemo } from 'react';
 import type { ExperimentData } from '../bench/experiment-data.ts';
-import { experimentFitness } from '../results/experiment-fitness.ts';
+import { useFitness } from '../results/use-fitness.ts';
 import { AssayResults } from './AssayResults.tsx';
 import { GroupResults } from './GroupResults.tsx';
 import { TrajectoryCard } from './TrajectoryCard.tsx';
 
 export function ResultsTab({ data }: { data: ExperimentData }) {
-  const fit = useMemo(() => experimentFitness(data), [data]);
+  const computed = useFitness(data);
+  if (computed.state === 'computing')
+    return (
+      <p className="card muted" role="status">
+        Computing fitness…
+      </p>
+    );
+  if (computed.state === 'failed')
+    return <p className="banner alarm">Fitness could not be computed: {computed.error}</p>;
+  const fit = computed.fit;
   const a = fit.analysis;
   return (
     <>
-      {fit.error && <p className="banner alarm">{fit.error}</p>}
       {fit.waiting.length > 0 && (
         <details className="card">
           <summary style={{ minHeight: 40 }}>
@@ -30,7 +37,7 @@ export function ResultsTab({ data }: { data: ExperimentData }) {
           {e.assay}: {e.message}
         </p>
       ))}
-      {!a && !fit.error && (
+      {!a && (
         <p className="card muted">
           Count the start and end plates of an assay and its relative fitness appears here.
         </p>
