@@ -1,3 +1,4 @@
+import { readFileSync } from 'node:fs';
 import { expect, test } from '@playwright/test';
 import { openApp, shot } from './helpers.ts';
 
@@ -31,6 +32,15 @@ test('the demo is one tap away, marked as demo data, with photos, counts and fit
     page.getByRole('img', { name: 'Relative fitness of line L1 over generations' }),
   ).toBeVisible();
   await shot(page, '22-demo-fitness');
+  const download = page.waitForEvent('download');
+  await page
+    .getByRole('region', { name: 'Line L1' })
+    .getByRole('button', { name: 'Save plot (SVG)' })
+    .tap();
+  const svg = readFileSync(await (await download).path(), 'utf8');
+  expect(svg).toMatch(/^<\?xml/);
+  expect(svg).toContain('Relative fitness W (vs. ancestor)');
+  expect(svg).toContain('Generations of evolution');
   // Back home, the demo is opened again rather than set up twice.
   await page.getByRole('link', { name: 'Back' }).tap();
   await expect(page.getByRole('button', { name: 'Open the demo' })).toBeVisible();

@@ -1,4 +1,7 @@
+import { useRef } from 'react';
 import type { AnalysedAssay, LineTrajectory } from '../../fitness/analysis.ts';
+import { saveBlob } from '../exchange/download.ts';
+import { svgFile } from '../exchange/svg-file.ts';
 import { TrajectoryPlot } from './TrajectoryPlot.tsx';
 
 /** One line over generations: the plot, the models side by side, and their parameters. */
@@ -9,10 +12,20 @@ export function TrajectoryCard({
   trajectory: LineTrajectory;
   assays: readonly AnalysedAssay[];
 }) {
+  const plot = useRef<SVGSVGElement>(null);
   return (
     <section className="card" aria-label={`Line ${t.line}`}>
       <h2>Line {t.line} over generations</h2>
-      <TrajectoryPlot trajectory={t} assays={assays} />
+      <TrajectoryPlot trajectory={t} assays={assays} svgRef={plot} />
+      <button
+        type="button"
+        className="btn quiet"
+        onClick={() => {
+          if (plot.current) saveBlob(svgFile(plot.current), `line-${t.line}-fitness.svg`);
+        }}
+      >
+        Save plot (SVG)
+      </button>
       <div className="table-wrap">
         <table className="results num">
           <thead>

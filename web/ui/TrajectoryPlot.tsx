@@ -1,3 +1,4 @@
+import type { Ref } from 'react';
 import type { AnalysedAssay, LineTrajectory } from '../../fitness/analysis.ts';
 import type { CurveFit, ModelFailure } from '../../fitness/trajectories.ts';
 import { niceTicks } from '../results/axis.ts';
@@ -27,9 +28,12 @@ function fittedAt(t: LineTrajectory, fit: CurveFit | ModelFailure): { g: number;
 export function TrajectoryPlot({
   trajectory,
   assays,
+  svgRef,
 }: {
   trajectory: LineTrajectory;
   assays: readonly AnalysedAssay[];
+  /** The drawn SVG element, for saving the plot as a file. */
+  svgRef?: Ref<SVGSVGElement>;
 }) {
   const own = assays.filter((a) => a.line === trajectory.line);
   const gMax = Math.max(...own.map((a) => a.generation), 1);
@@ -43,11 +47,16 @@ export function TrajectoryPlot({
   const step = 'reason' in trajectory.step ? null : trajectory.step;
   return (
     <svg
+      ref={svgRef}
+      xmlns="http://www.w3.org/2000/svg"
       className="plot"
       viewBox={`0 0 ${W} ${H}`}
+      fontFamily="system-ui, sans-serif"
+      fontSize={11}
       role="img"
       aria-label={`Relative fitness of line ${trajectory.line} over generations`}
     >
+      <rect width={W} height={H} fill="#fff" />
       <line x1={M.left} x2={W - M.right} y1={y(1)} y2={y(1)} stroke="#999" strokeDasharray="3 3" />
       {niceTicks(yLo, yHi).map((v) => (
         <g key={`y${v}`}>
