@@ -13,7 +13,7 @@ test('the demo is one tap away, marked as demo data, with photos, counts and fit
   await expect(page.getByText('DEMO DATA — invented plates and counts')).toBeVisible();
   // The first bundled photo was read while the demo was set up, and the colours learned from it.
   await expect(page.getByRole('region', { name: 'Marker colours' })).toContainText(
-    'Learned from the first plate',
+    'Learned from the plates read',
   );
   await shot(page, '20-demo-bench');
 
@@ -25,6 +25,18 @@ test('the demo is one tap away, marked as demo data, with photos, counts and fit
   await expect(page.getByTestId('tally')).toBeVisible();
   await shot(page, '21-demo-plate');
   await page.getByRole('link', { name: 'Back' }).tap();
+
+  // Read the bundled end photo too, then learn the colours from both plates.
+  const end = page.getByTestId('plate-L2-g2000-r1-end-100000');
+  await expect(end).toContainText('photo not read yet');
+  await end.getByRole('link', { name: 'Photo of end plate' }).tap();
+  await page.getByRole('button', { name: 'Read plate' }).tap();
+  await expect(page.getByTestId('tally')).toBeVisible({ timeout: 60_000 });
+  await page.getByRole('link', { name: 'Back' }).tap();
+  await page.getByRole('button', { name: 'Learn from all 2 plates read' }).tap();
+  await expect(page.getByRole('region', { name: 'Marker colours' })).toContainText(
+    'Learned from 2 plates; every plate re-sorted.',
+  );
 
   await page.getByRole('link', { name: 'Fitness' }).tap();
   await expect(page.getByRole('heading', { name: 'Line L1 over generations' })).toBeVisible();

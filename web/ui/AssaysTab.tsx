@@ -12,6 +12,8 @@ export function AssaysTab({ data }: { data: ExperimentData }) {
   );
   const looks = classLooks(data.experiment);
   const lines = [...new Set(data.assays.map((a) => a.line))];
+  // Which lines are unfolded, kept so that coming back from a plate finds the same view.
+  const [open, setOpen] = useDraft<string[] | null>(`lines-open.${data.experiment.id}`, () => null);
   return (
     <>
       <PaletteCard data={data} />
@@ -28,7 +30,18 @@ export function AssaysTab({ data }: { data: ExperimentData }) {
         </button>
       )}
       {lines.map((line, i) => (
-        <details key={line} open={i === 0 || lines.length === 1} className="card">
+        <details
+          key={line}
+          open={open === null ? i === 0 : open.includes(line)}
+          onToggle={(e) => {
+            const isOpen = e.currentTarget.open;
+            setOpen((o) => {
+              const now = o ?? lines.slice(0, 1);
+              return isOpen ? [...new Set([...now, line])] : now.filter((l) => l !== line);
+            });
+          }}
+          className="card"
+        >
           <summary style={{ fontWeight: 700, minHeight: 40 }}>
             Line {line} · {data.assays.filter((a) => a.line === line).length} assays
           </summary>
