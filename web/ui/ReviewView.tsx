@@ -12,6 +12,14 @@ function halo(hex: string): string {
 
 const TAP_SLOP_PX = 10;
 
+/** Below this the analysis was unsure of a colony's colour: its ring is drawn broken. */
+const UNSURE_CONFIDENCE = 0.75;
+
+function markClass(c: ColonyRecord): string {
+  if (!c.lab) return 'colony added';
+  return c.confidence < UNSURE_CONFIDENCE ? 'colony unsure' : 'colony';
+}
+
 export interface ReviewViewProps {
   previewUrl: string;
   width: number;
@@ -158,13 +166,7 @@ export function ReviewView(p: ReviewViewProps) {
             return (
               <g key={c.id} data-cls={c.cls} data-count={c.count} className="colony-mark">
                 <circle cx={c.x} cy={c.y} r={r} className="colony halo" stroke={halo(hex)} />
-                <circle
-                  cx={c.x}
-                  cy={c.y}
-                  r={r}
-                  className={c.lab ? 'colony' : 'colony added'}
-                  stroke={hex}
-                />
+                <circle cx={c.x} cy={c.y} r={r} className={markClass(c)} stroke={hex} />
               </g>
             );
           })}

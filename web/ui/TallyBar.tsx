@@ -1,4 +1,5 @@
 import type { ReactNode } from 'react';
+import { countableStatus, DEFAULT_COUNTABLE_RANGE } from '../../fitness/countable-range.ts';
 import type { ClassIndex } from '../../schema/records.ts';
 import type { ClassLook } from '../bench/colours.ts';
 import { sameTool, type Tool, toolHint } from '../review/tool.ts';
@@ -19,6 +20,7 @@ export interface TallyBarProps {
 
 /** The counts per colour as the person taps, the tools, and undo/redo: kept at the screen's foot. */
 export function TallyBar(p: TallyBarProps) {
+  const status = countableStatus(p.counts[0] + p.counts[1], DEFAULT_COUNTABLE_RANGE);
   const toolButton = (t: Tool, label: ReactNode, testId: string) => (
     <button
       type="button"
@@ -37,6 +39,18 @@ export function TallyBar(p: TallyBarProps) {
   );
   return (
     <div className="tally">
+      <div className="muted" data-testid="range">
+        {p.counts[0] + p.counts[1]} colonies ·{' '}
+        {status === 'countable' ? (
+          `within ${DEFAULT_COUNTABLE_RANGE.source}`
+        ) : (
+          <span className="flag">
+            {status === 'too-few' ? 'too few' : 'too many'} to count (
+            {DEFAULT_COUNTABLE_RANGE.source})
+          </span>
+        )}{' '}
+        · broken rings: colour uncertain; dashed: added by hand
+      </div>
       <div className="counts num" data-testid="tally">
         {p.looks.map((l, i) => (
           <span key={l.name} data-testid={`count-${i}`}>
