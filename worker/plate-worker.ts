@@ -56,6 +56,20 @@ const api = {
     };
   },
 
+  /**
+   * A camera frame as a JPEG photo. The caller transfers the bitmap: from then on it belongs to
+   * this worker, which closes it once encoded (the main thread never holds the encode).
+   */
+  async frameToJpeg(frame: ImageBitmap): Promise<Blob> {
+    try {
+      const canvas = new OffscreenCanvas(frame.width, frame.height);
+      canvas.getContext('2d')!.drawImage(frame, 0, 0);
+      return await canvas.convertToBlob({ type: 'image/jpeg', quality: 0.92 });
+    } finally {
+      frame.close();
+    }
+  },
+
   async reclassify(analysis: PlateAnalysis, palette: Palette): Promise<PlateAnalysis> {
     await loadOpenCv();
     return classifyWithPalette(analysis, palette);

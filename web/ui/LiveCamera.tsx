@@ -1,9 +1,11 @@
+import { transfer } from 'comlink';
 import { useEffect, useRef, useState } from 'react';
+import { useServices } from '../app/services.ts';
 
 /**
  * An in-app camera view with a circular guide for the dish. The frame is grabbed at the
- * camera's full resolution and handed on as a JPEG Blob; decoding for analysis happens in the
- * worker like any other photo.
+ * camera's full resolution and encoded as a JPEG in the worker; it is then read like any other
+ * photo.
  */
 export function LiveCamera({
   onCapture,
@@ -15,6 +17,8 @@ export function LiveCamera({
   const video = useRef<HTMLVideoElement>(null);
   const [error, setError] = useState<string | null>(null);
   const [ready, setReady] = useState(false);
+  const [busy, setBusy] = useState(false);
+  const { worker } = useServices();
 
   useEffect(() => {
     let stream: MediaStream | null = null;
@@ -48,18 +52,19 @@ export function LiveCamera({
     };
   }, []);
 
-  function capture() {
+  async function capture() {
     const v = video.current;
     if (!v?.videoWidth) return;
-    const canvas = document.createElement('canvas');
-    canvas.width = v.videoWidth;
-    canvas.height = v.videoHeight;
-    canvas.getContext('2d')!.drawImage(v, 0, 0);
-    canvas.toBlob(
-      (b) => (b ? onCapture(b) : setError('The frame could not be saved.')),
-      'image/jpeg',
-      0.92,
-    );
+    setBusy(true);
+    try {
+      const frame = await createImageBitmap(v);
+      // The frame is transferred: the worker owns it from here and closes it after encoding.
+      onCapture(await worker.call((api) => api.frameToJpeg(transfer(frame, [frame]))));
+    } catch (e) {
+      setError(`The frame could not be saved (${e instanceof Error ? e.message : String(e)}).`);
+    } finally {
+      setBusy(false);
+    }
   }
 
   return (
@@ -88,7 +93,12 @@ export function LiveCamera({
       </div>
       {error && <p className="field-error">{error}</p>}
       <div className="row">
-        <button type="button" className="btn primary" onClick={capture} disabled={!ready}>
+        <button
+          type="button"
+          className="btn primary"
+          onClick={() => void capture()}
+          disabled={!ready || busy}
+        >
           Take photo
         </button>
         <button type="button" className="btn quiet" onClick={onClose}>
