@@ -87,9 +87,11 @@ export function selectCandidates(
   }
   const kept = regions.filter((r) => {
     const v = verdict.get(r.component);
-    // A colony touching a pen stroke shares its blob; it is as thick as a colony, the stroke is not.
-    const fatInStroke = v === 'strokes' && r.halfWidth >= STROKE_THINNESS * typicalRadius;
-    if ((v !== 'keep' && !fatInStroke) || r.area < minArea) return false;
+    // A colony touching a pen stroke or a glint on the wall shares its blob; it is as thick as a
+    // colony, the stroke and the glint are not.
+    const fatInThin =
+      (v === 'strokes' || v === 'wall') && r.halfWidth >= STROKE_THINNESS * typicalRadius;
+    if ((v !== 'keep' && !fatInThin) || r.area < minArea) return false;
     // A region no different from the agar on average is agar enclosed by something else (the
     // inside of a pen letter, a filled ring) or a fringe of ringing round a dark colony, whose
     // pixels stray both ways: its mean colour must differ from the agar as much as its pixels do.
