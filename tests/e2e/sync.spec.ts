@@ -1,5 +1,5 @@
 import { type ChildProcess, execFileSync, spawn } from 'node:child_process';
-import { mkdtempSync } from 'node:fs';
+import { mkdtempSync, rmSync } from 'node:fs';
 import { resolve } from 'node:path';
 import { type Browser, devices, expect, type Page, test } from '@playwright/test';
 import { E2E_DIST } from '../../playwright.config.ts';
@@ -13,13 +13,14 @@ const PORT = Number(process.env.RIVALPLATE_E2E_SYNC_PORT ?? 4339);
 const URL = `http://127.0.0.1:${PORT}`;
 let server: ChildProcess;
 let token: string;
+let data: string;
 
 function cli(...args: string[]): string {
   return execFileSync('node', ['bin/rivalplate.js', ...args], { cwd: ROOT, encoding: 'utf8' });
 }
 
 test.beforeAll(async () => {
-  const data = mkdtempSync(resolve(ROOT, 'tests/artifacts/sync-data-'));
+  data = mkdtempSync(resolve(ROOT, 'tests/artifacts/sync-data-'));
   cli('server', 'add-lab', 'Marrowfield pond', '--data', data);
   token = cli('server', 'add-token', 'Marrowfield pond', '--data', data).trim().split('\n').at(-1)!;
   server = spawn(
@@ -49,8 +50,13 @@ test.beforeAll(async () => {
   });
 });
 
-test.afterAll(() => {
-  server?.kill('SIGTERM');
+test.afterAll(async () => {
+  if (server && server.exitCode === null) {
+    const exited = new Promise((done) => server.once('exit', done));
+    server.kill('SIGTERM');
+    await exited;
+  }
+  rmSync(data, { recursive: true, force: true });
 });
 
 async function phone(browser: Browser): Promise<Page> {
