@@ -23,7 +23,8 @@ export function PhotoSource({ onPhoto }: { onPhoto: (blob: Blob, name: string) =
     <section className="card stack" aria-label="Add a photo">
       <p className="muted">
         Lid on, plate flat, the whole dish in the frame. Even light without reflections of the lamp
-        helps most.
+        helps most. Keep the phone out of the contaminated area, and follow your institution's
+        biosafety rules.
       </p>
       <div className="grid3">
         <label className="btn primary">

@@ -125,6 +125,7 @@ export function ReviewPanel({
       <TallyBar
         looks={looks}
         counts={counts}
+        found={countsByClass(analysis.colonies)}
         testClass={assay.testClass}
         tool={tool}
         onTool={setTool}

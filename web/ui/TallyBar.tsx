@@ -7,6 +7,8 @@ import { sameTool, type Tool, toolHint } from '../review/tool.ts';
 export interface TallyBarProps {
   looks: [ClassLook, ClassLook];
   counts: [number, number];
+  /** What the analysis found before any correction. */
+  found: [number, number];
   testClass: ClassIndex;
   tool: Tool;
   onTool: (t: Tool) => void;
@@ -49,6 +51,10 @@ export function TallyBar(p: TallyBarProps) {
             {DEFAULT_COUNTABLE_RANGE.source})
           </span>
         )}{' '}
+        · the analysis found {p.found[0]} + {p.found[1]}
+        {p.found[0] === p.counts[0] && p.found[1] === p.counts[1]
+          ? ''
+          : `, now ${p.counts[0]} + ${p.counts[1]}`}{' '}
         · broken rings: colour uncertain; dashed: added by hand
       </div>
       <div className="counts num" data-testid="tally">
