@@ -41,6 +41,14 @@ export async function experimentRecordIds(
   ]);
 }
 
+/** Several experiments with everything of them. */
+export async function experimentsRecordIds(
+  store: RecordStore,
+  experimentIds: readonly string[],
+): Promise<RecordIds> {
+  return merged(await Promise.all(experimentIds.map((id) => experimentRecordIds(store, id))));
+}
+
 function merged(parts: RecordIds[]): RecordIds {
   const out: Record<string, string[]> = {};
   for (const part of parts) {

@@ -1,7 +1,7 @@
 import 'fake-indexeddb/auto';
 import { describe, expect, it } from 'vitest';
 import type { Photo } from '../../schema/records.ts';
-import { newAssay } from '../bench/assays.ts';
+import { newAssay, nextAssayDraft } from '../bench/assays.ts';
 import { newExperiment } from '../bench/experiments.ts';
 import { openIdbStore } from '../storage/idb-store.ts';
 import { newStamp, revised } from '../storage/stamp.ts';
@@ -62,6 +62,31 @@ describe('backup file', () => {
       new Uint8Array([255, 216, 255, 0, 7]),
     );
     expect(await other.all('plates')).toHaveLength(2);
+  });
+
+  it('leaves the demo experiment out, with everything of it', async () => {
+    const { store } = await seeded();
+    const demo = newExperiment(
+      {
+        name: 'Demo',
+        lines: ['L1'],
+        referenceName: 'anc',
+        transferDilution: 100,
+        defaultDilutionFold: 1e5,
+        defaultVolumeUl: 100,
+      },
+      true,
+    );
+    const a = newAssay(demo, { ...nextAssayDraft(demo, [], [], []) });
+    await store.putBatch({
+      experiments: [demo],
+      assays: [a.assay],
+      samples: a.samples,
+      plates: a.plates,
+    });
+    const { batch } = readBackup(await backupJson(store), 'b.json');
+    expect(batch.experiments!.map((e) => e.name)).toEqual(['Backup test']);
+    expect(batch.plates).toHaveLength(2);
   });
 
   it('a bad record is reported by file, record and field, and nothing is restored', async () => {

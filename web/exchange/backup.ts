@@ -1,6 +1,7 @@
 import { KINDS, RECORD_KINDS } from '../../schema/kinds.ts';
 import type { RecordKind, RecordsByKind } from '../../schema/records.ts';
 import { BACKUP_FORMAT, BACKUP_VERSION, restoreRecord } from '../../schema/restore.ts';
+import { experimentsRecordIds } from '../bench/delete.ts';
 import type { RecordBatch, RecordStore } from '../storage/record-store.ts';
 
 /** How a Blob field is written in the JSON file. */
@@ -29,12 +30,23 @@ function decode(value: unknown): unknown {
   return new Blob([bytes], { type: v.type });
 }
 
-/** Every exported record on this device, photos included, as one JSON text. */
+/**
+ * Every exported record on this device, photos included, as one JSON text. The demo experiment
+ * stays out: it comes with the app, and a lab's backup should hold only the lab's own work.
+ */
 export async function backupJson(store: RecordStore): Promise<string> {
+  const demo = await experimentsRecordIds(
+    store,
+    (await store.all('experiments')).filter((e) => e.demo).map((e) => e.id),
+  );
   const records: Record<string, unknown[]> = {};
   for (const kind of RECORD_KINDS) {
     if (!KINDS[kind].exported) continue;
-    const list = (await store.all(kind)) as unknown as Record<string, unknown>[];
+    const skip = new Set(demo[kind] ?? []);
+    const list = (await store.all(kind)).filter((r) => !skip.has(r.id)) as unknown as Record<
+      string,
+      unknown
+    >[];
     records[kind] = await Promise.all(
       list.map(async (r) => {
         const out = { ...r };
