@@ -31,6 +31,8 @@ export interface AgarModel {
   /** The outermost pixels of the counting area, next to the dish wall (8-bit 0/255). */
   rim: Mat;
   glareFraction: number;
+  /** Within GLARE_ZONE_MM of lid glare, where its fainter fringe still lights the agar (0/255). */
+  glareZone: Mat;
   agarLab: Lab;
 }
 
@@ -52,6 +54,7 @@ export function modelAgar(
   const glare = keep(glareMask(cv, quarter, agarMask, frame));
   const agarArea = Math.max(1, cv.countNonZero(agarMask));
   const glareFraction = cv.countNonZero(glare) / agarArea;
+  const glareZone = keep(zoneAround(cv, glare, quarter, frame));
 
   const background8 = keep(
     medianBackground(cv, quarter, { width: rgb.cols, height: rgb.rows }, frame),
@@ -70,7 +73,7 @@ export function modelAgar(
   const centre = background8.data;
   const ci = (Math.round(dish.cy) * background8.cols + Math.round(dish.cx)) * 3;
   const agarLab = lab8ToLab(centre[ci] ?? 0, centre[ci + 1] ?? 128, centre[ci + 2] ?? 128);
-  return { lab8, background8, deltaE, countMask, rim, glareFraction, agarLab };
+  return { lab8, background8, deltaE, countMask, rim, glareFraction, glareZone, agarLab };
 }
 
 /** An 8-bit 0/255 mask of the dish ellipse scaled by `fraction`. */
@@ -93,6 +96,19 @@ export function ellipseMask(
     -1,
   );
   return mask;
+}
+
+const GLARE_ZONE_MM = 3;
+function zoneAround(cv: OpenCv, glare: Mat, quarter: Mat, frame: WorkingFrame): Mat {
+  return withMats((keep) => {
+    const q = keep(new cv.Mat());
+    cv.resize(glare, q, new cv.Size(quarter.cols, quarter.rows), 0, 0, cv.INTER_NEAREST);
+    const k = oddAtLeast(3, (2 * GLARE_ZONE_MM) / (4 * frame.mmPerPx));
+    cv.dilate(q, q, keep(cv.getStructuringElement(cv.MORPH_ELLIPSE, new cv.Size(k, k))));
+    const zone = new cv.Mat();
+    cv.resize(q, zone, new cv.Size(glare.cols, glare.rows), 0, 0, cv.INTER_NEAREST);
+    return zone;
+  });
 }
 
 /** The band of RIM_PX pixels just inside the edge of a mask. */

@@ -108,6 +108,7 @@ function runPipeline(
     frame.mmPerPx,
     fg.threshold,
     (r) => (1 - ellipseRadius(dishW, r.x, r.y)) * dishW.r * frame.mmPerPx < WALL_ZONE_MM,
+    (r) => agar.glareZone.data[Math.floor(r.y) * agar.glareZone.cols + Math.floor(r.x)]! > 0,
   );
   stage('measure', 0.85);
 

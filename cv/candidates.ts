@@ -21,6 +21,8 @@ import type { ComponentStats, RegionStats } from './measure.ts';
  * - Grey shades: regions darker than the agar with hardly any colour of their own (the soft edge
  *   of an ink stroke, the shadowed side of a droplet, the dim rim round lid glare). A colony is
  *   either lighter than the agar (pale, white, cream) or coloured; a grey shade is neither.
+ * - Glare fringes: regions next to lid glare that are lighter than the agar but not tinted: the
+ *   fainter edge of the glare, beyond the patch that glare.ts takes out.
  * - Wall glints: blobs on the rim of the counting area thinner than WALL_THINNESS typical colony
  *   radii, and regions within WALL_ZONE_MM of the wall smaller than a third of a typical colony.
  *   Reflections and the wall's inner face show as thin arcs and crumbs there; a colony growing
@@ -51,6 +53,8 @@ const INK_DARKER = 15;
 const INK_CHROMA = 12;
 /** A grey shade: darker than the agar and within this colour difference of it in a*, b*. */
 const GREY_SHADE_CHROMA = 6;
+/** Glare fringe: within this colour difference of the agar in a*, b*. */
+const GLARE_FRINGE_TINT = 3;
 const CLUMP_ELONGATION = 2.0;
 const WALL_THINNESS = 0.35;
 export const WALL_ZONE_MM = 1.2;
@@ -75,6 +79,7 @@ export function selectCandidates(
   mmPerPx: number,
   threshold: number,
   nearWall: (r: RegionStats) => boolean,
+  nearGlare: (r: RegionStats) => boolean,
 ): CandidateResult {
   const minArea = Math.PI * (MIN_COLONY_RADIUS_MM / mmPerPx) ** 2;
   const byId = new Map(components.map((c) => [c.id, c]));
@@ -110,6 +115,10 @@ export function selectCandidates(
     const comp = byId.get(r.component);
     if (comp && comp.regions > 1 && r.area < SLIVER * Math.PI * typicalRadius ** 2) {
       rejected.specks++; // a sliver the watershed cut off a colony's edge
+      return false;
+    }
+    if (nearGlare(r) && isGlareFringe(r)) {
+      rejected.shades++;
       return false;
     }
     if (!isInk(r) && !isGreyShade(r)) return true;
@@ -188,6 +197,13 @@ function meanColourDifference(r: RegionStats): number {
     r.lab[1] - r.backgroundLab[1],
     r.lab[2] - r.backgroundLab[2],
   );
+}
+
+/** Lighter than the agar and untinted: the fading edge of lid glare, next to a glare patch. */
+function isGlareFringe(r: RegionStats): boolean {
+  const dA = r.lab[1] - r.backgroundLab[1];
+  const dB = r.lab[2] - r.backgroundLab[2];
+  return r.lab[0] > r.backgroundLab[0] && Math.hypot(dA, dB) < GLARE_FRINGE_TINT;
 }
 
 function isGreyShade(r: RegionStats): boolean {

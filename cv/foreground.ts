@@ -12,8 +12,8 @@ import type { Mat, OpenCv } from './opencv.ts';
  * (most of the agar is bare, so the median measures noise plus residual lighting), never below
  * MIN_CONTRAST ΔE. Pale colonies only a few ΔE lighter than the agar pass; sensor noise and JPEG
  * ringing do not. Then: an opening removes single-pixel noise, holes (the highlight on a domed
- * colony) are filled, and ring-shaped objects (air bubbles: a dark rim round an agar-coloured
- * centre) are dropped whole.
+ * colony) are filled, ring-shaped objects (air bubbles: a dark rim round an agar-coloured
+ * centre) are dropped whole, and pale colonies are cut loose from dark ones they touch.
  *
  * Output: an 8-bit 0/255 mask in working pixels; `bubbles` counts the rings dropped.
  */
@@ -47,7 +47,44 @@ export function segmentForeground(
     cv.morphologyEx(mask, mask, cv.MORPH_OPEN, disc);
   });
   const bubbles = fillHolesDropRings(cv, mask);
+  cutLightFromDark(cv, mask, agar);
   return { mask, threshold, bubbles };
+}
+
+/**
+ * Where a colony lighter than the agar touches one clearly darker than it (a pale colony against
+ * a coloured one), a one-pixel cut is made along the seam, so the two are separate blobs however
+ * much they overlap: their outline alone would not tell them apart. "Clearly" is SEAM_DARKER in
+ * L*: the shaded rim of a pale colony, only a little darker than the agar, is not cut off.
+ */
+const SEAM_DARKER = 8;
+function cutLightFromDark(cv: OpenCv, mask: Mat, agar: AgarModel): void {
+  withMats((k) => {
+    const planes = k(new cv.MatVector());
+    cv.split(agar.lab8, planes);
+    const bgPlanes = k(new cv.MatVector());
+    cv.split(agar.background8, bgPlanes);
+    const L = k(planes.get(0));
+    const bgL = k(bgPlanes.get(0));
+    const lighter = k(new cv.Mat());
+    cv.compare(L, bgL, lighter, cv.CMP_GT);
+    const offset = k(
+      new cv.Mat(bgL.rows, bgL.cols, cv.CV_8UC1, [Math.round(SEAM_DARKER * 2.55), 0, 0, 0]),
+    );
+    const darkLimit = k(new cv.Mat());
+    cv.subtract(bgL, offset, darkLimit); // saturates at 0
+    const darker = k(new cv.Mat());
+    cv.compare(L, darkLimit, darker, cv.CMP_LT);
+    const light = k(new cv.Mat());
+    cv.bitwise_and(mask, lighter, light);
+    const dark = k(new cv.Mat());
+    cv.bitwise_and(mask, darker, dark);
+    const reach = k(cv.getStructuringElement(cv.MORPH_RECT, new cv.Size(3, 3)));
+    const seam = k(new cv.Mat());
+    cv.dilate(dark, seam, reach);
+    cv.bitwise_and(seam, light, seam);
+    cv.subtract(mask, seam, mask);
+  });
 }
 
 /**
