@@ -1,9 +1,17 @@
 import type { Reading } from '../analysis/use-reading.ts';
 
+/** Words for the stages the worker and the analysis core report (cv/analyze.ts names them). */
 const STAGE_WORDS: Record<string, string> = {
   starting: 'Starting',
   decode: 'Opening the photo',
   opencv: 'Loading the plate reader',
+  load: 'Loading the plate reader',
+  dish: 'Finding the dish',
+  'working-image': 'Preparing the picture',
+  background: 'Evening out the light',
+  foreground: 'Finding colonies',
+  split: 'Separating touching colonies',
+  measure: 'Measuring colours',
 };
 
 export function ReadingStatus({ reading, onCancel }: { reading: Reading; onCancel: () => void }) {
