@@ -6,7 +6,12 @@ import { CAMERA_FRAME } from './tests/e2e/camera-frame.ts';
  * downloads no browser here). `npm run test:e2e` builds the app into tests/artifacts/e2e-dist
  * first, so a build others run into dist/ at the same time cannot swap files under the tests.
  */
-const PORT = Number(process.env.RIVALPLATE_E2E_PORT ?? 4319);
+// Ports of this run. Several runs share the machine (other checkouts, CI clones), so a fixed
+// port would collide: each run picks its own from its process id, and writes it to the
+// environment so the test workers Playwright forks see the same numbers.
+process.env.RIVALPLATE_E2E_PORT ??= String(20_000 + (process.pid % 20_000));
+process.env.RIVALPLATE_E2E_SYNC_PORT ??= String(Number(process.env.RIVALPLATE_E2E_PORT) + 20_000);
+const PORT = Number(process.env.RIVALPLATE_E2E_PORT);
 export const E2E_DIST = 'tests/artifacts/e2e-dist';
 const CHROMIUM = process.env.RIVALPLATE_CHROMIUM ?? '/usr/bin/chromium';
 // Flags seen to work for headless Debian Chromium on this machine (no GPU, no sandbox in CI).

@@ -9,7 +9,8 @@ import { ROOT, shot } from './helpers.ts';
  * Two phones share plates through the lab's real sync server (the `rivalplate server` command,
  * serving this build of the app, on loopback with a fresh data folder).
  */
-const PORT = Number(process.env.RIVALPLATE_E2E_SYNC_PORT ?? 4339);
+// Chosen per run by playwright.config.ts.
+const PORT = Number(process.env.RIVALPLATE_E2E_SYNC_PORT);
 const URL = `http://127.0.0.1:${PORT}`;
 let server: ChildProcess;
 let token: string;
