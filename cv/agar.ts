@@ -12,13 +12,15 @@ import type { Dish, Lab } from './types.ts';
  *
  * Input: the working RGB image (CV_8UC3) and the dish in working pixels.
  * Output (Mats owned by the caller's scope):
- *  - `lab`: the image in CIE L*a*b* (CV_32FC3, L* 0..100),
- *  - `background`: the agar colour expected at each pixel with colonies removed (CV_32FC3), a
- *    median filter over a window several colonies wide, computed at quarter resolution. This
- *    flattens a one-sided lamp, vignetting and a colour cast, since colonies are judged against the
- *    agar right around them and not against one global agar colour;
+ *  - `lab8`: the image in opencv's 8-bit CIE L*a*b* (L*·255/100, a*+128, b*+128; lab8ToLab),
+ *  - `background8`: the agar colour expected at each pixel with colonies removed, same encoding: a
+ *    two-pass median over a window several colonies wide, at quarter resolution. This flattens a
+ *    one-sided lamp, vignetting and a colour cast, since colonies are judged against the agar
+ *    right around them and not against one global agar colour;
  *  - `deltaE`: ΔE*ab of each pixel from that background (CV_32FC1),
- *  - `countMask`: where colonies may be counted (agar inside the wall band, minus glare), 8-bit 0/255,
+ *  - `countMask`: where colonies may be counted (the agar minus glare), 8-bit 0/255,
+ *  - `rim`, `glareZone`: the bands next to the wall and round glare where the rejection rules in
+ *    candidates.ts look harder,
  *  - `glareFraction`: share of the agar under lid glare (glare.ts), which is excluded from
  *    counting and reported.
  */
