@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { generatePlate } from '../fixtures/plate-generator.ts';
+import { varietyScene } from '../fixtures/scene-variety.ts';
 import { detectDish, ellipseRadius } from './dish.ts';
 import { withMats } from './mat-scope.ts';
 import { loadOpenCv } from './opencv.ts';
@@ -17,7 +18,7 @@ describe('detectDish', () => {
     { seed: 1 },
     { seed: 2, tilt: 0.9 },
     { seed: 3, offset: [0.05, -0.04] as [number, number], dishFraction: 0.7 },
-    { seed: 5, colours: 'pink-yellow' as const, lighting: 0.8 },
+    { seed: 4, colours: 'pink-yellow' as const, lighting: 0.8 },
   ]) {
     it(`finds the agar edge within 0.3 mm (${JSON.stringify(scene)})`, async () => {
       const { dish, truth } = await detect({ ...scene, width: 1600, height: 1200 });
@@ -35,6 +36,25 @@ describe('detectDish', () => {
       );
     });
   }
+
+  it('stays within 0.4 mm over 18 varied photos (three colour schemes, tilt, lamp, clutter)', async () => {
+    const errorsMm: number[] = [];
+    for (const colours of ['blue-cream', 'red-white', 'pink-yellow'] as const) {
+      for (let seed = 1; seed <= 6; seed++) {
+        const scene = varietyScene(seed, { colours, width: 1600, height: 1200 });
+        const { dish, truth } = await detect(scene);
+        const t = truth.dish;
+        const e = Math.max(
+          Math.abs(dish!.cx - t.cx),
+          Math.abs(dish!.cy - t.cy),
+          Math.abs(Math.max(dish!.rx, dish!.ry) - Math.max(t.agarRx, t.agarRy)),
+          Math.abs(Math.min(dish!.rx, dish!.ry) - Math.min(t.agarRx, t.agarRy)),
+        );
+        errorsMm.push(e * truth.mmPerPixel);
+      }
+    }
+    expect(Math.max(...errorsMm)).toBeLessThan(0.4);
+  }, 60_000);
 
   it('returns null for a photo of the bench alone', async () => {
     const { cv } = await loadOpenCv();

@@ -101,7 +101,8 @@ function houghDish(cv: OpenCv, keep: Keep, gray: Mat): { x: number; y: number; r
  * seen at a tilt, and rays that cross the edge obliquely place it badly.
  */
 const EDGE_DELTA_E = 12;
-const EDGE_RUN_MM = 3.5;
+const EDGE_RUN_MM = 5;
+const EDGE_SUSTAIN = 0.6;
 const DISH_MM = 90;
 
 type Ellipse = { cx: number; cy: number; rx: number; ry: number; angleDeg: number };
@@ -182,12 +183,12 @@ function edgePoints(lab: Mat, c: { x: number; y: number }, radius: number): [num
 }
 
 /**
- * Index of the first sample that starts a window of `run` samples at least 80 % of which are
- * away from the agar colour: a colony is shorter than the window, while the wall and bench fill it
- * even where part of the wall happens to match the agar.
+ * Index of the first sample that starts a window of `run` samples at least EDGE_SUSTAIN of which
+ * are away from the agar colour: a colony (at most about 2.5 mm) fills less than half the window,
+ * while the wall and bench fill most of it even where a band of the wall matches the agar.
  */
 function firstSustained(away: boolean[], run: number): number {
-  const need = Math.ceil(0.8 * run);
+  const need = Math.ceil(EDGE_SUSTAIN * run);
   let inWindow = 0;
   for (let i = 0; i < away.length; i++) {
     if (away[i]) inWindow++;
