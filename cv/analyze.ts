@@ -3,7 +3,7 @@ import { selectCandidates, WALL_ZONE_MM } from './candidates.ts';
 import { classify } from './classify.ts';
 import { now } from './clock.ts';
 import { detectDish, ellipseRadius, givenDish } from './dish.ts';
-import { edgeWidthMm } from './focus.ts';
+import { deltaESlope, edgeWidthMm } from './focus.ts';
 import { segmentForeground } from './foreground.ts';
 import { frameForDish, inscribedDish, toOriginal, type WorkingFrame } from './frame.ts';
 import { checkImage } from './image-input.ts';
@@ -24,9 +24,10 @@ import type {
 
 /**
  * Edges wider than this (mm) mean the photo is out of focus (see focus.ts). Calibrated on generated
- * plates: domed colonies photographed sharp measure 0.45–0.65 mm, a blur of σ ≈ 0.1 mm passes 0.85.
+ * plates: sharp photos measure 0.29–0.38 mm (JPEG demo photos 0.42–0.44), a Gaussian blur of
+ * σ ≈ 0.14 mm passes 0.5.
  */
-const BLURRED_EDGE_MM = 0.85;
+const BLURRED_EDGE_MM = 0.5;
 const DEFAULT_DISH_MM = 90;
 
 /**
@@ -99,6 +100,7 @@ function runPipeline(
     agar.lab8,
     agar.background8,
     agar.deltaE,
+    deltaESlope(cv, keep, agar.deltaE),
     agar.rim,
   );
   const { candidates } = selectCandidates(
@@ -137,9 +139,10 @@ function runPipeline(
   stage('classify', 0.95);
 
   flags.push(...colonyFlags(colonies, classes.oneColour, all.length - colonies.length));
-  const meanContrast =
-    candidates.reduce((s, c) => s + c.region.contrast, 0) / Math.max(1, candidates.length);
-  const edge = edgeWidthMm(cv, agar.deltaE, fg.mask, meanContrast, frame.mmPerPx);
+  const edge = edgeWidthMm(
+    candidates.map((c) => c.region),
+    frame.mmPerPx,
+  );
   if (edge !== null && edge > BLURRED_EDGE_MM)
     flags.push({ kind: 'out-of-focus', edgeWidthMm: round(edge, 3) });
   stage('focus', 1);

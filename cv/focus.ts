@@ -1,38 +1,35 @@
 import type { Keep } from './mat-scope.ts';
-import { withMats } from './mat-scope.ts';
 import type { Mat, OpenCv } from './opencv.ts';
 
 /**
- * Sharpness of colony edges, as an edge width in millimetres: the mean colony contrast divided by
- * the mean ΔE gradient along colony outlines. A step edge blurred by a Gaussian of σ has a
- * maximum slope of contrast / (σ·√(2π)), so this width grows in proportion to the blur, whatever
- * the colonies' colour. Returns null when there are no colonies to judge by.
+ * Focus, judged by colony edges. A step of height C blurred by a Gaussian of σ has a steepest
+ * slope of C / (σ·√(2π)), so C divided by the steepest slope is an edge width, 2.5·σ, whatever the
+ * colony's colour or contrast. Each colony gives one: its peak ΔE from the agar over the steepest
+ * ΔE slope inside it (the edge of a dome is its steepest part). The plate's edge width is the
+ * median over its colonies, in millimetres.
  */
+
+/** |∇ΔE| in ΔE per working pixel (CV_32F). Sobel's 3×3 kernel weighs the difference by 8. */
+export function deltaESlope(cv: OpenCv, keep: Keep, deltaE: Mat): Mat {
+  const gx = keep(new cv.Mat());
+  const gy = keep(new cv.Mat());
+  cv.Sobel(deltaE, gx, cv.CV_32F, 1, 0, 3);
+  cv.Sobel(deltaE, gy, cv.CV_32F, 0, 1, 3);
+  const slope = keep(new cv.Mat());
+  cv.magnitude(gx, gy, slope);
+  slope.convertTo(slope, cv.CV_32F, 1 / 8);
+  return slope;
+}
+
+/** Median edge width in mm over colonies `{ peak ΔE, steepest slope }`; null without any. */
 export function edgeWidthMm(
-  cv: OpenCv,
-  deltaE: Mat,
-  mask: Mat,
-  meanContrast: number,
+  colonies: readonly { peak: number; steepest: number }[],
   mmPerPx: number,
 ): number | null {
-  if (meanContrast <= 0 || cv.countNonZero(mask) === 0) return null;
-  return withMats((keep: Keep) => {
-    const gx = keep(new cv.Mat());
-    const gy = keep(new cv.Mat());
-    cv.Sobel(deltaE, gx, cv.CV_32F, 1, 0, 3);
-    cv.Sobel(deltaE, gy, cv.CV_32F, 0, 1, 3);
-    const g = keep(new cv.Mat());
-    cv.magnitude(gx, gy, g);
-    const k = keep(cv.getStructuringElement(cv.MORPH_ELLIPSE, new cv.Size(3, 3)));
-    const outer = keep(new cv.Mat());
-    const inner = keep(new cv.Mat());
-    cv.dilate(mask, outer, k);
-    cv.erode(mask, inner, k);
-    const ring = keep(new cv.Mat());
-    cv.subtract(outer, inner, ring);
-    // Sobel's 3×3 kernel weighs the central difference by 8 (2 per side × 4): undo it for ΔE/px.
-    const slope = cv.mean(g, ring)[0]! / 8;
-    if (slope <= 0) return null;
-    return (meanContrast / slope) * mmPerPx;
-  });
+  const widths = colonies
+    .filter((c) => c.steepest > 0 && c.peak > 0)
+    .map((c) => (c.peak / c.steepest) * mmPerPx)
+    .sort((a, b) => a - b);
+  if (widths.length === 0) return null;
+  return widths[widths.length >> 1]!;
 }

@@ -20,6 +20,9 @@ export interface RegionStats {
   contrast: number;
   /** Largest distance-map value inside the region: the radius of the biggest disc it holds. */
   halfWidth: number;
+  /** Largest ΔE from the agar in the region, and its steepest ΔE slope per pixel (focus.ts). */
+  peak: number;
+  steepest: number;
   component: number;
 }
 
@@ -42,6 +45,7 @@ export function measureRegions(
   lab8: Mat,
   background8: Mat,
   deltaE: Mat,
+  slope: Mat,
   rim: Mat,
 ): { regions: RegionStats[]; components: ComponentStats[] } {
   const n = regionCount + 1;
@@ -53,6 +57,9 @@ export function measureRegions(
   const sDe = new Float64Array(n);
   const comp = new Int32Array(n);
   const rHalf = new Float32Array(n);
+  const rPeak = new Float32Array(n);
+  const rSteep = new Float32Array(n);
+  const G = slope.data32F;
   const cArea = new Float64Array(componentCount + 1);
   const cHalf = new Float32Array(componentCount + 1);
   const cRim = new Int32Array(componentCount + 1);
@@ -83,6 +90,8 @@ export function measureRegions(
     }
     sDe[id]! += E[i]!;
     if (d[i]! > rHalf[id]!) rHalf[id] = d[i]!;
+    if (E[i]! > rPeak[id]!) rPeak[id] = E[i]!;
+    if (G[i]! > rSteep[id]!) rSteep[id] = G[i]!;
     comp[id] = ci;
   }
 
@@ -102,6 +111,8 @@ export function measureRegions(
       backgroundLab: lab8ToLab(sBg[3 * id]! / a, sBg[3 * id + 1]! / a, sBg[3 * id + 2]! / a),
       contrast: sDe[id]! / a,
       halfWidth: rHalf[id]!,
+      peak: rPeak[id]!,
+      steepest: rSteep[id]!,
       component: comp[id]!,
     });
   }
