@@ -56,4 +56,5 @@ test('the demo is one tap away, marked as demo data, with photos, counts and fit
   // Back home, the demo is opened again rather than set up twice.
   await page.getByRole('link', { name: 'Back' }).tap();
   await expect(page.getByRole('button', { name: 'Open the demo' })).toBeVisible();
+  await shot(page, '23-home-with-demo');
 });

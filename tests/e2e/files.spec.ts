@@ -41,7 +41,7 @@ test('a plate CSV is imported into an experiment and its fitness computed; a bad
   await page.getByRole('link', { name: 'Files' }).tap();
   await page.getByRole('button', { name: 'Delete experiment' }).tap();
   await page.getByRole('button', { name: 'Tap again to delete it all' }).tap();
-  await expect(page.getByText('No experiments on this device yet.')).toBeVisible();
+  await expect(page.getByText('No experiments of your own on this device yet.')).toBeVisible();
 });
 
 test('a file that is not a photo, or an empty one, gets a message naming it and nothing breaks', async ({

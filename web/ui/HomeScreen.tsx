@@ -90,8 +90,8 @@ export function HomeScreen() {
               }}
             />
           )}
-          {list.length === 0 && !creating && (
-            <p className="muted">No experiments on this device yet.</p>
+          {!list.some((e) => !e.demo) && !creating && (
+            <p className="muted">No experiments of your own on this device yet.</p>
           )}
           <ul className="plates" style={{ listStyle: 'none', padding: 0 }}>
             {list
