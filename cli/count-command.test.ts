@@ -5,22 +5,15 @@ import sharp from 'sharp';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { readTruth } from '../fixtures/plate-files.ts';
 import { scoreDetections } from '../fixtures/score.ts';
-import type { CommandIo } from './io.ts';
+import { capturedIo } from './captured-io.ts';
 import { main } from './main.ts';
 
 const DEMO = 'fixtures/demo';
 
 async function runCount(args: string[]) {
-  const out: string[] = [];
-  const err: string[] = [];
-  const io: CommandIo = {
-    out: (t) => out.push(t),
-    err: (t) => err.push(t),
-    isTty: false,
-    cwd: '.',
-  };
+  const io = capturedIo('.');
   const code = await main(['count', ...args], io);
-  return { code, out: out.join(''), err: err.join('\n') };
+  return { code, out: io.stdout(), err: io.stderr() };
 }
 
 describe('rivalplate count on the demo plates', () => {

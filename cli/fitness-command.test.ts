@@ -4,8 +4,8 @@ import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { promisify } from 'node:util';
 import { afterAll, describe, expect, it } from 'vitest';
+import { capturedIo } from './captured-io.ts';
 import { run } from './fitness-command.ts';
-import type { CommandIo } from './io.ts';
 import { main } from './main.ts';
 
 const ROOT = resolve(import.meta.dirname, '..');
@@ -13,18 +13,7 @@ const EXAMPLE = 'fixtures/example-competition.csv';
 const dir = mkdtempSync(join(tmpdir(), 'rivalplate-fitness-'));
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
-function capture(cwd = ROOT): CommandIo & { stdout: () => string; stderr: () => string } {
-  const out: string[] = [];
-  const err: string[] = [];
-  return {
-    out: (t) => out.push(t),
-    err: (t) => err.push(t),
-    isTty: false,
-    cwd,
-    stdout: () => out.join(''),
-    stderr: () => err.join('\n'),
-  };
-}
+const capture = (cwd = ROOT) => capturedIo(cwd);
 
 const HEADER =
   'assay,group,line,generation,replicate,sample,dilution_fold,volume_ul,test_colonies,reference_colonies,fold_dilution_since_start';
