@@ -7,6 +7,7 @@ import type {
   Stamp,
 } from '../../schema/records.ts';
 import type { Colony, Palette, PlateAnalysis, QualityFlag } from '../../worker/types.ts';
+import { NEUTRAL_LOOKS } from '../bench/colours.ts';
 
 /** Words for the image-quality flags, shown beside the counts they concern. */
 function flagText(flag: QualityFlag): FlagRecord {
@@ -49,11 +50,6 @@ function flagText(flag: QualityFlag): FlagRecord {
   }
 }
 
-const FALLBACK_CLASSES: [ClassRecord, ClassRecord] = [
-  { cls: 0, name: 'colour 1', hex: '#3f6fb0', deltaLab: [0, 0, 0] },
-  { cls: 1, name: 'colour 2', hex: '#efe6cf', deltaLab: [0, 0, 0] },
-];
-
 /** The stored record of one analysis (original photo pixels), colonies numbered in found order. */
 export function analysisRecord(
   a: PlateAnalysis,
@@ -79,7 +75,7 @@ export function analysisRecord(
     const k = a.classes.find((c) => c.cls === i);
     return k
       ? { cls: i, name: k.name, hex: k.hex, deltaLab: [...k.deltaLab] }
-      : FALLBACK_CLASSES[i];
+      : { cls: i, ...NEUTRAL_LOOKS[i], deltaLab: [0, 0, 0] };
   };
   return {
     ...stamp,
