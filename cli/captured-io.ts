@@ -13,5 +13,6 @@ export function capturedIo(
     cwd,
     stdout: () => out.join(''),
     stderr: () => err.join('\n'),
+    printed: () => [...out],
   };
 }

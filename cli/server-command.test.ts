@@ -5,7 +5,7 @@ import { afterEach, describe, expect, it } from 'vitest';
 import { DATABASE_FILE } from '../server/data-folder.ts';
 import { tokenHash } from '../server/tokens.ts';
 import { tempDir } from '../tests/sync/harness.ts';
-import type { CommandIo } from './io.ts';
+import { capturedIo } from './captured-io.ts';
 import { run } from './server-command.ts';
 
 const dirs: string[] = [];
@@ -13,17 +13,9 @@ afterEach(() => {
   for (const d of dirs.splice(0)) rmSync(d, { recursive: true, force: true });
 });
 
-function captured(cwd: string): CommandIo & { text: () => string; errors: () => string } {
-  const out: string[] = [];
-  const err: string[] = [];
-  return {
-    out: (t) => out.push(t),
-    err: (t) => err.push(t),
-    isTty: false,
-    cwd,
-    text: () => out.join('\n'),
-    errors: () => err.join('\n'),
-  };
+function captured(cwd: string) {
+  const io = capturedIo(cwd);
+  return { ...io, text: () => io.printed().join('\n'), errors: io.stderr };
 }
 
 describe('rivalplate server add-lab / add-token', () => {
