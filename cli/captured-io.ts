@@ -3,7 +3,7 @@ import type { CommandIo } from './io.ts';
 /** A CommandIo that keeps what a command prints, for tests and for callers embedding a command. */
 export function capturedIo(
   cwd: string,
-): CommandIo & { stdout: () => string; stderr: () => string } {
+): CommandIo & { stdout: () => string; stderr: () => string; printed: () => string[] } {
   const out: string[] = [];
   const err: string[] = [];
   return {
