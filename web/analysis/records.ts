@@ -25,7 +25,7 @@ function flagText(flag: QualityFlag): FlagRecord {
     case 'clumps-estimated':
       return {
         kind: flag.kind,
-        detail: `${flag.clumps} clumps counted from their area as ${flag.colonies} colonies.`,
+        detail: `${flag.clumps} clumps that could not be split, counted from their shape as ${flag.colonies} colonies.`,
       };
     case 'low-confidence':
       return {
@@ -36,6 +36,11 @@ function flagText(flag: QualityFlag): FlagRecord {
       return {
         kind: flag.kind,
         detail: `The photo looks out of focus (edges ${flag.edgeWidthMm.toFixed(2)} mm wide).`,
+      };
+    case 'colour-outliers':
+      return {
+        kind: flag.kind,
+        detail: `${flag.colonies} blobs of neither marker colour left out: check them.`,
       };
     case 'one-colour':
       return { kind: flag.kind, detail: `One colour only: ${flag.reason}` };
