@@ -1,3 +1,4 @@
+import { deltaE76 } from './colour.ts';
 import type { ComponentStats, RegionStats } from './measure.ts';
 
 /**
@@ -102,7 +103,7 @@ export function selectCandidates(
     // pixels stray both ways: its mean colour must differ from the agar as much as its pixels do.
     if (
       r.contrast < threshold ||
-      meanColourDifference(r) < MEAN_DIFFERENCE * threshold ||
+      deltaE76(r.lab, r.backgroundLab) < MEAN_DIFFERENCE * threshold ||
       (r.area < 2 * minArea && r.contrast < SMALL_CONTRAST * threshold)
     ) {
       rejected.specks++;
@@ -189,14 +190,6 @@ function componentVerdict(
   }
   if (c.rimPixels > 0 && c.halfWidth < WALL_THINNESS * typicalRadius) return 'wall';
   return 'keep';
-}
-
-function meanColourDifference(r: RegionStats): number {
-  return Math.hypot(
-    r.lab[0] - r.backgroundLab[0],
-    r.lab[1] - r.backgroundLab[1],
-    r.lab[2] - r.backgroundLab[2],
-  );
 }
 
 /** Lighter than the agar and untinted: the fading edge of lid glare, next to a glare patch. */

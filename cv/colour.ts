@@ -1,11 +1,11 @@
 import type { Lab } from './types.ts';
 
 /**
- * sRGB (IEC 61966-2-1, D65) to CIE L*a*b* and the CIEDE2000 colour difference.
+ * sRGB (IEC 61966-2-1, D65) and CIE L*a*b*, one colour at a time.
  *
- * opencv's 8-bit COLOR_RGB2Lab quantises L*, a*, b* to bytes; these scalar functions are the
- * exact reference used for per-colony colours (a few hundred values per plate), for palettes and
- * for tests. Input channels are 0..255; L* is 0..100.
+ * Images go through opencv's 8-bit COLOR_RGB2Lab; these scalar functions turn colony colours back
+ * into hex for display (labToHex), measure colour differences (ΔE*ab) and are the exact reference
+ * the opencv conversion is tested against. Input channels are 0..255; L* is 0..100.
  */
 
 // D65 reference white, 2° observer (as in scikit-image's colorconv).
@@ -78,57 +78,6 @@ function hueDeg(b: number, a: number): number {
   if (a === 0 && b === 0) return 0;
   const h = Math.atan2(b, a) / DEG;
   return h < 0 ? h + 360 : h;
-}
-
-/**
- * CIEDE2000 colour difference, kL = kC = kH = 1.
- * Sharma, Wu & Dalal (2005), "The CIEDE2000 color-difference formula: implementation notes,
- * supplementary test data, and mathematical observations", Color Res. Appl. 30:21–30.
- */
-export function deltaE2000(p: Lab, q: Lab): number {
-  const [L1, a1, b1] = p;
-  const [L2, a2, b2] = q;
-  const Cbar = (Math.hypot(a1, b1) + Math.hypot(a2, b2)) / 2;
-  const G = 0.5 * (1 - Math.sqrt(Cbar ** 7 / (Cbar ** 7 + 25 ** 7)));
-  const a1p = (1 + G) * a1;
-  const a2p = (1 + G) * a2;
-  const C1p = Math.hypot(a1p, b1);
-  const C2p = Math.hypot(a2p, b2);
-  const h1p = hueDeg(b1, a1p);
-  const h2p = hueDeg(b2, a2p);
-
-  const dLp = L2 - L1;
-  const dCp = C2p - C1p;
-  let dhp = 0;
-  if (C1p * C2p !== 0) {
-    dhp = h2p - h1p;
-    if (dhp > 180) dhp -= 360;
-    else if (dhp < -180) dhp += 360;
-  }
-  const dHp = 2 * Math.sqrt(C1p * C2p) * Math.sin((dhp / 2) * DEG);
-
-  const Lbp = (L1 + L2) / 2;
-  const Cbp = (C1p + C2p) / 2;
-  let hbp = h1p + h2p;
-  if (C1p * C2p !== 0) {
-    if (Math.abs(h1p - h2p) <= 180) hbp /= 2;
-    else hbp = h1p + h2p < 360 ? (hbp + 360) / 2 : (hbp - 360) / 2;
-  }
-  const T =
-    1 -
-    0.17 * Math.cos((hbp - 30) * DEG) +
-    0.24 * Math.cos(2 * hbp * DEG) +
-    0.32 * Math.cos((3 * hbp + 6) * DEG) -
-    0.2 * Math.cos((4 * hbp - 63) * DEG);
-  const dTheta = 30 * Math.exp(-(((hbp - 275) / 25) ** 2));
-  const Rc = 2 * Math.sqrt(Cbp ** 7 / (Cbp ** 7 + 25 ** 7));
-  const Sl = 1 + (0.015 * (Lbp - 50) ** 2) / Math.sqrt(20 + (Lbp - 50) ** 2);
-  const Sc = 1 + 0.045 * Cbp;
-  const Sh = 1 + 0.015 * Cbp * T;
-  const Rt = -Math.sin(2 * dTheta * DEG) * Rc;
-  return Math.sqrt(
-    (dLp / Sl) ** 2 + (dCp / Sc) ** 2 + (dHp / Sh) ** 2 + Rt * (dCp / Sc) * (dHp / Sh),
-  );
 }
 
 /** Chroma C*ab and hue angle h_ab in degrees [0, 360). */

@@ -1,3 +1,4 @@
+import { deltaE76 } from './colour.ts';
 import type { Keep } from './mat-scope.ts';
 import { withMats } from './mat-scope.ts';
 import type { Mat, OpenCv } from './opencv.ts';
@@ -171,7 +172,7 @@ function edgePoints(lab: Mat, c: { x: number; y: number }, radius: number): [num
     for (let rr = radius * 0.75; rr <= radius * 1.3; rr += step) {
       const v = at(c.x + dx * rr, c.y + dy * rr);
       if (!v) break;
-      away.push(Math.hypot(v[0] - ref[0]!, v[1] - ref[1]!, v[2] - ref[2]!) > EDGE_DELTA_E);
+      away.push(deltaE76(v, [ref[0]!, ref[1]!, ref[2]!]) > EDGE_DELTA_E);
     }
     const k = firstSustained(away, runSamples);
     if (k >= 0) {
