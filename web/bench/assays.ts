@@ -1,25 +1,15 @@
-import type {
-  Assay,
-  ClassIndex,
-  Experiment,
-  Plate,
-  Sample,
-  Timepoint,
-} from '../../schema/records.ts';
+import type { Assay, Experiment, Plate, Sample, Timepoint } from '../../schema/records.ts';
 import { newStamp } from '../storage/stamp.ts';
 
-export interface AssayDraft {
-  line: string;
-  generation: number;
-  replicate: number;
-  group: string;
-  testClass: ClassIndex;
-  foldDilutionSinceStart: number;
-  days: number;
+/** What the assay form edits: the assay's own fields, and the dilutions of its two plates. */
+export type AssayDraft = Pick<
+  Assay,
+  'line' | 'generation' | 'replicate' | 'group' | 'testClass' | 'foldDilutionSinceStart' | 'days'
+> & {
   startDilutionFold: number;
   endDilutionFold: number;
   volumeUl: number;
-}
+};
 
 export interface NewAssay {
   assay: Assay;

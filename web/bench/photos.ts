@@ -2,6 +2,11 @@ import type { Photo, Plate } from '../../schema/records.ts';
 import type { RecordStore } from '../storage/record-store.ts';
 import { newStamp, revised } from '../storage/stamp.ts';
 
+/** A new photo record of a plate, not yet read (no preview, size unknown). */
+export function newPhoto(plate: Plate, blob: Blob, name: string): Photo {
+  return { ...newStamp(), plateId: plate.id, name, blob, preview: null, width: null, height: null };
+}
+
 /**
  * Keeps a new photo of a plate as soon as it is taken, before any analysis, so it survives the
  * tab closing. The plate's earlier photo, its analyses and corrections are then deleted.
@@ -12,15 +17,7 @@ export async function attachPhoto(
   blob: Blob,
   name: string,
 ): Promise<{ plate: Plate; photo: Photo }> {
-  const photo: Photo = {
-    ...newStamp(),
-    plateId: plate.id,
-    name,
-    blob,
-    preview: null,
-    width: null,
-    height: null,
-  };
+  const photo = newPhoto(plate, blob, name);
   const [analyses, corrections] = await Promise.all([
     store.children('analyses', plate.id),
     store.children('corrections', plate.id),

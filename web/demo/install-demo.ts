@@ -1,7 +1,8 @@
 import type { Assay, Photo } from '../../schema/records.ts';
 import { type PlateWorker, readPlate } from '../analysis/plate-reading.ts';
+import { newPhoto } from '../bench/photos.ts';
 import type { RecordStore } from '../storage/record-store.ts';
-import { newStamp, revised } from '../storage/stamp.ts';
+import { revised } from '../storage/stamp.ts';
 import { demoSeed } from './demo-experiment.ts';
 
 /**
@@ -22,15 +23,7 @@ export async function installDemo(
     const res = await fetch(`demo/${encodeURIComponent(name)}`);
     if (!res.ok) throw new Error(`demo plate ${name}: HTTP ${res.status}`);
     const blob = await res.blob();
-    const photo: Photo = {
-      ...newStamp(),
-      plateId: plate.id,
-      name,
-      blob,
-      preview: null,
-      width: null,
-      height: null,
-    };
+    const photo = newPhoto(plate, blob, name);
     plate.photoId = photo.id;
     photos.push(photo);
   }
