@@ -7,7 +7,7 @@
 import { KINDS, RECORD_KINDS } from '../../schema/kinds.ts';
 import type { RecordKind, RecordsByKind } from '../../schema/records.ts';
 import type { RecordStore } from '../storage/record-store.ts';
-import type { SyncState } from './sync-state.ts';
+import { type SyncState, upsertEntry } from './sync-state.ts';
 
 export function recordingStore(
   inner: RecordStore,
@@ -20,16 +20,7 @@ export function recordingStore(
     kind: K,
     record: RecordsByKind[K],
   ): Promise<void> {
-    const { id, revision, updatedAt } = record;
-    await state.queue({
-      kind,
-      id,
-      revision,
-      updatedAt,
-      deleted: false,
-      body: record,
-      queuedAt: now().toISOString(),
-    });
+    await state.queue(upsertEntry(kind, record, now().toISOString()));
   }
 
   return {

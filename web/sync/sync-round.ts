@@ -13,7 +13,7 @@ import {
 } from '../../schema/sync-protocol.ts';
 import type { RecordStore } from '../storage/record-store.ts';
 import { planPulled } from './plan-pulled.ts';
-import type { SyncState } from './sync-state.ts';
+import { type SyncState, upsertEntry } from './sync-state.ts';
 import type { SyncFailure, SyncTransport } from './transport.ts';
 
 export interface RoundCounts {
@@ -153,16 +153,7 @@ export async function rescan(records: RecordStore, state: SyncState, now: Date):
       const known = await state.known(kind, record.id);
       if ((known && known.revision >= record.revision) || (await state.isWaiting(kind, record.id)))
         continue;
-      const { id, revision, updatedAt } = record;
-      await state.queue({
-        kind,
-        id,
-        revision,
-        updatedAt,
-        deleted: false,
-        body: record,
-        queuedAt: now.toISOString(),
-      });
+      await state.queue(upsertEntry(kind, record, now.toISOString()));
       queued += 1;
     }
   }

@@ -5,7 +5,7 @@
  * resolves only once its transaction has completed, so a queued change survives a reload.
  */
 import { type DBSchema, type IDBPDatabase, openDB } from 'idb';
-import type { RecordKind } from '../../schema/records.ts';
+import type { RecordKind, RecordsByKind } from '../../schema/records.ts';
 import type { Change, Receipt, Revision } from '../../schema/sync-protocol.ts';
 
 /**
@@ -13,6 +13,16 @@ import type { Change, Receipt, Revision } from '../../schema/sync-protocol.ts';
  * the server refused on its own (`refusal`) stays here, out of the pushes, until it is edited.
  */
 export type OutboxEntry = Omit<Change, 'replaces'> & { queuedAt: string; refusal?: string };
+
+/** The outbox entry that sends a stored record as it now is. */
+export function upsertEntry<K extends RecordKind>(
+  kind: K,
+  record: RecordsByKind[K],
+  queuedAt: string,
+): OutboxEntry {
+  const { id, revision, updatedAt } = record;
+  return { kind, id, revision, updatedAt, deleted: false, body: record, queuedAt };
+}
 
 /**
  * What the phone knows the server holds of a record: the heads its next edit replaces, and the
