@@ -30,6 +30,13 @@ export interface AnalyseResult {
   preview: Blob;
 }
 
+export interface PhotoPreview {
+  preview: Blob;
+  /** Upright size of the original photo. */
+  width: number;
+  height: number;
+}
+
 const api = {
   /** Starts opencv.js ahead of the first plate. */
   async warmUp(): Promise<void> {
@@ -54,6 +61,15 @@ const api = {
       analysis: analysisToOriginal(analysis, decoded.k, decoded.width, decoded.height),
       preview: decoded.preview,
     };
+  },
+
+  /**
+   * The screen preview and upright size of a photo that was read on another phone, so its
+   * analysis can be reviewed here without reading the plate again.
+   */
+  async preview(photo: Blob, name: string): Promise<PhotoPreview> {
+    const { preview, width, height } = await decodePhoto(photo, name);
+    return { preview, width, height };
   },
 
   /**

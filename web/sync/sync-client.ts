@@ -21,7 +21,7 @@ import {
 import { describeFailure, isPassing, OFF, type SyncProblem, type SyncStatus } from './status.ts';
 import { rescan, syncRound } from './sync-round.ts';
 import type { ConflictEntry, SyncSettings, SyncState } from './sync-state.ts';
-import { createTransport, type SyncTransport } from './transport.ts';
+import { createTransport, type Outcome, type SyncTransport } from './transport.ts';
 
 export interface SyncClientOptions {
   /** The app's own store. */
@@ -38,6 +38,8 @@ export interface SyncClientOptions {
 export interface SyncClient {
   /** The app's store with every synced change queued for the server: use it for all writes. */
   records: RecordStore;
+  /** This phone's id, as the server records it with each revision. */
+  device: string;
   status(): SyncStatus;
   subscribe(listener: (status: SyncStatus) => void): () => void;
   /** Checks the server and token, then turns sync on; the problem when they do not work. */
@@ -52,6 +54,8 @@ export interface SyncClient {
     id: string,
     chosen: RecordsByKind[K] | null,
   ): Promise<void>;
+  /** A plate photo another phone uploaded, fetched from the lab server. */
+  fetchPhoto(photoId: string): Promise<Outcome<Blob>>;
   /** Resolves a conflict of corrections by merging every head's taps. */
   mergeCorrections(id: string): Promise<CorrectionsMerge>;
   stop(): void;
@@ -225,6 +229,7 @@ export async function createSyncClient(options: SyncClientOptions): Promise<Sync
 
   return {
     records,
+    device: await state.meta('device'),
     status: () => current,
     subscribe(listener) {
       listeners.add(listener);
@@ -254,6 +259,24 @@ export async function createSyncClient(options: SyncClientOptions): Promise<Sync
       const conflict = await findConflict(kind, id);
       if (!conflict) return;
       await resolveWith(kind, id, chosen, conflict);
+    },
+    async fetchPhoto(photoId) {
+      if (!transport)
+        return {
+          ok: false,
+          failure: { code: 'unreachable', message: 'this phone is not sharing with a lab server' },
+        };
+      const got = await transport.photo(photoId);
+      // The server has it already: it is never sent back.
+      if (got.ok)
+        await state.setKnown({
+          kind: 'photos',
+          id: photoId,
+          hashes: [],
+          revision: 1,
+          deleted: false,
+        });
+      return got;
     },
     async mergeCorrections(id) {
       const conflict = await findConflict('corrections', id);

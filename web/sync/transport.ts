@@ -40,6 +40,8 @@ export interface SyncTransport {
     offset: number,
     bytes: Uint8Array<ArrayBuffer>,
   ): Promise<Outcome<PhotoUploadState>>;
+  /** A photo another phone uploaded, as its bytes. */
+  photo(photoId: string): Promise<Outcome<Blob>>;
 }
 
 /** A phone on a poor network waits this long for an answer before counting the server unreachable. */
@@ -65,9 +67,13 @@ export function createTransport(
 ): SyncTransport {
   const base = settings.serverUrl.replace(/\/+$/, '') + SYNC_BASE_PATH;
 
-  async function call<T>(
+  /**
+   * Sends one request. A refusal comes back parsed from the server's error body; a success is
+   * handed to `read`. A connection that fails before or while the answer arrives is `unreachable`.
+   */
+  async function exchange<T>(
     path: string,
-    check: Check<T>,
+    read: (res: Response) => Promise<Outcome<T>>,
     init: { method?: string; json?: unknown; bytes?: Uint8Array<ArrayBuffer> } = {},
   ): Promise<Outcome<T>> {
     const headers: Record<string, string> = { authorization: `Bearer ${settings.token}` };
@@ -88,6 +94,7 @@ export function createTransport(
         body,
         signal: AbortSignal.timeout(timeoutMs),
       });
+      if (res.ok) return await read(res);
       text = await res.text();
     } catch (e) {
       return {
@@ -98,6 +105,14 @@ export function createTransport(
         },
       };
     }
+    const refusal = parseJson(text, res, checkErrorBody, 'error');
+    return refusal.ok
+      ? { ok: false, failure: { code: refusal.value.error, message: refusal.value.message } }
+      : refusal;
+  }
+
+  /** Reads a JSON answer, or says the server is not answering as a sync server does. */
+  function parseJson<T>(text: string, res: Response, check: Check<T>, what: string): Outcome<T> {
     let raw: unknown;
     try {
       raw = JSON.parse(text);
@@ -111,16 +126,26 @@ export function createTransport(
         },
       };
     }
-    if (!res.ok) {
-      const refusal = checked(checkErrorBody, raw, 'error');
+    return checked(check, raw, what);
+  }
+
+  const call = <T>(
+    path: string,
+    check: Check<T>,
+    init?: { method?: string; json?: unknown; bytes?: Uint8Array<ArrayBuffer> },
+  ) => exchange(path, async (res) => parseJson(await res.text(), res, check, 'answer'), init);
+
+  async function readPhoto(res: Response): Promise<Outcome<Blob>> {
+    const type = res.headers.get('content-type') ?? '';
+    if (!type.startsWith('image/'))
       return {
         ok: false,
-        failure: refusal.ok
-          ? { code: refusal.value.error, message: refusal.value.message }
-          : refusal.failure,
+        failure: {
+          code: 'bad-answer',
+          message: `the server sent ${type || 'no type'}, not a photo`,
+        },
       };
-    }
-    return checked(check, raw, 'answer');
+    return { ok: true, value: await res.blob() };
   }
 
   return {
@@ -135,5 +160,6 @@ export function createTransport(
         method: 'PUT',
         bytes,
       }),
+    photo: (photoId) => exchange(`/photos/${encodeURIComponent(photoId)}`, readPhoto),
   };
 }

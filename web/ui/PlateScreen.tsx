@@ -1,4 +1,5 @@
 import type { DishRecord } from '../../schema/records.ts';
+import { fetchPlatePhoto } from '../analysis/fetched-photo.ts';
 import { readPlate } from '../analysis/plate-reading.ts';
 import { useReading } from '../analysis/use-reading.ts';
 import { hrefOf } from '../app/route.ts';
@@ -7,13 +8,14 @@ import { useLive } from '../app/use-live.ts';
 import { attachPhoto } from '../bench/photos.ts';
 import { loadPlate } from '../bench/plate-data.ts';
 import { ensureRoomFor } from '../storage/quota.ts';
+import type { SyncClient } from '../sync/sync-client.ts';
 import { PhotoSource } from './PhotoSource.tsx';
 import { ReadingStatus } from './ReadingStatus.tsx';
 import { ReviewPanel } from './ReviewPanel.tsx';
 import { TopBar } from './TopBar.tsx';
 
 export function PlateScreen({ experimentId, plateId }: { experimentId: string; plateId: string }) {
-  const { store, worker } = useServices();
+  const { store, worker, sync } = useServices();
   const live = useLive((s) => loadPlate(s.store, plateId), [plateId]);
   const { reading, start, cancel } = useReading();
   const back = hrefOf({ screen: 'experiment', id: experimentId, tab: 'assays' });
@@ -51,13 +53,32 @@ export function PlateScreen({ experimentId, plateId }: { experimentId: string; p
       await readPlate(store, worker, d.experiment, plate, photo, { signal, onProgress });
     });
 
+  // Photographed and read on another phone: its photo waits on the lab server.
+  const sharing = sync && sync.status().phase !== 'off' ? sync : null;
+  const elsewhere = !d.photo && Boolean(d.plate.photoId) && sharing !== null;
+  const fetchPhoto = (from: SyncClient) =>
+    start(async (_signal, onProgress) => {
+      onProgress('fetch', 0);
+      await fetchPlatePhoto(store, worker, from, d.plate);
+    });
+
   return (
     <>
       <TopBar title={title} back={back} />
       {d.experiment.demo && <div className="demo-banner">DEMO DATA</div>}
       <main>
         <ReadingStatus reading={reading} onCancel={cancel} />
-        {!d.photo && reading.state !== 'running' && <PhotoSource onPhoto={takePhoto} />}
+        {sharing && elsewhere && reading.state !== 'running' && (
+          <section className="card stack">
+            <p>This plate was photographed on another phone; its photo is on the lab server.</p>
+            <button type="button" className="btn primary" onClick={() => fetchPhoto(sharing)}>
+              Fetch the photo
+            </button>
+          </section>
+        )}
+        {!d.photo && !elsewhere && reading.state !== 'running' && (
+          <PhotoSource onPhoto={takePhoto} />
+        )}
         {d.photo && !d.analysis && reading.state !== 'running' && (
           <section className="card stack">
             <p>The photo {d.photo.name} is kept on this device but not read yet.</p>
@@ -75,7 +96,7 @@ export function PlateScreen({ experimentId, plateId }: { experimentId: string; p
             onReread={read}
           />
         )}
-        {d.photo && reading.state !== 'running' && (
+        {(d.photo || elsewhere) && reading.state !== 'running' && (
           <details className="card">
             <summary style={{ minHeight: 40 }}>Replace the photo</summary>
             <PhotoSource onPhoto={takePhoto} />

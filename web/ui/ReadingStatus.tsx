@@ -3,6 +3,7 @@ import type { Reading } from '../analysis/use-reading.ts';
 /** Words for the stages the worker and the analysis core report (cv/analyze.ts names them). */
 const STAGE_WORDS: Record<string, string> = {
   starting: 'Starting',
+  fetch: 'Fetching the photo from the lab server',
   decode: 'Opening the photo',
   opencv: 'Loading the plate reader',
   load: 'Loading the plate reader',
