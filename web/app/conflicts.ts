@@ -2,31 +2,58 @@ import type { RecordKind } from '../../schema/records.ts';
 import { restoreRecord } from '../../schema/restore.ts';
 import type { SyncClient } from '../sync/sync-client.ts';
 
-/**
- * Settles a record edited on two phones. Corrections merge both people's taps; any other record
- * keeps its most recent edit (a deletion included). Resolves to a sentence for the person.
- */
-export async function settleConflict(
+/** One phone's version of a record edited on two phones, as the person chooses between them. */
+export interface ConflictChoice {
+  hash: string;
+  updatedAt: string;
+  deleted: boolean;
+  /** Made on this phone. */
+  mine: boolean;
+}
+
+/** The versions of a conflicted record, oldest first. */
+export async function conflictChoices(
   sync: SyncClient,
   kind: RecordKind,
   id: string,
-): Promise<string> {
-  if (kind === 'corrections') {
-    const merged = await sync.mergeCorrections(id);
-    if (!merged.ok) throw new Error(merged.message);
-    return merged.disagreements.length
-      ? `Taps merged; ${merged.disagreements.length} colonies were switched differently on the two phones (the later switch kept).`
-      : 'Taps from both phones merged.';
-  }
+): Promise<ConflictChoice[]> {
   const entry = await sync.conflict(kind, id);
-  if (!entry) return 'Already settled.';
-  const latest = [...entry.heads].sort((a, b) => a.updatedAt.localeCompare(b.updatedAt)).at(-1)!;
-  if (latest.deleted) {
+  return (entry?.heads ?? [])
+    .map((h) => ({
+      hash: h.hash,
+      updatedAt: h.updatedAt,
+      deleted: h.deleted,
+      mine: h.device === sync.device,
+    }))
+    .sort((a, b) => a.updatedAt.localeCompare(b.updatedAt));
+}
+
+/** Settles a conflict with one phone's version (a deletion included); a sentence for the person. */
+export async function keepVersion(
+  sync: SyncClient,
+  kind: RecordKind,
+  id: string,
+  hash: string,
+): Promise<string> {
+  const entry = await sync.conflict(kind, id);
+  const head = entry?.heads.find((h) => h.hash === hash);
+  if (!head) return 'Already settled.';
+  const when = new Date(head.updatedAt).toLocaleString();
+  if (head.deleted) {
     await sync.resolve(kind, id, null);
-    return 'Kept the latest edit: the record was deleted.';
+    return `Kept the deletion made ${when}.`;
   }
-  const r = restoreRecord(kind, latest.body, `${kind} ${id} from the server`);
+  const r = restoreRecord(kind, head.body, `${kind} ${id} from the server`);
   if (!r.ok) throw new Error(r.error);
   await sync.resolve(kind, id, r.record);
-  return `Kept the latest edit (from ${new Date(latest.updatedAt).toLocaleString()}).`;
+  return `Kept the version saved ${when}.`;
+}
+
+/** Settles a conflict of colony corrections by keeping both phones' taps. */
+export async function mergeTaps(sync: SyncClient, id: string): Promise<string> {
+  const merged = await sync.mergeCorrections(id);
+  if (!merged.ok) throw new Error(merged.message);
+  return merged.disagreements.length
+    ? `Taps merged; ${merged.disagreements.length} colonies were switched differently on the two phones (the later switch kept).`
+    : 'Taps from both phones merged.';
 }

@@ -1,7 +1,7 @@
 import { useEffect, useState } from 'react';
-import { settleConflict } from '../app/conflicts.ts';
 import { useServices } from '../app/services.ts';
 import type { SyncStatus } from '../sync/status.ts';
+import { ConflictRow } from './ConflictRow.tsx';
 
 const PHASE_WORDS: Record<SyncStatus['phase'], string> = {
   off: 'Not shared: everything stays on this phone.',
@@ -46,18 +46,14 @@ export function SyncCard() {
         </p>
       )}
       {status.conflicts.map((c) => (
-        <div key={`${c.kind}/${c.id}`} className="row spread banner">
-          <span>
-            A {c.kind.replace(/s$/, '')} record was changed on {c.heads} phones.
-          </span>
-          <button
-            type="button"
-            className="btn"
-            onClick={() => act(() => settleConflict(sync, c.kind, c.id))}
-          >
-            {c.kind === 'corrections' ? 'Merge the taps' : 'Keep the latest'}
-          </button>
-        </div>
+        <ConflictRow
+          key={`${c.kind}/${c.id}`}
+          sync={sync}
+          kind={c.kind}
+          id={c.id}
+          heads={c.heads}
+          onSettled={(work) => act(work)}
+        />
       ))}
       {status.phase === 'off' ? (
         <details>
