@@ -21,12 +21,19 @@ export function requireLabToken(scope: FastifyInstance, store: SyncStore): void 
     const token = bearerToken(request.headers.authorization);
     if (!token)
       throw new SyncRefusal('no-token', 'send the lab token as "Authorization: Bearer <token>"');
-    const lab = await store.labForToken(tokenHash(token));
-    if (!lab)
+    // Asked of the store on every request, never remembered: a token revoked from the command
+    // line is refused from the next request on, by a server that was running all along.
+    const access = await store.tokenAccess(tokenHash(token));
+    if (!access)
       throw new SyncRefusal(
         'bad-token',
         'this token is not known to the server: ask for a new one',
       );
-    request.lab = lab;
+    if (access.revokedAt !== null)
+      throw new SyncRefusal(
+        'bad-token',
+        `this token was revoked on ${access.revokedAt.slice(0, 10)}: ask the lab for a new one`,
+      );
+    request.lab = access.lab;
   });
 }

@@ -20,3 +20,16 @@ export function bearerToken(header: string | undefined): string | null {
   const m = /^Bearer\s+(\S+)\s*$/i.exec(header ?? '');
   return m ? m[1]! : null;
 }
+
+/** Hex characters of the hash that name a token to its operator; 32 bits tell a lab's apart. */
+const ID_LENGTH = 8;
+
+/** A token's public id: the start of its hash, so tokens made before ids existed have one too. */
+export function tokenId(hash: string): string {
+  return hash.slice(0, ID_LENGTH);
+}
+
+/** True for text shaped like a token id (what `list-tokens` prints). */
+export function isTokenId(text: string): boolean {
+  return new RegExp(`^[0-9a-f]{${ID_LENGTH}}$`).test(text);
+}

@@ -7,11 +7,18 @@ import Database from 'better-sqlite3';
 import type { PulledRecord, PushResponse, Receipt, Revision } from '../../schema/sync-protocol.ts';
 import { headsAfter } from '../heads.ts';
 import { SyncRefusal } from '../refusal.ts';
-import type { HashedChange, Lab, LabSettings, SyncStore, Upload } from './sync-store.ts';
+import { tokenId } from '../tokens.ts';
+import type {
+  HashedChange,
+  Lab,
+  LabSettings,
+  SyncStore,
+  TokenAccess,
+  TokenInfo,
+  Upload,
+} from './sync-store.ts';
 
-/** Bumped with every change to the tables below; a file from a newer server is refused on open. */
-const SCHEMA_VERSION = 1;
-
+/** The tables of the first version; later versions change them by the steps in MIGRATIONS. */
 const TABLES = `
 CREATE TABLE labs (
   id INTEGER PRIMARY KEY,
@@ -70,11 +77,36 @@ CREATE TABLE chunks (
 );
 `;
 
+/**
+ * Step n brings a database from schema version n to n + 1 (user_version). A new file runs them
+ * all, so the path an existing file takes is the one every new file takes too. Steps are only
+ * ever appended: a released step is part of files in the field.
+ */
+const MIGRATIONS = [
+  TABLES,
+  // Tokens get a label, the day of their last use and a revocation time; existing tokens keep
+  // working, unlabelled and never revoked.
+  `ALTER TABLE tokens ADD COLUMN label TEXT;
+   ALTER TABLE tokens ADD COLUMN last_used_on TEXT;
+   ALTER TABLE tokens ADD COLUMN revoked_at TEXT;`,
+];
+
+/** A file from a newer server than this one is refused on open. */
+const SCHEMA_VERSION = MIGRATIONS.length;
+
 interface LabRow {
   id: number;
   name: string;
   photos_enabled: number;
   photo_max_bytes: number;
+}
+
+interface TokenRow {
+  hash: string;
+  label: string | null;
+  created_at: string;
+  last_used_on: string | null;
+  revoked_at: string | null;
 }
 
 interface RevisionRow {
@@ -109,6 +141,14 @@ const labFromRow = (r: LabRow): Lab => ({
   photoMaxBytes: r.photo_max_bytes,
 });
 
+const tokenFromRow = (r: TokenRow): TokenInfo => ({
+  id: tokenId(r.hash),
+  label: r.label,
+  createdAt: r.created_at,
+  lastUsedOn: r.last_used_on,
+  revokedAt: r.revoked_at,
+});
+
 const uploadFromRow = (r: UploadRow): Upload => ({
   photoId: r.photo_id,
   plateId: r.plate_id,
@@ -129,17 +169,18 @@ const revisionFromRow = (r: RevisionRow): Revision => ({
 });
 
 function migrate(db: Database.Database): void {
-  const version = db.pragma('user_version', { simple: true }) as number;
-  if (version > SCHEMA_VERSION)
-    throw new Error(
-      `the database was written by a newer server (schema ${version}, this one knows ${SCHEMA_VERSION})`,
-    );
-  if (version === 0) {
-    db.transaction(() => {
-      db.exec(TABLES);
-      db.pragma(`user_version = ${SCHEMA_VERSION}`);
-    })();
-  }
+  // IMMEDIATE takes the write lock before the version is read, so the command line and a server
+  // opening an old file at the same moment do not both run a step.
+  db.transaction(() => {
+    const version = db.pragma('user_version', { simple: true }) as number;
+    if (version > SCHEMA_VERSION)
+      throw new Error(
+        `the database was written by a newer server (schema ${version}, this one knows ${SCHEMA_VERSION})`,
+      );
+    if (version === SCHEMA_VERSION) return;
+    for (const step of MIGRATIONS.slice(version)) db.exec(step);
+    db.pragma(`user_version = ${SCHEMA_VERSION}`);
+  }).immediate();
 }
 
 /** A full disk or the size cap becomes the protocol's `storage-full`; the transaction rolled back. */
@@ -162,7 +203,13 @@ export function openSqliteStore(options: SqliteOptions): SyncStore {
   db.pragma('synchronous = FULL');
   db.pragma('foreign_keys = ON');
   db.pragma('busy_timeout = 5000');
-  migrate(db);
+  try {
+    migrate(db);
+  } catch (e) {
+    // A file this server cannot use (one from a newer server) is not held open by a failed start.
+    db.close();
+    throw e;
+  }
   if (options.maxBytes !== undefined) {
     const pageSize = db.pragma('page_size', { simple: true }) as number;
     db.pragma(`max_page_count = ${Math.max(1, Math.floor(options.maxBytes / pageSize))}`);
@@ -174,9 +221,23 @@ export function openSqliteStore(options: SqliteOptions): SyncStore {
     insertLab: db.prepare(
       'INSERT INTO labs (name, photos_enabled, photo_max_bytes, created_at) VALUES (?, ?, ?, ?)',
     ),
-    insertToken: db.prepare('INSERT INTO tokens (hash, lab_id, created_at) VALUES (?, ?, ?)'),
-    labByToken: db.prepare<[string], LabRow>(
-      'SELECT labs.* FROM tokens JOIN labs ON labs.id = tokens.lab_id WHERE tokens.hash = ?',
+    insertToken: db.prepare(
+      'INSERT INTO tokens (hash, lab_id, created_at, label) VALUES (?, ?, ?, ?)',
+    ),
+    token: db.prepare<[string], TokenRow>('SELECT * FROM tokens WHERE hash = ?'),
+    tokensOfLab: db.prepare<[number], TokenRow>(
+      'SELECT * FROM tokens WHERE lab_id = ? ORDER BY created_at, rowid',
+    ),
+    labByToken: db.prepare<
+      [string],
+      LabRow & { revoked_at: string | null; last_used_on: string | null }
+    >(
+      `SELECT labs.*, tokens.revoked_at, tokens.last_used_on
+       FROM tokens JOIN labs ON labs.id = tokens.lab_id WHERE tokens.hash = ?`,
+    ),
+    noteTokenUse: db.prepare('UPDATE tokens SET last_used_on = ? WHERE hash = ?'),
+    revokeToken: db.prepare(
+      'UPDATE tokens SET revoked_at = ? WHERE hash = ? AND revoked_at IS NULL',
     ),
     revisionExists: db.prepare<[number, string, string, string], { seq: number }>(
       'SELECT seq FROM revisions WHERE lab_id = ? AND kind = ? AND record_id = ? AND hash = ?',
@@ -219,6 +280,25 @@ export function openSqliteStore(options: SqliteOptions): SyncStore {
   };
 
   const now = () => new Date().toISOString();
+
+  /**
+   * Written at most once a day per token, so most requests only read. The day is a courtesy to
+   * the operator: a full or locked database must not refuse the request over it.
+   */
+  const noteTokenUse = (hash: string, day: string) => {
+    try {
+      q.noteTokenUse.run(day, hash);
+    } catch (e) {
+      if (!String((e as { code?: unknown }).code).startsWith('SQLITE_')) throw e;
+    }
+  };
+
+  const revokeAll = db.transaction((labId: number, id: string): TokenInfo[] => {
+    const matching = q.tokensOfLab.all(labId).filter((r) => tokenId(r.hash) === id);
+    const at = now();
+    for (const r of matching) q.revokeToken.run(at, r.hash);
+    return matching.map(tokenFromRow);
+  });
 
   const pushAll = db.transaction((labId: number, device: string, changes: HashedChange[]) => {
     const answer: PushResponse = { accepted: [], conflicts: [] };
@@ -296,12 +376,22 @@ export function openSqliteStore(options: SqliteOptions): SyncStore {
       const row = q.labByName.get(name);
       return row && labFromRow(row);
     },
-    async addToken(labId, hash) {
-      guarded(() => q.insertToken.run(hash, labId, now()));
+    async addToken(labId, hash, label) {
+      guarded(() => q.insertToken.run(hash, labId, now(), label ?? null));
+      return tokenFromRow(q.token.get(hash)!);
     },
-    async labForToken(hash) {
+    async listTokens(labId) {
+      return q.tokensOfLab.all(labId).map(tokenFromRow);
+    },
+    async revokeToken(labId, id) {
+      return guarded(() => revokeAll(labId, id));
+    },
+    async tokenAccess(hash): Promise<TokenAccess | undefined> {
       const row = q.labByToken.get(hash);
-      return row && labFromRow(row);
+      if (!row) return undefined;
+      const today = now().slice(0, 10);
+      if (row.revoked_at === null && row.last_used_on !== today) noteTokenUse(hash, today);
+      return { lab: labFromRow(row), revokedAt: row.revoked_at };
     },
     async push(labId, device, changes) {
       return guarded(() => pushAll(labId, device, changes));

@@ -21,6 +21,23 @@ export interface Lab {
 
 export type LabSettings = Pick<Lab, 'photosEnabled' | 'photoMaxBytes'>;
 
+/** A lab token as its operator sees it: never the token itself, never its whole hash. */
+export interface TokenInfo {
+  /** Names the token in `list-tokens` and `revoke-token` (tokens.ts, `tokenId`). */
+  id: string;
+  label: string | null;
+  createdAt: string;
+  /** The day (UTC, YYYY-MM-DD) of the last request it was accepted for; null if never. */
+  lastUsedOn: string | null;
+  revokedAt: string | null;
+}
+
+/** What a token presented with a request opens: its lab, unless it was revoked. */
+export interface TokenAccess {
+  lab: Lab;
+  revokedAt: string | null;
+}
+
 /** A change with the server's name for its revision (revision-hash.ts). */
 export interface HashedChange {
   change: Change;
@@ -37,8 +54,19 @@ export interface SyncStore {
   /** Refuses (`invalid-request`) a name already taken. */
   addLab(name: string, settings: LabSettings): Promise<Lab>;
   findLab(name: string): Promise<Lab | undefined>;
-  addToken(labId: number, tokenHash: string): Promise<void>;
-  labForToken(tokenHash: string): Promise<Lab | undefined>;
+  addToken(labId: number, tokenHash: string, label?: string): Promise<TokenInfo>;
+  /** The lab's tokens, revoked ones included, oldest first. */
+  listTokens(labId: number): Promise<TokenInfo[]>;
+  /**
+   * Revokes the lab's tokens with this id (one, unless two hashes share their first characters)
+   * and returns them as they were before, so the caller can tell one revoked earlier.
+   */
+  revokeToken(labId: number, id: string): Promise<TokenInfo[]>;
+  /**
+   * Read afresh on every call, so a revocation made by another process counts at once; notes the
+   * day of an accepted use. Undefined for a token never made.
+   */
+  tokenAccess(tokenHash: string): Promise<TokenAccess | undefined>;
 
   /** Applies a whole push in one transaction; a repeat of a stored revision writes nothing. */
   push(labId: number, device: string, changes: HashedChange[]): Promise<PushResponse>;
