@@ -20,7 +20,7 @@ const COMMANDS: Record<string, Command> = {
     load: () => import('./fitness-command.ts'),
   },
   server: {
-    summary: "the lab's sync server (start), and its labs and tokens (add-lab, add-token)",
+    summary: "the lab's sync server: start it, add labs, make, list and revoke their tokens",
     load: () => import('./server-command.ts'),
   },
 };

@@ -4,7 +4,9 @@
  *   server start [--port N] [--host H] [--data DIR] [--app DIR] [--tls-cert F --tls-key F]
  *                [--max-db-mb N]
  *   server add-lab NAME [--no-photos] [--photo-max-mb N]
- *   server add-token LAB
+ *   server add-token LAB [--label TEXT]
+ *   server list-tokens LAB
+ *   server revoke-token LAB ID
  */
 import { readFileSync } from 'node:fs';
 import { resolve } from 'node:path';
@@ -12,16 +14,21 @@ import { parseArgs } from 'node:util';
 import { buildSyncServer } from '../server/app.ts';
 import { openDataFolder } from '../server/data-folder.ts';
 import { SyncRefusal } from '../server/refusal.ts';
-import { newToken, tokenHash } from '../server/tokens.ts';
+import { DATA_OPTION } from './data-option.ts';
 import type { CommandIo } from './io.ts';
+import { UsageError } from './options.ts';
+import { addToken, listTokens, revokeToken } from './token-commands.ts';
 
 const USAGE = `Usage:
   rivalplate server start [--port 8640] [--host 127.0.0.1] [--data DIR] [--app DIR]
                           [--tls-cert FILE --tls-key FILE] [--max-db-mb N]
   rivalplate server add-lab NAME [--no-photos] [--photo-max-mb 20] [--data DIR]
-  rivalplate server add-token LAB [--data DIR]`;
+  rivalplate server add-token LAB [--label TEXT] [--data DIR]
+  rivalplate server list-tokens LAB [--data DIR]
+  rivalplate server revoke-token LAB ID [--data DIR]
 
-const DEFAULT_DATA = 'rivalplate-data';
+add-token prints the token once, on its last line; list-tokens shows each token's id, label,
+dates and whether it is revoked; revoke-token takes an id from that list.`;
 const DEFAULT_PORT = 8640;
 const MB = 1024 * 1024;
 
@@ -40,7 +47,7 @@ async function start(args: string[], io: CommandIo): Promise<number> {
     options: {
       port: { type: 'string' },
       host: { type: 'string', default: '127.0.0.1' },
-      data: { type: 'string', default: DEFAULT_DATA },
+      ...DATA_OPTION,
       app: { type: 'string', default: 'dist' },
       'tls-cert': { type: 'string' },
       'tls-key': { type: 'string' },
@@ -92,7 +99,7 @@ async function addLab(args: string[], io: CommandIo): Promise<number> {
     args,
     allowPositionals: true,
     options: {
-      data: { type: 'string', default: DEFAULT_DATA },
+      ...DATA_OPTION,
       'no-photos': { type: 'boolean', default: false },
       'photo-max-mb': { type: 'string' },
     },
@@ -115,37 +122,12 @@ async function addLab(args: string[], io: CommandIo): Promise<number> {
   }
 }
 
-async function addToken(args: string[], io: CommandIo): Promise<number> {
-  const { values, positionals } = parseArgs({
-    args,
-    allowPositionals: true,
-    options: { data: { type: 'string', default: DEFAULT_DATA } },
-  });
-  const name = positionals[0];
-  if (!name || positionals.length > 1) {
-    io.err(USAGE);
-    return 2;
-  }
-  const { store } = openDataFolder(resolve(io.cwd, values.data));
-  try {
-    const lab = await store.findLab(name);
-    if (!lab) {
-      io.err(`rivalplate server: no lab named "${name}"; add it first with "server add-lab"`);
-      return 1;
-    }
-    const token = newToken();
-    await store.addToken(lab.id, tokenHash(token));
-    io.out(`Token for lab "${name}" (shown this once; the server keeps only its hash):\n${token}`);
-    return 0;
-  } finally {
-    await store.close();
-  }
-}
-
 const SUBCOMMANDS: Record<string, (args: string[], io: CommandIo) => Promise<number>> = {
   start,
   'add-lab': addLab,
   'add-token': addToken,
+  'list-tokens': listTokens,
+  'revoke-token': revokeToken,
 };
 
 export async function run(args: string[], io: CommandIo): Promise<number> {
@@ -159,7 +141,11 @@ export async function run(args: string[], io: CommandIo): Promise<number> {
     return await command(rest, io);
   } catch (e) {
     // parseArgs reports unknown or malformed options by throwing; a refusal names a bad name.
-    if (e instanceof SyncRefusal || (e as { code?: string }).code?.startsWith('ERR_PARSE_ARGS')) {
+    if (
+      e instanceof SyncRefusal ||
+      e instanceof UsageError ||
+      (e as { code?: string }).code?.startsWith('ERR_PARSE_ARGS')
+    ) {
       io.err(`rivalplate server: ${(e as Error).message}`);
       return 2;
     }
