@@ -115,4 +115,17 @@ describe('IndexedDB record store', () => {
     await store.put('experiments', experiment());
     expect(calls).toBe(2);
   });
+
+  it('tells subscribers of a write made through another connection (a second tab, the service worker)', async () => {
+    const name = `test-${++dbCount}`;
+    const page = await openIdbStore(name);
+    const worker = await openIdbStore(name);
+    const heard = new Promise<string[]>((done) =>
+      page.subscribe(
+        () => void page.all('experiments').then((all) => done(all.map((e) => e.name))),
+      ),
+    );
+    await worker.put('experiments', experiment());
+    expect(await heard).toEqual(['Test experiment']);
+  });
 });

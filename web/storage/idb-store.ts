@@ -25,8 +25,20 @@ export async function openIdbStore(name = 'rivalplate'): Promise<RecordStore> {
   const db = await open(name);
   const listeners = new Set<() => void>();
   const problems: string[] = [];
-  const changed = () => {
+  const notify = () => {
     for (const l of listeners) l();
+  };
+  // Writes made in another tab, or by the service worker's background sync, show here too.
+  const channel =
+    typeof BroadcastChannel === 'undefined' ? null : new BroadcastChannel(`${name}-changes`);
+  if (channel) {
+    channel.onmessage = notify;
+    // Node (the tests) would otherwise stay alive for the channel.
+    (channel as { unref?: () => void }).unref?.();
+  }
+  const changed = () => {
+    notify();
+    channel?.postMessage('changed');
   };
 
   function restored<K extends RecordKind>(kind: K, raw: unknown[]): RecordsByKind[K][] {
