@@ -64,6 +64,10 @@ export default defineConfig({
       registerType: 'prompt',
       // The app registers the service worker itself (web/app/service-worker.ts) to offer updates.
       injectRegister: false,
+      // Our own service worker (web/sw/sw.ts): precaching plus the Background Sync handler.
+      strategies: 'injectManifest',
+      srcDir: 'sw',
+      filename: 'sw.ts',
       includeAssets: ['icons/*.svg', 'icons/*.png'],
       manifest: {
         name: 'Rivalplate',
@@ -88,15 +92,12 @@ export default defineConfig({
           { src: 'icons/icon.svg', sizes: 'any', type: 'image/svg+xml' },
         ],
       },
-      workbox: {
+      injectManifest: {
         globPatterns: ['**/*.{js,css,html,wasm,svg,png,jpg,json,webmanifest}'],
         // The worker chunk carries opencv.js (about 11 MB); the default limit is 2 MiB.
         maximumFileSizeToCacheInBytes: 16 * 1024 * 1024,
-        navigateFallback: 'index.html',
-        cleanupOutdatedCaches: true,
-        clientsClaim: true,
-        // A new version waits until the person accepts it (never forced mid-work).
-        skipWaiting: false,
+        // One classic script: registered without `type: 'module'`, which older browsers lack.
+        rollupFormat: 'iife',
       },
     }),
   ],

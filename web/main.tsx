@@ -6,7 +6,7 @@ import { ServicesContext } from './app/services.ts';
 import type { FitnessWorkerApi } from './results/fitness-worker.ts';
 import { openIdbStore } from './storage/idb-store.ts';
 import { requestPersistence } from './storage/quota.ts';
-import { browserEnv, requestBackgroundSync } from './sync/browser-env.ts';
+import { browserEnv, onBackgroundSynced, requestBackgroundSync } from './sync/browser-env.ts';
 import { createSyncClient } from './sync/sync-client.ts';
 import { openSyncState } from './sync/sync-state.ts';
 import { App } from './ui/App.tsx';
@@ -38,6 +38,9 @@ async function start(): Promise<void> {
       console.warn('sync is unavailable on this device:', e);
       return null;
     });
+  // Records the service worker brought in show by themselves (the record store hears of its
+  // writes); the sync card is told here.
+  if (sync) onBackgroundSynced(() => void sync.refresh());
   // Ask once per start: the browser decides silently (installed apps and engaged sites get it),
   // and the storage card shows the answer.
   void requestPersistence();

@@ -3,6 +3,11 @@ import { mkdtempSync, rmSync } from 'node:fs';
 import { resolve } from 'node:path';
 import { type Browser, devices, expect, type Page } from '@playwright/test';
 import { E2E_DIST } from '../../playwright.config.ts';
+import {
+  checkPullResponse,
+  type PulledRecord,
+  SYNC_BASE_PATH,
+} from '../../schema/sync-protocol.ts';
 import { ROOT } from './helpers.ts';
 
 /**
@@ -66,4 +71,12 @@ export async function connectedPhone(browser: Browser, lab: LabServer): Promise<
   await page.getByRole('button', { name: 'Connect' }).tap();
   await expect(page.getByTestId('sync-phase')).toHaveText('Shared with the lab server.');
   return page;
+}
+
+/** Every record the lab server holds, with its heads, as a phone's first pull would get them. */
+export async function serverRecords(lab: LabServer): Promise<PulledRecord[]> {
+  const res = await fetch(`${lab.url}${SYNC_BASE_PATH}/changes?since=0`, {
+    headers: { authorization: `Bearer ${lab.token}` },
+  });
+  return checkPullResponse(await res.json(), 'pull').records;
 }

@@ -1,9 +1,8 @@
 import { resolve } from 'node:path';
 import { expect, type Page, test } from '@playwright/test';
 import type { Corrections } from '../../schema/records.ts';
-import { checkPullResponse, SYNC_BASE_PATH } from '../../schema/sync-protocol.ts';
 import { count, DEMO, shot, tapColony } from './helpers.ts';
-import { connectedPhone, type LabServer, startLabServer } from './lab-server.ts';
+import { connectedPhone, type LabServer, serverRecords, startLabServer } from './lab-server.ts';
 
 /**
  * Two phones correct the same plate with no network, come back online, and the edit made on
@@ -34,11 +33,7 @@ async function openPlate(page: Page): Promise<void> {
 
 /** The corrections the lab server holds now, by their heads (more than one: a conflict). */
 async function serverCorrections(): Promise<Corrections[][]> {
-  const res = await fetch(`${lab.url}${SYNC_BASE_PATH}/changes?since=0`, {
-    headers: { authorization: `Bearer ${lab.token}` },
-  });
-  const pulled = checkPullResponse(await res.json(), 'pull');
-  return pulled.records
+  return (await serverRecords(lab))
     .filter((r) => r.kind === 'corrections')
     .map((r) => r.heads.map((h) => h.body as Corrections));
 }

@@ -3,10 +3,8 @@
  * Background Sync where the browser has it (Chromium), so a change made offline is sent by the
  * service worker's `sync` event even if the tab is closed before the network returns.
  */
+import { BACKGROUND_SYNC_TAG, BACKGROUND_SYNCED } from './background-round.ts';
 import type { SchedulerEnv } from './scheduler.ts';
-
-/** The tag the app's service worker listens for in its `sync` event. */
-export const BACKGROUND_SYNC_TAG = 'rivalplate-sync';
 
 /** Background Sync is not in TypeScript's DOM types: the part of it used here. */
 interface WithBackgroundSync {
@@ -45,4 +43,11 @@ export async function requestBackgroundSync(win: Window = window): Promise<boole
     // event and the timer still bring the change to the server when the app is open.
     return false;
   }
+}
+
+/** Calls `fn` each time the service worker has run a background round for this app. */
+export function onBackgroundSynced(fn: () => void, win: Window = window): void {
+  win.navigator.serviceWorker?.addEventListener('message', (event: MessageEvent) => {
+    if ((event.data as { type?: unknown } | null)?.type === BACKGROUND_SYNCED) fn();
+  });
 }

@@ -8,6 +8,8 @@ import {
   type PhotoUploadState,
   SYNC_LIMITS,
 } from '../../schema/sync-protocol.ts';
+import type { RecordStore } from '../storage/record-store.ts';
+import type { SyncState } from './sync-state.ts';
 import type { Outcome, SyncTransport } from './transport.ts';
 
 const TYPES: readonly string[] = ['image/jpeg', 'image/png', 'image/webp', 'image/heic'];
@@ -56,4 +58,31 @@ export async function uploadPhoto(
         : sent;
   }
   return state;
+}
+
+/**
+ * Sends every photo on the phone the server does not have yet, up to the lab's size limit. A
+ * failed upload ends the sending: it is tried again next round, from where the server stands.
+ */
+export async function sendNewPhotos(
+  deps: { records: RecordStore; state: SyncState; transport: SyncTransport },
+  maxBytes: number,
+): Promise<void> {
+  const { records, state, transport } = deps;
+  for (const photo of await records.all('photos')) {
+    if (photo.blob.size > maxBytes || (await state.known('photos', photo.id))) continue;
+    const sent = await uploadPhoto(transport, {
+      id: photo.id,
+      plateId: photo.plateId,
+      blob: photo.blob,
+    });
+    if (!sent.ok) return;
+    await state.setKnown({
+      kind: 'photos',
+      id: photo.id,
+      hashes: [],
+      revision: photo.revision,
+      deleted: false,
+    });
+  }
 }

@@ -7,8 +7,8 @@ import type { RecordKind, RecordsByKind } from '../../schema/records.ts';
 import { restoreRecord } from '../../schema/restore.ts';
 import type { LabInfo } from '../../schema/sync-protocol.ts';
 import type { RecordStore } from '../storage/record-store.ts';
+import { labRound } from './lab-round.ts';
 import { type CorrectionsMerge, mergeCorrections } from './merge-corrections.ts';
-import { uploadPhoto } from './photo-upload.ts';
 import { latestHead } from './plan-pulled.ts';
 import { recordingStore } from './recording-store.ts';
 import {
@@ -19,7 +19,7 @@ import {
   type SchedulerEnv,
 } from './scheduler.ts';
 import { describeFailure, isPassing, OFF, type SyncProblem, type SyncStatus } from './status.ts';
-import { rescan, syncRound } from './sync-round.ts';
+import { rescan } from './sync-round.ts';
 import type { ConflictEntry, SyncSettings, SyncState } from './sync-state.ts';
 import { createTransport, type Outcome, type SyncTransport } from './transport.ts';
 
@@ -47,6 +47,8 @@ export interface SyncClient {
   /** Turns sync off; the outbox keeps what waits, for when it is turned on again. */
   disconnect(): Promise<void>;
   syncNow(): Promise<SyncStatus>;
+  /** Reads the status again after a round run elsewhere (the service worker's background sync). */
+  refresh(): Promise<SyncStatus>;
   conflict(kind: RecordKind, id: string): Promise<ConflictEntry | undefined>;
   /** Resolves a conflict with the chosen version (null: delete the record). */
   resolve<K extends RecordKind>(
@@ -94,35 +96,15 @@ export async function createSyncClient(options: SyncClientOptions): Promise<Sync
     return current;
   }
 
-  async function sendPhotos(t: SyncTransport): Promise<void> {
-    if (!lab?.photos.enabled) return;
-    for (const photo of await inner.all('photos')) {
-      if (photo.blob.size > lab.photos.maxBytes || (await state.known('photos', photo.id)))
-        continue;
-      const sent = await uploadPhoto(t, { id: photo.id, plateId: photo.plateId, blob: photo.blob });
-      if (!sent.ok) return; // tried again next round, from where the server stands
-      await state.setKnown({
-        kind: 'photos',
-        id: photo.id,
-        hashes: [],
-        revision: photo.revision,
-        deleted: false,
-      });
-    }
-  }
-
   async function round(): Promise<RoundVerdict> {
     if (!transport) return 'stop';
     await publish({ phase: 'syncing' });
-    const result = await syncRound({ records: inner, state, transport, now });
+    const done = await labRound({ records: inner, state, transport, now }, lab);
+    // Started while the server was out of reach: its photo setting is learnt now.
+    lab = done.lab;
+    const { result } = done;
     const unreadable = result.unreadable;
     if (result.ok) {
-      // Started while the server was out of reach: its photo setting is learnt now.
-      if (!lab) {
-        const info = await transport.lab();
-        if (info.ok) lab = info.value;
-      }
-      await sendPhotos(transport);
       const refused = await state.refused();
       await publish({
         phase: 'idle',
@@ -254,6 +236,7 @@ export async function createSyncClient(options: SyncClientOptions): Promise<Sync
       await scheduler.now();
       return publishing;
     },
+    refresh: () => publish({}),
     conflict: findConflict,
     async resolve(kind, id, chosen) {
       const conflict = await findConflict(kind, id);
