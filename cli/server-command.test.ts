@@ -1,4 +1,4 @@
-import { existsSync, rmSync } from 'node:fs';
+import { existsSync, mkdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import Database from 'better-sqlite3';
 import { afterEach, describe, expect, it } from 'vitest';
@@ -236,5 +236,22 @@ describe('rivalplate server list-tokens / revoke-token', () => {
     }
     expect(tables(data)).toEqual(before);
     expect(existsSync(join(cwd, 'elsewhere'))).toBe(false);
+  });
+
+  it('refuses a database file it cannot use, naming the file, and leaves it as it was', async () => {
+    const { cwd, io, data } = await labFolder();
+    const file = join(data, DATABASE_FILE);
+    const newer = new Database(file);
+    newer.pragma('user_version = 99');
+    newer.close();
+    expect(await run(['add-lab', 'Pond B'], io)).toBe(1);
+    expect(io.errors()).toContain(`cannot use ${file}: the database was written by a newer server`);
+
+    const junk = join(cwd, 'junk');
+    mkdirSync(junk);
+    writeFileSync(join(junk, DATABASE_FILE), 'colony counts, not a database');
+    expect(await run(['start', '--port', '0', '--data', 'junk'], io)).toBe(1);
+    expect(io.errors()).toMatch(/cannot use .*junk.*rivalplate-sync\.sqlite: /);
+    expect(readFileSync(join(junk, DATABASE_FILE), 'utf8')).toBe('colony counts, not a database');
   });
 });

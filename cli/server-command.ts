@@ -12,7 +12,7 @@ import { readFileSync } from 'node:fs';
 import { resolve } from 'node:path';
 import { parseArgs } from 'node:util';
 import { buildSyncServer } from '../server/app.ts';
-import { openDataFolder } from '../server/data-folder.ts';
+import { DataFolderError, openDataFolder } from '../server/data-folder.ts';
 import { SyncRefusal } from '../server/refusal.ts';
 import { DATA_OPTION } from './data-option.ts';
 import type { CommandIo } from './io.ts';
@@ -148,6 +148,10 @@ export async function run(args: string[], io: CommandIo): Promise<number> {
     ) {
       io.err(`rivalplate server: ${(e as Error).message}`);
       return 2;
+    }
+    if (e instanceof DataFolderError) {
+      io.err(`rivalplate server: ${e.message}`);
+      return 1;
     }
     throw e;
   }

@@ -6,9 +6,17 @@ import type { SyncStore } from './storage/sync-store.ts';
 
 export const DATABASE_FILE = 'rivalplate-sync.sqlite';
 
+/** A data folder or database file the server cannot use; the message names the file and why. */
+export class DataFolderError extends Error {}
+
 /** Creates the folder and the database on first use. */
 export function openDataFolder(dir: string, maxBytes?: number): { store: SyncStore; file: string } {
-  mkdirSync(dir, { recursive: true });
   const file = resolve(join(dir, DATABASE_FILE));
-  return { store: openSqliteStore({ file, ...(maxBytes ? { maxBytes } : {}) }), file };
+  try {
+    mkdirSync(dir, { recursive: true });
+    return { store: openSqliteStore({ file, ...(maxBytes ? { maxBytes } : {}) }), file };
+  } catch (e) {
+    // Not a database, one from a newer server, a folder without write access: nothing was changed.
+    throw new DataFolderError(`cannot use ${file}: ${(e as Error).message}`);
+  }
 }
