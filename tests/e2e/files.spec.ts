@@ -1,6 +1,7 @@
 import { readFileSync } from 'node:fs';
 import { resolve } from 'node:path';
 import { expect, test } from '@playwright/test';
+import { analyse } from '../../fitness/analysis.ts';
 import { readCompetitionCsv } from '../../fitness/competition-csv.ts';
 import { openApp, ROOT, shot } from './helpers.ts';
 
@@ -35,6 +36,12 @@ test('a plate CSV is imported into an experiment and its fitness computed; a bad
   await expect(page.getByRole('heading', { name: 'Line L6 over generations' })).toBeVisible();
   // The example's four marker-control assays (fixtures/example-competition.csv).
   await expect(page.getByTestId('marker-effect')).toContainText('marker-control, n = 4');
+  // L1 at generation 2000 was competed in both colours; the engine run on the file in Node gives
+  // the average the app must show, its markers named by the app's colours.
+  const [both] = analyse(readCompetitionCsv(readFileSync(EXAMPLE, 'utf8')).assays).reciprocal;
+  const bothRow = page.getByRole('region', { name: 'Both colours' }).getByRole('row').nth(1);
+  await expect(bothRow).toContainText(`L1${both!.generation}colour 1 (n = 3)colour 2 (n = 3)`);
+  await expect(bothRow).toContainText(both!.meanW.toFixed(3));
   await shot(page, '50-imported-fitness');
 
   // Deleting the experiment takes two taps and leaves the start screen empty.

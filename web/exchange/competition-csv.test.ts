@@ -32,9 +32,9 @@ function dataOf(batch: ReturnType<typeof assaysFromCsv>['batch']): ExperimentDat
 }
 
 describe('plate CSV in the fitness engine format', () => {
-  it('has exactly the columns the fitness engine requires, plus days', () => {
+  it('has exactly the columns the fitness engine requires, plus days and test_marker', () => {
     const header = platesCsv([]).trim().split(',');
-    expect(header).toEqual([...REQUIRED_COLUMNS, 'days']);
+    expect(header).toEqual([...REQUIRED_COLUMNS, 'days', 'test_marker']);
   });
 
   it('round-trips the shipped example: import, export, and the fitness reader sees the same plates', () => {
@@ -64,6 +64,19 @@ describe('plate CSV in the fitness engine format', () => {
       expect(back!.days).toBe(a.days);
       expect(back!.group).toBe(a.group);
     }
+    // The example's markers (white, red) are not this experiment's colour names: each is taken
+    // as one of its two colours, so the two halves of the reciprocal assays stay apart.
+    expect(imported.notes).toEqual([
+      'test_marker "white" was taken as colour 2.',
+      'test_marker "red" was taken as colour 1.',
+    ]);
+    const marker = new Map(original.map((a) => [a.testMarker, byKey.get(key(a))!.testMarker]));
+    expect(marker).toEqual(
+      new Map([
+        ['white', 'colour 2'],
+        ['red', 'colour 1'],
+      ]),
+    );
   });
 
   it('a malformed CSV is refused whole, naming the file and the row', () => {

@@ -4,6 +4,7 @@ import type { Experiment, Plate } from '../../schema/records.ts';
 import { type NewAssay, newAssay, newPlate } from '../bench/assays.ts';
 import type { RecordBatch } from '../storage/record-store.ts';
 import { revised } from '../storage/stamp.ts';
+import { markerClasses } from './test-markers.ts';
 
 /**
  * Turns a tidy competition CSV into new assays of `experiment`, every plate with its typed
@@ -13,7 +14,7 @@ export function assaysFromCsv(
   text: string,
   fileName: string,
   experiment: Experiment,
-): { batch: RecordBatch; assays: number } {
+): { batch: RecordBatch; assays: number; notes: string[] } {
   let table: ReturnType<typeof readCompetitionCsv>;
   try {
     table = readCompetitionCsv(text);
@@ -27,6 +28,11 @@ export function assaysFromCsv(
       );
     throw e;
   }
+  const markers = markerClasses(
+    table.assays.flatMap((a) => (a.testMarker ? [a.testMarker] : [])),
+    experiment,
+    fileName,
+  );
   const made: NewAssay[] = [];
   const extra: Plate[] = [];
   table.assays.forEach((a, i) => {
@@ -37,7 +43,7 @@ export function assaysFromCsv(
       generation: a.generation,
       replicate: Number.isFinite(replicate) && replicate >= 0 ? replicate : i + 1,
       group: a.group,
-      testClass: 1,
+      testClass: a.testMarker ? markers.classes.get(a.testMarker)! : 1,
       foldDilutionSinceStart: a.foldDilutionSinceStart,
       days: a.days,
       startDilutionFold: first('start').dilutionFold,
@@ -75,5 +81,6 @@ export function assaysFromCsv(
       plates: [...made.flatMap((m) => m.plates), ...extra],
     },
     assays: made.length,
+    notes: markers.notes,
   };
 }

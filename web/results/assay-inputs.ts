@@ -1,5 +1,6 @@
 import type { AssayInput } from '../../fitness/competition.ts';
 import type { Assay } from '../../schema/records.ts';
+import { classLooks } from '../bench/colours.ts';
 import type { ExperimentData } from '../bench/experiment-data.ts';
 import { plateCount } from '../bench/plate-counts.ts';
 
@@ -24,6 +25,7 @@ export function fitnessInputs(data: ExperimentData): FitnessInputs {
   const waiting: FitnessInputs['waiting'] = [];
   const imageFlags: FitnessInputs['imageFlags'] = new Map();
   const seen = new Map<string, number>();
+  const looks = classLooks(data.experiment);
   for (const assay of data.assays) {
     // Two assays of one line, generation and replicate (e.g. both markers of a reciprocal
     // design) get "#2", "#3" so every assay keeps its own row in the results.
@@ -78,6 +80,9 @@ export function fitnessInputs(data: ExperimentData): FitnessInputs {
       replicate: String(assay.replicate),
       days: assay.days,
       foldDilutionSinceStart: assay.foldDilutionSinceStart,
+      // The colour the evolved line carried: with both colours among a line's assays (a
+      // reciprocal design), the engine averages the two halves.
+      testMarker: looks[assay.testClass].name,
       start,
       end,
     });

@@ -28,9 +28,12 @@ export function DataTab({ data }: { data: ExperimentData }) {
   async function importFile(file: File, kind: 'csv' | 'backup') {
     const text = await file.text();
     if (kind === 'csv') {
-      const { batch, assays } = assaysFromCsv(text, file.name, data.experiment);
+      const { batch, assays, notes } = assaysFromCsv(text, file.name, data.experiment);
       await store.putBatch(batch);
-      say(true, `${file.name}: ${assays} assays added with their typed counts.`);
+      say(
+        true,
+        [`${file.name}: ${assays} assays added with their typed counts.`, ...notes].join(' '),
+      );
     } else {
       const { batch, count } = readBackup(text, file.name);
       await store.putBatch(await newerOnly(store, batch));

@@ -2,6 +2,7 @@ import type { ExperimentData } from '../bench/experiment-data.ts';
 import { useFitness } from '../results/use-fitness.ts';
 import { AssayResults } from './AssayResults.tsx';
 import { GroupResults } from './GroupResults.tsx';
+import { ReciprocalResults } from './ReciprocalResults.tsx';
 import { TrajectoryCard } from './TrajectoryCard.tsx';
 
 export function ResultsTab({ data }: { data: ExperimentData }) {
@@ -46,6 +47,7 @@ export function ResultsTab({ data }: { data: ExperimentData }) {
         <>
           <AssayResults analysis={a} imageFlags={fit.imageFlags} />
           <GroupResults analysis={a} />
+          <ReciprocalResults analysis={a} />
           {a.trajectories.map((t) => (
             <TrajectoryCard key={t.line} trajectory={t} assays={a.assays} />
           ))}
