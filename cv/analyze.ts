@@ -1,4 +1,5 @@
 import { modelAgar } from './agar.ts';
+import { resizeRegion } from './banded-resize.ts';
 import { selectCandidates, WALL_ZONE_MM } from './candidates.ts';
 import { classify } from './classify.ts';
 import { now } from './clock.ts';
@@ -62,9 +63,9 @@ function runPipeline(
   };
   const flags: QualityFlag[] = [];
 
-  const src = keep(cv.matFromImageData(image));
-  stage('load', 0.1);
-  let dish: Dish | null = options.dish ? givenDish(options.dish) : detectDish(cv, src);
+  // The photo stays in JavaScript memory: the dish is found on a preview and the working image
+  // made from it band by band, so the full-size pixels never enter the WASM heap.
+  let dish: Dish | null = options.dish ? givenDish(options.dish) : detectDish(cv, image);
   if (!dish) flags.push({ kind: 'dish-not-found' });
   const geometry = dish ?? inscribedDish(image.width, image.height);
   const frame = frameForDish(
@@ -75,10 +76,7 @@ function runPipeline(
   );
   stage('dish', 0.2);
 
-  const rgb = keep(workingImage(cv, src, frame));
-  // The full-size copy is no longer needed: freeing it now keeps the WASM heap from growing to
-  // hold it and the working planes at once (a 12 MP photo is 48 MB of RGBA).
-  src.delete();
+  const rgb = keep(workingImage(cv, image, frame));
   const dishW = toWorkingDish(geometry, frame);
   stage('working-image', 0.3);
 
@@ -163,12 +161,9 @@ function runPipeline(
   };
 }
 
-function workingImage(cv: OpenCv, src: Mat, frame: WorkingFrame): Mat {
+function workingImage(cv: OpenCv, image: RgbaImage, frame: WorkingFrame): Mat {
   return withMats((keep) => {
-    const { x, y, width, height } = frame.roi;
-    const crop = keep(src.roi(new cv.Rect(x, y, width, height)));
-    const small = keep(new cv.Mat());
-    cv.resize(crop, small, new cv.Size(frame.width, frame.height), 0, 0, cv.INTER_AREA);
+    const small = keep(resizeRegion(cv, image, frame.roi, frame.scale, frame.width, frame.height));
     const rgb = new cv.Mat();
     cv.cvtColor(small, rgb, cv.COLOR_RGBA2RGB);
     // Light smoothing: sensor noise and JPEG blocks would otherwise set the detection threshold.

@@ -2,14 +2,13 @@ import { describe, expect, it } from 'vitest';
 import { generatePlate } from '../fixtures/plate-generator.ts';
 import { varietyScene } from '../fixtures/scene-variety.ts';
 import { detectDish, ellipseRadius } from './dish.ts';
-import { withMats } from './mat-scope.ts';
 import { loadOpenCv } from './opencv.ts';
 
 /** Ground truth from the seeded generator (fixtures/), which shares no code with cv/. */
 async function detect(scene: Parameters<typeof generatePlate>[0]) {
   const { cv } = await loadOpenCv();
   const { image, truth } = generatePlate(scene);
-  const dish = withMats((keep) => detectDish(cv, keep(cv.matFromImageData(image))));
+  const dish = detectDish(cv, image);
   return { dish, truth };
 }
 
@@ -62,9 +61,7 @@ describe('detectDish', () => {
     const h = 480;
     const data = new Uint8ClampedArray(w * h * 4);
     for (let i = 0; i < w * h; i++) data.set([100 + (i % 7), 98, 95, 255], i * 4);
-    const dish = withMats((keep) =>
-      detectDish(cv, keep(cv.matFromImageData({ width: w, height: h, data }))),
-    );
+    const dish = detectDish(cv, { width: w, height: h, data });
     expect(dish).toBeNull();
   });
 });

@@ -1,13 +1,15 @@
+import { resizeRegion, steppedScale } from './banded-resize.ts';
 import { deltaE76 } from './colour.ts';
 import type { Keep } from './mat-scope.ts';
 import { withMats } from './mat-scope.ts';
 import type { Mat, OpenCv } from './opencv.ts';
-import type { Dish } from './types.ts';
+import type { Dish, RgbaImage } from './types.ts';
 
 /**
  * Finds the Petri dish in an upright photo.
  *
- * Input: an RGBA Mat at any resolution (it is reduced to a preview of PREVIEW_SIDE px first).
+ * Input: an upright RGBA photo at any resolution (it is reduced to a preview of about PREVIEW_SIDE
+ * px first, band by band: see banded-resize.ts).
  * Output: the dish's outer wall as an ellipse in the input's pixels, or null when no dish-sized
  * circle is found. Method: circular Hough transform (HOUGH_GRADIENT, Yuen et al. 1990, as in
  * opencv) for a first circle, then an ellipse least-squares fit (Fitzgibbon's method, opencv
@@ -24,17 +26,19 @@ const RAYS = 120;
  */
 export const AGAR_FRACTION = 1;
 
-export function detectDish(cv: OpenCv, rgba: Mat): Dish | null {
+export function detectDish(cv: OpenCv, image: RgbaImage): Dish | null {
   return withMats((keep) => {
-    const scale = Math.min(1, PREVIEW_SIDE / Math.max(rgba.cols, rgba.rows));
-    const small = keep(new cv.Mat());
-    cv.resize(
-      rgba,
-      small,
-      new cv.Size(Math.round(rgba.cols * scale), Math.round(rgba.rows * scale)),
-      0,
-      0,
-      cv.INTER_AREA,
+    const scale = steppedScale(PREVIEW_SIDE / Math.max(image.width, image.height));
+    const whole = { x: 0, y: 0, width: image.width, height: image.height };
+    const small = keep(
+      resizeRegion(
+        cv,
+        image,
+        whole,
+        scale,
+        Math.round(image.width * scale),
+        Math.round(image.height * scale),
+      ),
     );
     const gray = keep(new cv.Mat());
     cv.cvtColor(small, gray, cv.COLOR_RGBA2GRAY);

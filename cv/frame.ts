@@ -1,9 +1,10 @@
+import { steppedScale } from './banded-resize.ts';
 import { AGAR_FRACTION } from './dish.ts';
 import type { Dish } from './types.ts';
 
 /**
  * The working frame: the part of the photo around the dish, resampled so a 90 mm dish spans
- * about TARGET_PX_PER_MM pixels per millimetre. At 12 px/mm a 0.5 mm colony is 6 px across,
+ * about TARGET_PX_PER_MM pixels per millimetre (within 1/64 of the scale). At 12 px/mm a 0.5 mm colony is 6 px across,
  * enough to find and measure it, and a 12 MP photo shrinks to about 1.3 MP of work.
  *
  * Two coordinate spaces meet here: ORIGINAL pixels of the upright photo and WORKING pixels of the
@@ -34,7 +35,8 @@ export function frameForDish(
   const x1 = clamp(Math.ceil(dish.cx + half), x0 + 1, imageWidth);
   const y1 = clamp(Math.ceil(dish.cy + half), y0 + 1, imageHeight);
   const dishPx = dish.rx + dish.ry; // mean diameter in original pixels
-  const scale = Math.min(1, (TARGET_PX_PER_MM * dishDiameterMm) / dishPx);
+  // A stepped scale, so the working image can be made band by band without seams.
+  const scale = steppedScale((TARGET_PX_PER_MM * dishDiameterMm) / dishPx);
   const width = Math.max(1, Math.round((x1 - x0) * scale));
   const height = Math.max(1, Math.round((y1 - y0) * scale));
   return {
