@@ -61,10 +61,7 @@ export function modelAgar(
   const background8 = keep(
     medianBackground(cv, quarter, { width: rgb.cols, height: rgb.rows }, frame),
   );
-  // The float planes live only as long as the distance takes: 16 MB each at 1.3 MP.
-  const deltaE = keep(
-    withMats((k) => labDistance(cv, k(labToFloat(cv, lab8)), k(labToFloat(cv, background8)))),
-  );
+  const deltaE = keep(labDistance(cv, lab8, background8));
 
   const countMask = keep(new cv.Mat());
   const notGlare = keep(new cv.Mat());
@@ -133,20 +130,6 @@ export function lab8ToLab(l: number, a: number, b: number): Lab {
   return [(l * 100) / 255, a - 128, b - 128];
 }
 
-/** opencv's 8-bit Lab stores L*·255/100, a*+128, b*+128; this undoes that into real units. */
-function labToFloat(cv: OpenCv, lab8: Mat): Mat {
-  return withMats((keep) => {
-    const f = keep(new cv.Mat());
-    lab8.convertTo(f, cv.CV_32F);
-    const m = keep(
-      cv.matFromArray(3, 4, cv.CV_32F, [100 / 255, 0, 0, 0, 0, 1, 0, -128, 0, 0, 1, -128]),
-    );
-    const out = new cv.Mat();
-    cv.transform(f, out, m);
-    return out;
-  });
-}
-
 /** The working Lab image at quarter resolution, with everything outside the agar set to the agar mean. */
 function quarterAgar(cv: OpenCv, lab8: Mat, agarMask: Mat): Mat {
   return withMats((keep) => {
@@ -198,16 +181,30 @@ function medianBackground(cv: OpenCv, quarter: Mat, full: Size, frame: WorkingFr
   });
 }
 
-function labDistance(cv: OpenCv, lab: Mat, background: Mat): Mat {
+/** Real-unit weight of each 8-bit Lab plane: L* is stored ·255/100; a* and b* are offset only. */
+const LAB8_UNIT = [100 / 255, 1, 1] as const;
+
+/**
+ * ΔE*ab (CIE 1976) between two 8-bit Lab images, one plane at a time: the offsets of a* and b*
+ * cancel in the difference, so only L* needs rescaling, and no 3-channel float copy (16 MB at
+ * 1.3 MP) is ever made.
+ */
+function labDistance(cv: OpenCv, lab8: Mat, background8: Mat): Mat {
   return withMats((keep) => {
-    const diff = keep(new cv.Mat());
-    cv.subtract(lab, background, diff);
-    cv.multiply(diff, diff, diff);
-    const sum = keep(cv.matFromArray(1, 3, cv.CV_32F, [1, 1, 1]));
-    const sq = keep(new cv.Mat());
-    cv.transform(diff, sq, sum);
+    const image = keep(new cv.MatVector());
+    const background = keep(new cv.MatVector());
+    cv.split(lab8, image);
+    cv.split(background8, background);
+    const sum = keep(cv.Mat.zeros(lab8.rows, lab8.cols, cv.CV_32F));
+    const d = keep(new cv.Mat());
+    const everywhere = keep(new cv.Mat());
+    LAB8_UNIT.forEach((unit, c) => {
+      cv.subtract(keep(image.get(c)), keep(background.get(c)), d, everywhere, cv.CV_32F);
+      cv.multiply(d, d, d, unit ** 2);
+      cv.add(sum, d, sum);
+    });
     const out = new cv.Mat();
-    cv.sqrt(sq, out);
+    cv.sqrt(sum, out);
     return out;
   });
 }

@@ -199,6 +199,7 @@ export interface OpenCv {
   CMP_EQ: number;
   CMP_GT: number;
   CMP_GE: number;
+  CMP_LE: number;
   CMP_LT: number;
   HOUGH_GRADIENT: number;
   RETR_EXTERNAL: number;

@@ -55,14 +55,13 @@ export function splitTouching(
     cv.watershed(rgb, regions);
     // Background and the -1 ridge lines back to 0, so labels are exactly the colony regions.
     const bg = k(new cv.Mat());
-    const bgLabel = k(new cv.Mat(regions.rows, regions.cols, cv.CV_32S, [n + 1, 0, 0, 0]));
-    cv.compare(regions, bgLabel, bg, cv.CMP_EQ);
+    const level = k(new cv.Mat(regions.rows, regions.cols, cv.CV_32S, [n + 1, 0, 0, 0]));
+    cv.compare(regions, level, bg, cv.CMP_EQ);
     regions.setTo([0, 0, 0, 0], bg);
-    const ridge = k(new cv.Mat());
-    const zero = k(new cv.Mat(regions.rows, regions.cols, cv.CV_32S, [0, 0, 0, 0]));
-    cv.compare(regions, zero, ridge, cv.CMP_GT);
-    cv.bitwise_not(ridge, ridge);
-    regions.setTo([0, 0, 0, 0], ridge);
+    // The same plane, now all zeros: not a label, so ridges (-1) are what is not above it.
+    level.setTo([0, 0, 0, 0]);
+    cv.compare(regions, level, bg, cv.CMP_LE);
+    regions.setTo([0, 0, 0, 0], bg);
     // Keep the watershed inside the foreground: it may flood a pixel or two past the mask edge.
     const notMask = k(new cv.Mat());
     cv.bitwise_not(mask, notMask);
@@ -84,13 +83,14 @@ function scaledPeaks(cv: OpenCv, distance: Mat): Mat {
   return withMats((keep) => {
     const peaks = new cv.Mat(distance.rows, distance.cols, cv.CV_8UC1, [255, 0, 0, 0]);
     const top = cv.minMaxLoc(distance).maxVal;
+    // One pair of planes for every octave: a float plane each would add 5 MB per octave at 1.3 MP.
+    const octave = keep(new cv.Mat());
+    const beats = keep(new cv.Mat());
     for (let v = 1.5; v <= top; v *= 2) {
-      const octave = keep(new cv.Mat());
       cv.threshold(distance, octave, v, 0, cv.THRESH_TOZERO);
       const size = oddAtLeast(3, 2 * SEED_REACH * v);
       const disc = keep(cv.getStructuringElement(cv.MORPH_ELLIPSE, new cv.Size(size, size)));
       cv.dilate(octave, octave, disc);
-      const beats = keep(new cv.Mat());
       cv.compare(distance, octave, beats, cv.CMP_GE);
       cv.bitwise_and(peaks, beats, peaks);
     }
