@@ -4,6 +4,6 @@
  */
 export { analyzePlate } from './analyze.ts';
 export { MAX_PIXELS, PlateImageError } from './image-input.ts';
-export { loadOpenCv } from './opencv.ts';
+export { loadOpenCv, provideOpenCvModule } from './opencv.ts';
 export { classifyWithPalette, learnPalette, paletteFromExamples } from './palette.ts';
 export type * from './types.ts';
