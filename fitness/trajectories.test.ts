@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import {
   type CurveFit,
+  curveAt,
   fitHyperbolic,
   fitPowerLaw,
   fitStep,
@@ -46,6 +47,22 @@ describe('curve fits against SciPy curve_fit', () => {
     expect(m.parameters[1]!.se / 0.0012964784243318255).toBeCloseTo(1, 5);
     expect(m.aic).toBeCloseTo(-65.09349755269926, 6);
     expect(m.bic).toBeCloseTo(-63.17632556385349, 6);
+  });
+
+  it('draws each curve from its published formula with the SciPy parameters', () => {
+    // w = 1 + a·t/(t + b) and w = (b·t + 1)^a at the SciPy estimates above, at generations
+    // between the measured ones; the curves agree with the fit to the precision of the estimates.
+    const hyper = curveAt(fitted(fitHyperbolic(points)));
+    const power = curveAt(fitted(fitPowerLaw(points)));
+    for (const t of [0, 250, 3000, 7500]) {
+      expect(hyper(t)).toBeCloseTo(1 + (0.42019696162871045 * t) / (t + 1866.3851675853907), 5);
+      expect(power(t)).toBeCloseTo((0.004751680725065566 * t + 1) ** 0.08025038602164089, 5);
+    }
+    // At the measured generations the curve is the observed value minus its residual.
+    const m = fitted(fitHyperbolic(points));
+    points.forEach((p, i) => {
+      expect(hyper(p.generation)).toBeCloseTo(p.w - m.residuals[i]!, 12);
+    });
   });
 
   it('the log-likelihood is the one statsmodels reports for least squares', () => {

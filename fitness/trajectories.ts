@@ -324,6 +324,13 @@ function fitCurve(model: Model, points: readonly TrajectoryPoint[]): CurveFit | 
   };
 }
 
+const MODELS: Record<CurveFit['model'], Model> = { hyperbolic: HYPERBOLIC, 'power-law': POWER_LAW };
+
+/** The fitted curve as a function of generations, to draw it between the measured ones. */
+export function curveAt(fit: CurveFit): (generation: number) => number {
+  return MODELS[fit.model].f(fit.parameters.map((p) => p.estimate));
+}
+
 export function fitHyperbolic(points: readonly TrajectoryPoint[]): CurveFit | ModelFailure {
   return fitCurve(HYPERBOLIC, points);
 }

@@ -1,29 +1,26 @@
 import type { Ref } from 'react';
 import type { AnalysedAssay, LineTrajectory } from '../../fitness/analysis.ts';
-import type { CurveFit, ModelFailure } from '../../fitness/trajectories.ts';
+import { type CurveFit, curveAt, type ModelFailure } from '../../fitness/trajectories.ts';
 import { niceTicks } from '../results/axis.ts';
 
 const W = 360;
 const H = 240;
 const M = { left: 46, right: 10, top: 12, bottom: 40 };
 
-/** The fitted values at the measured generations (observed − residual), mean per generation. */
-function fittedAt(t: LineTrajectory, fit: CurveFit | ModelFailure): { g: number; w: number }[] {
+/** Points along a fitted curve from generation 0 to the last measured one; none for a failed fit. */
+const CURVE_POINTS = 64;
+function curvePoints(fit: CurveFit | ModelFailure, gMax: number): { g: number; w: number }[] {
   if ('reason' in fit) return [];
-  const by = new Map<number, number[]>();
-  t.points.forEach((p, i) => {
-    const list = by.get(p.generation) ?? [];
-    list.push(p.w - fit.residuals[i]!);
-    by.set(p.generation, list);
+  const w = curveAt(fit);
+  return Array.from({ length: CURVE_POINTS + 1 }, (_, i) => {
+    const g = (gMax * i) / CURVE_POINTS;
+    return { g, w: w(g) };
   });
-  return [...by]
-    .sort((a, b) => a[0] - b[0])
-    .map(([g, ws]) => ({ g, w: ws.reduce((s, v) => s + v, 0) / ws.length }));
 }
 
 /**
  * Relative fitness of one line over generations: each assay with its counting-noise interval,
- * the fitted hyperbolic and power-law models at the measured generations, and the step model.
+ * the fitted hyperbolic and power-law curves, and the step model.
  */
 export function TrajectoryPlot({
   trajectory,
@@ -99,13 +96,13 @@ export function TrajectoryPlot({
         />
       ))}
       <path
-        d={line(fittedAt(trajectory, trajectory.hyperbolic))}
+        d={line(curvePoints(trajectory.hyperbolic, gMax))}
         fill="none"
         stroke="#1f3b36"
         strokeWidth={2}
       />
       <path
-        d={line(fittedAt(trajectory, trajectory.powerLaw))}
+        d={line(curvePoints(trajectory.powerLaw, gMax))}
         fill="none"
         stroke="#c98f0c"
         strokeWidth={2}
