@@ -19,6 +19,10 @@ const COMMANDS: Record<string, Command> = {
     summary: 'relative fitness, replicate statistics and trajectories from a CSV of plate counts',
     load: () => import('./fitness-command.ts'),
   },
+  dilution: {
+    summary: 'which dilution and volume to plate so the colonies land in the countable range',
+    load: () => import('./dilution-command.ts'),
+  },
   server: {
     summary: "the lab's sync server: start it, add labs, make, list and revoke their tokens",
     load: () => import('./server-command.ts'),

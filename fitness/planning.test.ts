@@ -29,6 +29,14 @@ describe('planDilution', () => {
     expect(plan.expectedColonies).toBeCloseTo(200, 9);
   });
 
+  it('prefers a plate inside the range to a nearer one outside it', () => {
+    // 5.4×10⁸ CFU/mL with 50 or 100 µL under BAM 25–250: 10⁵ × 50 µL gives 270 (too many),
+    // 10⁶ × 100 µL gives 54; 270 is nearer 137.5 on a log scale but cannot be counted.
+    const plan = planDilution({ cfuPerMl: 5.4e8, volumesUl: [100, 50] });
+    expect(plan).toMatchObject({ dilutionFold: 1e6, volumeUl: 100, status: 'countable' });
+    expect(plan.expectedColonies).toBeCloseTo(54, 9);
+  });
+
   it('refuses a density it cannot use', () => {
     expect(() => planDilution({})).toThrow(/density, or an OD/);
     expect(() => planDilution({ cfuPerMl: -5 })).toThrow(/> 0/);

@@ -40,7 +40,8 @@ export interface DilutionPlan {
 
 /**
  * Picks the dilution (a power of the series step) and volume whose expected colonies, density ×
- * volume / fold, come closest to the middle of the countable range on a log scale.
+ * volume / fold, come closest to the middle of the countable range on a log scale, among those
+ * inside the range when there are any.
  */
 export function planDilution(request: DilutionRequest): DilutionPlan {
   const range = validateCountableRange(request.range ?? DEFAULT_COUNTABLE_RANGE);
@@ -66,11 +67,14 @@ export function planDilution(request: DilutionRequest): DilutionPlan {
   }
   const maxFold = request.maxFold ?? 1e12;
   const target = (range.min + range.max) / 2;
+  // A plate expected inside the range always beats one outside it, however near the middle the
+  // other lands on a log scale (270 expected misses 137.5 by less than 54 does, but is not countable).
   let best: { fold: number; volumeUl: number; expected: number; miss: number } | null = null;
   for (let fold = 1; fold <= maxFold; fold *= step) {
     for (const volumeUl of volumes) {
       const expected = (density * volumeUl) / 1000 / fold;
-      const miss = Math.abs(Math.log(expected / target));
+      const outside = countableStatus(Math.round(expected), range) === 'countable' ? 0 : 1e6;
+      const miss = outside + Math.abs(Math.log(expected / target));
       if (best === null || miss < best.miss - 1e-12) best = { fold, volumeUl, expected, miss };
     }
   }
