@@ -62,6 +62,18 @@ describe('analyzePlate', () => {
     expect(a.colonies).toEqual([]);
   });
 
+  it('flags writing on the lid, so the person looks for colonies under it', async () => {
+    // The generator draws the labels and lists them in its truth (fixtures/ shares no code).
+    const scene = { seed: 21, width: 1200, height: 900, colonies: 60 };
+    const written = generatePlate({ ...scene, penLabels: ['L3 500', 'D2'] });
+    expect(written.truth.distractors.some((d) => d.kind === 'pen')).toBe(true);
+    const clean = generatePlate({ ...scene, penMarks: false });
+    const kinds = async (image: typeof clean.image) =>
+      (await analyzePlate(image)).flags.map((f) => f.kind);
+    expect(await kinds(written.image)).toContain('marks');
+    expect(await kinds(clean.image)).not.toContain('marks');
+  });
+
   it('refuses buffers that cannot be a picture, saying why', async () => {
     await expect(
       analyzePlate({ width: 10, height: 10, data: new Uint8Array(400) }),

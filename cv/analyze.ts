@@ -101,7 +101,7 @@ function runPipeline(
     deltaESlope(cv, keep, agar.deltaE),
     agar.rim,
   );
-  const { candidates } = selectCandidates(
+  const { candidates, rejected } = selectCandidates(
     measured.regions,
     measured.components,
     split.typicalRadius,
@@ -110,6 +110,9 @@ function runPipeline(
     (r) => (1 - ellipseRadius(dishW, r.x, r.y)) * dishW.r * frame.mmPerPx < WALL_ZONE_MM,
     (r) => agar.glareZone.data[Math.floor(r.y) * agar.glareZone.cols + Math.floor(r.x)]! > 0,
   );
+  // The person looks there: a colony under writing shares the stroke's blob and may go with it.
+  const marks = rejected.strokes + rejected.ink;
+  if (marks > 0) flags.push({ kind: 'marks', marks });
   stage('measure', 0.85);
 
   const samples = candidates.map((c) => ({

@@ -69,7 +69,7 @@ export interface Candidate {
 
 export interface CandidateResult {
   candidates: Candidate[];
-  rejected: { specks: number; strokes: number; wall: number; shades: number };
+  rejected: { specks: number; strokes: number; ink: number; wall: number; shades: number };
   typicalArea: number;
 }
 
@@ -84,7 +84,7 @@ export function selectCandidates(
 ): CandidateResult {
   const minArea = Math.PI * (MIN_COLONY_RADIUS_MM / mmPerPx) ** 2;
   const byId = new Map(components.map((c) => [c.id, c]));
-  const rejected = { specks: 0, strokes: 0, wall: 0, shades: 0 };
+  const rejected = { specks: 0, strokes: 0, ink: 0, wall: 0, shades: 0 };
   const verdict = new Map<number, 'keep' | 'specks' | 'strokes' | 'wall'>();
   for (const c of components) {
     const v = componentVerdict(c, minArea, typicalRadius);
@@ -122,7 +122,11 @@ export function selectCandidates(
       rejected.shades++;
       return false;
     }
-    if (!isInk(r) && !isGreyShade(r)) return true;
+    if (isInk(r)) {
+      rejected.ink++;
+      return false;
+    }
+    if (!isGreyShade(r)) return true;
     rejected.shades++;
     return false;
   });

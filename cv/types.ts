@@ -86,6 +86,9 @@ export type QualityFlag =
   | { kind: 'low-confidence'; colonies: number }
   /** Blobs of neither palette colour, left out of the count (tinted droplets, JPEG ghosts). */
   | { kind: 'colour-outliers'; colonies: number }
+  /** Ink and thin marks (writing on the lid, scratches) left out, in `marks` pieces; colonies
+   * under them may have gone with them. */
+  | { kind: 'marks'; marks: number }
   | { kind: 'out-of-focus'; edgeWidthMm: number }
   | { kind: 'one-colour'; reason: string };
 

@@ -37,6 +37,11 @@ function flagText(flag: QualityFlag): FlagRecord {
         kind: flag.kind,
         detail: `The photo looks out of focus (edges ${flag.edgeWidthMm.toFixed(2)} mm wide).`,
       };
+    case 'marks':
+      return {
+        kind: flag.kind,
+        detail: `Ink or thin marks (writing, scratches) left out in ${flag.marks} places: check for colonies under them.`,
+      };
     case 'colour-outliers':
       return {
         kind: flag.kind,
