@@ -70,8 +70,8 @@ describe('analyzePlate', () => {
     const clean = generatePlate({ ...scene, penMarks: false });
     const kinds = async (image: typeof clean.image) =>
       (await analyzePlate(image)).flags.map((f) => f.kind);
-    expect(await kinds(written.image)).toContain('marks');
-    expect(await kinds(clean.image)).not.toContain('marks');
+    expect(await kinds(written.image)).toContain('ink');
+    expect(await kinds(clean.image)).not.toContain('ink');
   });
 
   it('refuses buffers that cannot be a picture, saying why', async () => {

@@ -110,9 +110,9 @@ function runPipeline(
     (r) => (1 - ellipseRadius(dishW, r.x, r.y)) * dishW.r * frame.mmPerPx < WALL_ZONE_MM,
     (r) => agar.glareZone.data[Math.floor(r.y) * agar.glareZone.cols + Math.floor(r.x)]! > 0,
   );
-  // The person looks there: a colony under writing shares the stroke's blob and may go with it.
-  const marks = rejected.strokes + rejected.ink;
-  if (marks > 0) flags.push({ kind: 'marks', marks });
+  // The person looks there: a colony under writing shares the ink's blob and may go with it.
+  // (Thin strokes are not counted here: most are reflections along the wall.)
+  if (rejected.ink > 0) flags.push({ kind: 'ink', pieces: rejected.ink });
   stage('measure', 0.85);
 
   const samples = candidates.map((c) => ({

@@ -86,9 +86,8 @@ export type QualityFlag =
   | { kind: 'low-confidence'; colonies: number }
   /** Blobs of neither palette colour, left out of the count (tinted droplets, JPEG ghosts). */
   | { kind: 'colour-outliers'; colonies: number }
-  /** Ink and thin marks (writing on the lid, scratches) left out, in `marks` pieces; colonies
-   * under them may have gone with them. */
-  | { kind: 'marks'; marks: number }
+  /** Ink (writing on the lid or the plate) left out, in `pieces`; colonies under it may be too. */
+  | { kind: 'ink'; pieces: number }
   | { kind: 'out-of-focus'; edgeWidthMm: number }
   | { kind: 'one-colour'; reason: string };
 

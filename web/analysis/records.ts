@@ -37,10 +37,10 @@ function flagText(flag: QualityFlag): FlagRecord {
         kind: flag.kind,
         detail: `The photo looks out of focus (edges ${flag.edgeWidthMm.toFixed(2)} mm wide).`,
       };
-    case 'marks':
+    case 'ink':
       return {
         kind: flag.kind,
-        detail: `Ink or thin marks (writing, scratches) left out in ${flag.marks} places: check for colonies under them.`,
+        detail: `Ink (writing) left out in ${flag.pieces} pieces: check for colonies under it.`,
       };
     case 'colour-outliers':
       return {
