@@ -25,7 +25,9 @@ import type { ComponentStats, RegionStats } from './measure.ts';
  * - Glare fringes: regions next to lid glare that are lighter than the agar but not tinted: the
  *   fainter edge of the glare, beyond the patch that glare.ts takes out.
  * - Wall glints: blobs on the rim of the counting area thinner than WALL_THINNESS typical colony
- *   radii, and regions within WALL_ZONE_MM of the wall smaller than a third of a typical colony.
+ *   radii, and regions within WALL_ZONE_MM of the wall smaller than a third of a typical colony
+ *   and thinner than WALL_CRUMB_THICKNESS of its radius (a colony the wall half hides is small
+ *   but as thick as half a colony, and is kept).
  *   Reflections and the wall's inner face show as thin arcs and crumbs there; a colony growing
  *   against the wall is as thick as any other and is kept.
  * - Clumps: a region the watershed could not split, recognised by not being round: its area is
@@ -60,6 +62,8 @@ const CLUMP_ELONGATION = 2.0;
 const WALL_THINNESS = 0.35;
 export const WALL_ZONE_MM = 1.2;
 const WALL_CRUMB = 0.35;
+/** A region near the wall at least this many typical radii thick is a colony the wall cuts. */
+const WALL_CRUMB_THICKNESS = 0.45;
 
 export interface Candidate {
   region: RegionStats;
@@ -132,7 +136,9 @@ export function selectCandidates(
   });
   const typicalArea = typicalSingleArea(kept, byId) || Math.PI * typicalRadius ** 2;
   const inside = kept.filter((r) => {
+    // A colony the wall cuts in half is small but still thick; a crumb of the wall is neither.
     if (r.area >= WALL_CRUMB * typicalArea || !nearWall(r)) return true;
+    if (r.halfWidth >= WALL_CRUMB_THICKNESS * typicalRadius) return true;
     rejected.wall++;
     return false;
   });
