@@ -80,6 +80,12 @@ test('both phones correct one plate offline; the conflict is shown and the merge
   await shareNow(b);
   // The second push finds the first phone's taps there first: both versions are kept.
   await expect(b.getByTestId('conflict-corrections')).toBeVisible();
+  // The card says which plate, with a link to it.
+  await expect(
+    b
+      .getByTestId('conflict-corrections')
+      .getByRole('link', { name: 'L1 g0 r1 · start · 1:100,000' }),
+  ).toBeVisible();
   expect((await serverCorrections()).map((heads) => heads.length)).toEqual([2]);
   await shot(b, '62-sync-conflict');
 

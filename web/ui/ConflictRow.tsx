@@ -1,6 +1,8 @@
 import { useEffect, useState } from 'react';
 import type { RecordKind } from '../../schema/records.ts';
+import { type ConflictPlace, conflictPlace } from '../app/conflict-place.ts';
 import { type ConflictChoice, conflictChoices, keepVersion, mergeTaps } from '../app/conflicts.ts';
+import { useServices } from '../app/services.ts';
 import type { SyncClient } from '../sync/sync-client.ts';
 
 const WHAT: Record<RecordKind, string> = {
@@ -30,20 +32,24 @@ export function ConflictRow({
   heads: number;
   onSettled: (work: () => Promise<string>) => void;
 }) {
+  const { store } = useServices();
   const [choices, setChoices] = useState<ConflictChoice[]>([]);
+  const [place, setPlace] = useState<ConflictPlace | null>(null);
   // biome-ignore lint/correctness/useExhaustiveDependencies: a new head means new choices.
   useEffect(() => {
     let current = true;
     void conflictChoices(sync, kind, id).then((c) => current && setChoices(c));
+    void conflictPlace(store, kind, id).then((p) => current && setPlace(p));
     return () => {
       current = false;
     };
-  }, [sync, kind, id, heads]);
+  }, [sync, store, kind, id, heads]);
 
   return (
     <div className="banner stack" data-testid={`conflict-${kind}`}>
       <span>
-        {WHAT[kind]} changed on {heads} phones.
+        {WHAT[kind]} changed on {heads} phones
+        {place && <> ({place.href ? <a href={place.href}>{place.label}</a> : place.label})</>}.
       </span>
       <div className="row">
         {kind === 'corrections' && (
