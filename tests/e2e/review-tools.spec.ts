@@ -73,12 +73,30 @@ test('teach colours by tapping one colony of each; drag the dish smaller and re-
     .boundingBox())!;
   const r = (await rim.boundingBox())!;
   const from = { x: r.x + r.width / 2, y: r.y + r.height / 2 };
-  const to = { x: centre.x + centre.width / 2 + (from.x - centre.x) / 2, y: from.y };
+  const c0 = { x: centre.x + centre.width / 2, y: centre.y + centre.height / 2 };
+  // Halfway to the centre along the handle's own axis (the outline may be turned).
+  const to = { x: c0.x + (from.x - c0.x) / 2, y: c0.y + (from.y - c0.y) / 2 };
   await page.mouse.move(from.x, from.y);
   await page.mouse.down();
   await page.mouse.move((from.x + to.x) / 2, to.y);
   await page.mouse.move(to.x, to.y);
   await page.mouse.up();
+  // The side handle sets the second axis alone: the outline gets more oval, keeps its first axis.
+  const ellipse = page.locator('[data-testid=review] ellipse.dish');
+  const rx = Number(await ellipse.getAttribute('rx'));
+  const ry = Number(await ellipse.getAttribute('ry'));
+  const side = (await page
+    .locator('[data-testid=review] .dish-handle[data-handle=side]')
+    .boundingBox())!;
+  const s0 = { x: side.x + side.width / 2, y: side.y + side.height / 2 };
+  await page.mouse.move(s0.x, s0.y);
+  await page.mouse.down();
+  // A fifth of the way towards the centre.
+  await page.mouse.move(s0.x + (c0.x - s0.x) * 0.1, s0.y + (c0.y - s0.y) * 0.1);
+  await page.mouse.move(s0.x + (c0.x - s0.x) * 0.2, s0.y + (c0.y - s0.y) * 0.2);
+  await page.mouse.up();
+  expect(Number(await ellipse.getAttribute('ry'))).toBeLessThan(ry);
+  expect(Number(await ellipse.getAttribute('rx'))).toBe(rx);
   await page.getByRole('button', { name: 'Re-read inside the moved dish' }).tap();
   // Half the radius, a quarter of the area: far fewer colonies inside.
   await expect.poll(() => total(page), { timeout: 60_000 }).toBeLessThan(before * 0.6);

@@ -1,5 +1,6 @@
 import { type PointerEvent, type RefObject, useRef, useState, type WheelEvent } from 'react';
 import type { DishRecord } from '../../schema/records.ts';
+import { type DishHandle, dragHandle, isDishHandle } from './dish-handles.ts';
 import { type View, viewAfterPinch, viewAfterWheel } from './view.ts';
 
 /** A finger that moves less than this between down and up has tapped. */
@@ -10,7 +11,7 @@ type Gesture =
   | { kind: 'none' }
   | { kind: 'tap' | 'pan'; x0: number; y0: number; at0: Point; view0: View }
   | { kind: 'pinch'; d0: number; mid0: Point; view0: View }
-  | { kind: 'dish'; part: 'centre' | 'rim'; dish0: DishRecord };
+  | { kind: 'dish'; part: DishHandle; dish0: DishRecord };
 
 export interface GestureTargets {
   width: number;
@@ -23,8 +24,8 @@ export interface GestureTargets {
 
 /**
  * Pointer gestures on the review picture: one finger taps, or pans when zoomed; two fingers
- * pinch-zoom; a finger on a dish handle (an element with data-handle="centre" or "rim") drags
- * the dish, which is reported when the finger lifts. The mouse wheel zooms.
+ * pinch-zoom; a finger on a dish handle (an element with data-handle="centre", "rim" or "side",
+ * see dish-handles.ts) drags the dish, which is reported when the finger lifts. The mouse wheel zooms.
  */
 export function useReviewGestures(svg: RefObject<SVGSVGElement | null>, t: GestureTargets) {
   const [view, setView] = useState<View>({ s: 1, tx: 0, ty: 0 });
@@ -53,12 +54,8 @@ export function useReviewGestures(svg: RefObject<SVGSVGElement | null>, t: Gestu
       const [a, b] = twoFingers();
       const mid0 = toViewBox((a.x + b.x) / 2, (a.y + b.y) / 2);
       gesture.current = { kind: 'pinch', d0: Math.hypot(a.x - b.x, a.y - b.y), mid0, view0: view };
-    } else if (handle && (dragDish ?? t.dish)) {
-      gesture.current = {
-        kind: 'dish',
-        part: handle as 'centre' | 'rim',
-        dish0: (dragDish ?? t.dish)!,
-      };
+    } else if (isDishHandle(handle) && (dragDish ?? t.dish)) {
+      gesture.current = { kind: 'dish', part: handle, dish0: (dragDish ?? t.dish)! };
     } else {
       const at0 = toViewBox(e.clientX, e.clientY);
       gesture.current = { kind: 'tap', x0: e.clientX, y0: e.clientY, at0, view0: view };
@@ -75,13 +72,7 @@ export function useReviewGestures(svg: RefObject<SVGSVGElement | null>, t: Gestu
       const ratio = Math.hypot(a.x - b.x, a.y - b.y) / g.d0;
       setView(viewAfterPinch(g.view0, g.mid0, mid, ratio, t.width, t.height));
     } else if (g.kind === 'dish') {
-      const at = toImage(e.clientX, e.clientY);
-      const d = g.dish0;
-      if (g.part === 'centre') setDragDish({ ...d, cx: at.x, cy: at.y });
-      else {
-        const r = Math.max(20, Math.hypot(at.x - d.cx, at.y - d.cy));
-        setDragDish({ ...d, rx: r, ry: r * (d.ry / d.rx) });
-      }
+      setDragDish(dragHandle(g.dish0, g.part, toImage(e.clientX, e.clientY)));
     } else if (
       (g.kind === 'tap' || g.kind === 'pan') &&
       Math.hypot(e.clientX - g.x0, e.clientY - g.y0) > TAP_SLOP_PX

@@ -1,6 +1,7 @@
 import { useRef } from 'react';
 import type { ColonyRecord, DishRecord } from '../../schema/records.ts';
 import type { ClassLook } from '../bench/colours.ts';
+import { DISH_HANDLES, handleAt } from '../review/dish-handles.ts';
 import { useReviewGestures } from '../review/use-review-gestures.ts';
 
 /** Halo behind a class outline: light on dark class colours, dark on light ones. */
@@ -71,20 +72,19 @@ export function ReviewView(p: ReviewViewProps) {
                 ry={dish.ry}
                 transform={`rotate(${dish.angleDeg} ${dish.cx} ${dish.cy})`}
               />
-              <circle
-                className="dish-handle"
-                data-handle="centre"
-                cx={dish.cx}
-                cy={dish.cy}
-                r={p.width / 60 / view.s}
-              />
-              <circle
-                className="dish-handle"
-                data-handle="rim"
-                cx={dish.cx + dish.rx}
-                cy={dish.cy}
-                r={p.width / 70 / view.s}
-              />
+              {DISH_HANDLES.map((h) => {
+                const at = handleAt(dish, h);
+                return (
+                  <circle
+                    key={h}
+                    className="dish-handle"
+                    data-handle={h}
+                    cx={at.x}
+                    cy={at.y}
+                    r={p.width / (h === 'centre' ? 60 : 70) / view.s}
+                  />
+                );
+              })}
             </g>
           )}
         </g>
