@@ -12,12 +12,13 @@ import {
 } from 'workbox-precaching';
 import { NavigationRoute, registerRoute } from 'workbox-routing';
 import { openIdbStore } from '../storage/idb-store.ts';
+import type { RecordStore } from '../storage/record-store.ts';
 import {
   BACKGROUND_SYNC_TAG,
   BACKGROUND_SYNCED,
   backgroundRound,
 } from '../sync/background-round.ts';
-import { openSyncState } from '../sync/sync-state.ts';
+import { openSyncState, type SyncState } from '../sync/sync-state.ts';
 
 declare const self: ServiceWorkerGlobalScope & { __WB_MANIFEST: (string | PrecacheEntry)[] };
 
@@ -37,8 +38,16 @@ self.addEventListener('message', (event) => {
   if ((event.data as { type?: unknown } | null)?.type === 'SKIP_WAITING') void self.skipWaiting();
 });
 
+// Opened on the first sync event and kept for the worker's life: one connection each, not one
+// per event.
+let stores: Promise<[RecordStore, SyncState]> | undefined;
+
 async function syncInBackground(): Promise<void> {
-  const [records, state] = await Promise.all([openIdbStore(), openSyncState()]);
+  stores ??= Promise.all([openIdbStore(), openSyncState()]);
+  const [records, state] = await stores.catch((e: unknown) => {
+    stores = undefined; // tried afresh next time
+    throw e;
+  });
   const outcome = await backgroundRound(records, state);
   if (outcome === 'off') return;
   for (const client of await self.clients.matchAll({ type: 'window' }))
