@@ -33,6 +33,8 @@ test('a change made offline goes to the server from the service worker after the
   await page.getByRole('button', { name: 'Create experiment' }).tap();
   await page.getByRole('link', { name: 'Back' }).tap();
   await expect(page.getByTestId('sync-phase')).toContainText('No network');
+  // Every screen's top bar says so too.
+  await expect(page.getByTestId('sync-note')).toHaveText(/^offline · \d+ waiting$/);
   // The app asked the service worker to sync once the network is back.
   await expect
     .poll(() =>

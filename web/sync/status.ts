@@ -89,3 +89,17 @@ export function describeFailure(failure: SyncFailure): SyncProblem {
       return say(`The lab server refused a change: ${failure.message}`);
   }
 }
+
+/**
+ * The few words every screen's top bar shows while something about sharing needs attention or
+ * is under way; null when sharing is off or all is shared.
+ */
+export function syncNote(s: SyncStatus): string | null {
+  if (s.phase === 'off') return null;
+  if (s.conflicts.length > 0) return `${s.conflicts.length} to settle`;
+  if (s.phase === 'refused') return 'not shared: see the start screen';
+  const waiting = s.waiting > 0 ? `${s.waiting} waiting` : null;
+  if (s.phase === 'offline') return waiting ? `offline · ${waiting}` : 'offline';
+  if (s.phase === 'syncing') return 'sharing…';
+  return waiting;
+}

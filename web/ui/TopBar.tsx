@@ -1,4 +1,5 @@
 import type { ReactNode } from 'react';
+import { SyncNote } from './SyncNote.tsx';
 
 export function TopBar({
   title,
@@ -22,6 +23,7 @@ export function TopBar({
       )}
       <h1>{title}</h1>
       {children}
+      <SyncNote />
     </header>
   );
 }
