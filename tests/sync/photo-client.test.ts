@@ -64,6 +64,32 @@ describe('photo upload from the phone', () => {
     ).toBe(createHash('sha256').update(bytes).digest('hex'));
   });
 
+  it('a second phone fetches the photo whole; one not yet uploaded is named as missing', async () => {
+    const token = await server.lab('photo-client');
+    const bytes = randomBytes(300_000);
+    const transport = createTransport({ serverUrl: server.origin, token });
+    const photo = {
+      id: 'mf-photo-shared',
+      plateId: 'mf-plate-2',
+      blob: new Blob([bytes], { type: 'image/jpeg' }),
+    };
+    expect((await uploadPhoto(transport, photo)).ok).toBe(true);
+
+    const other = createTransport({ serverUrl: server.origin, token });
+    const got = await other.photo('mf-photo-shared');
+    if (!got.ok) throw new Error(got.failure.message);
+    expect(got.value.type).toBe('image/jpeg');
+    expect(
+      createHash('sha256')
+        .update(Buffer.from(await got.value.arrayBuffer()))
+        .digest('hex'),
+    ).toBe(createHash('sha256').update(bytes).digest('hex'));
+    expect(await other.photo('mf-photo-never')).toMatchObject({
+      ok: false,
+      failure: { code: 'not-found', message: expect.stringContaining('mf-photo-never') },
+    });
+  });
+
   it('hashes with SHA-256 as node:crypto does (FIPS 180-4 test vector "abc")', async () => {
     expect(await sha256Hex(new TextEncoder().encode('abc') as Uint8Array<ArrayBuffer>)).toBe(
       'ba7816bf8f01cfea414140de5dae2223b00361a396177a9cb410ff61f20015ad',
