@@ -6,7 +6,6 @@ const STAGE_WORDS: Record<string, string> = {
   fetch: 'Fetching the photo from the lab server',
   decode: 'Opening the photo',
   opencv: 'Loading the plate reader',
-  load: 'Loading the plate reader',
   dish: 'Finding the dish',
   'working-image': 'Preparing the picture',
   background: 'Evening out the light',
