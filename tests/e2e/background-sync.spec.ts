@@ -1,7 +1,7 @@
 import { expect, test } from '@playwright/test';
 import type { Experiment } from '../../schema/records.ts';
 import { BACKGROUND_SYNC_TAG } from '../../web/sync/background-round.ts';
-import { waitForServiceWorker } from './helpers.ts';
+import { createExperiment, waitForServiceWorker } from './helpers.ts';
 import { connectedPhone, type LabServer, serverRecords, startLabServer } from './lab-server.ts';
 
 /**
@@ -28,9 +28,7 @@ test('a change made offline goes to the server from the service worker after the
   await waitForServiceWorker(page);
   const context = page.context();
   await context.setOffline(true);
-  await page.getByRole('button', { name: 'New experiment' }).tap();
-  await page.getByLabel('Experiment name').fill('Made in the cold room');
-  await page.getByRole('button', { name: 'Create experiment' }).tap();
+  await createExperiment(page, 'Made in the cold room');
   await page.getByRole('link', { name: 'Back' }).tap();
   await expect(page.getByTestId('sync-phase')).toContainText('No network');
   // Every screen's top bar says so too.

@@ -1,7 +1,15 @@
 import { readFileSync } from 'node:fs';
 import { resolve } from 'node:path';
 import { expect, test } from '@playwright/test';
-import { count, DEMO, openApp, shot, tapColony, waitForServiceWorker } from './helpers.ts';
+import {
+  count,
+  createExperiment,
+  DEMO,
+  openApp,
+  shot,
+  tapColony,
+  waitForServiceWorker,
+} from './helpers.ts';
 import { nodeReading } from './node-reference.ts';
 
 const START_PHOTO = resolve(DEMO, 'marrowfield-L2-day0.jpg');
@@ -15,9 +23,7 @@ test('set up, photograph, correct by tapping, type the other sample, see W; then
   await shot(page, '01-home');
 
   // Experiment and first assay, with the form's defaults.
-  await page.getByRole('button', { name: 'New experiment' }).tap();
-  await page.getByLabel('Experiment name').fill('E2E pond run');
-  await page.getByRole('button', { name: 'Create experiment' }).tap();
+  await createExperiment(page, 'E2E pond run');
   await expect(page.getByRole('heading', { name: 'New assay' })).toBeVisible();
   await shot(page, '02-new-assay');
   await page.getByRole('button', { name: 'Save assay' }).tap();

@@ -1,13 +1,11 @@
 import { expect, test } from '@playwright/test';
-import { count, openApp, shot } from './helpers.ts';
+import { count, createExperiment, openApp, shot } from './helpers.ts';
 
 test('the live view shows the camera with the dish ring, and a captured frame is read', async ({
   page,
 }) => {
   await openApp(page);
-  await page.getByRole('button', { name: 'New experiment' }).tap();
-  await page.getByLabel('Experiment name').fill('Camera run');
-  await page.getByRole('button', { name: 'Create experiment' }).tap();
+  await createExperiment(page, 'Camera run');
   await page.getByRole('button', { name: 'Save assay' }).tap();
   await page.getByRole('link', { name: 'Photo of start plate' }).tap();
   await page.getByRole('button', { name: 'Live view' }).tap();

@@ -3,7 +3,7 @@ import { resolve } from 'node:path';
 import { expect, test } from '@playwright/test';
 import { analyse } from '../../fitness/analysis.ts';
 import { readCompetitionCsv } from '../../fitness/competition-csv.ts';
-import { openApp, ROOT, shot } from './helpers.ts';
+import { createExperiment, openApp, ROOT, shot } from './helpers.ts';
 
 const EXAMPLE = resolve(ROOT, 'fixtures/example-competition.csv');
 
@@ -11,9 +11,7 @@ test('a plate CSV is imported into an experiment and its fitness computed; a bad
   page,
 }) => {
   await openApp(page);
-  await page.getByRole('button', { name: 'New experiment' }).tap();
-  await page.getByLabel('Experiment name').fill('Imported');
-  await page.getByRole('button', { name: 'Create experiment' }).tap();
+  await createExperiment(page, 'Imported');
   await page.getByRole('button', { name: 'Close' }).tap();
   await page.getByRole('link', { name: 'Files' }).tap();
 
@@ -55,9 +53,7 @@ test('a file that is not a photo, or an empty one, gets a message naming it and 
   page,
 }) => {
   await openApp(page);
-  await page.getByRole('button', { name: 'New experiment' }).tap();
-  await page.getByLabel('Experiment name').fill('Bad files');
-  await page.getByRole('button', { name: 'Create experiment' }).tap();
+  await createExperiment(page, 'Bad files');
   await page.getByRole('button', { name: 'Save assay' }).tap();
   await page.getByRole('link', { name: 'Photo of start plate' }).tap();
   await page.getByTestId('file-input').setInputFiles({

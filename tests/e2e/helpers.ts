@@ -19,6 +19,13 @@ export async function openApp(page: Page): Promise<void> {
   await expect(page.getByRole('heading', { name: 'Rivalplate' })).toBeVisible();
 }
 
+/** From the start screen: a new experiment of that name, created with the app's defaults. */
+export async function createExperiment(page: Page, name: string): Promise<void> {
+  await page.getByRole('button', { name: 'New experiment' }).tap();
+  await page.getByLabel('Experiment name').fill(name);
+  await page.getByRole('button', { name: 'Create experiment' }).tap();
+}
+
 export async function count(page: Page, cls: 0 | 1): Promise<number> {
   return Number(await page.getByTestId(`count-${cls}-value`).textContent());
 }

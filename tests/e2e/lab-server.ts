@@ -59,16 +59,29 @@ export async function startLabServer(slot: number): Promise<LabServer> {
   };
 }
 
-/** A phone of its own (a fresh browser context) with the app open and sharing turned on. */
-export async function connectedPhone(browser: Browser, lab: LabServer): Promise<Page> {
+/**
+ * A phone of its own (a fresh browser context) with the app served by the lab server open, and
+ * the lab server's address and `token` sent from the sharing form.
+ */
+export async function phoneConnecting(
+  browser: Browser,
+  lab: LabServer,
+  token: string,
+): Promise<Page> {
   const context = await browser.newContext({ ...devices['Pixel 7'], serviceWorkers: 'allow' });
   const page = await context.newPage();
   await page.goto(`${lab.url}/`);
   await page.getByRole('button', { name: 'Understood' }).tap();
   await page.getByText("Share this phone's plates with the lab server").tap();
   await page.getByLabel('Server address').fill(lab.url);
-  await page.getByLabel('Token').fill(lab.token);
+  await page.getByLabel('Token').fill(token);
   await page.getByRole('button', { name: 'Connect' }).tap();
+  return page;
+}
+
+/** A phone with sharing turned on with the lab's token. */
+export async function connectedPhone(browser: Browser, lab: LabServer): Promise<Page> {
+  const page = await phoneConnecting(browser, lab, lab.token);
   await expect(page.getByTestId('sync-phase')).toHaveText('Shared with the lab server.');
   return page;
 }

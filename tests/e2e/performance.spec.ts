@@ -2,7 +2,7 @@ import { existsSync } from 'node:fs';
 import { resolve } from 'node:path';
 import { expect, test } from '@playwright/test';
 import sharp from 'sharp';
-import { DEMO, openApp, ROOT, shot, waitForServiceWorker } from './helpers.ts';
+import { createExperiment, DEMO, openApp, ROOT, shot, waitForServiceWorker } from './helpers.ts';
 
 const BIG = resolve(ROOT, 'tests/artifacts/plate-12mp.jpg');
 const SOURCE = resolve(DEMO, 'marrowfield-L2-day1.jpg');
@@ -19,9 +19,7 @@ test.beforeAll(async () => {
 
 async function plateScreen(page: import('@playwright/test').Page) {
   await openApp(page);
-  await page.getByRole('button', { name: 'New experiment' }).tap();
-  await page.getByLabel('Experiment name').fill('Timing');
-  await page.getByRole('button', { name: 'Create experiment' }).tap();
+  await createExperiment(page, 'Timing');
   await page.getByRole('button', { name: 'Save assay' }).tap();
   await page.getByRole('link', { name: 'Photo of start plate' }).tap();
 }

@@ -1,15 +1,13 @@
 import { readFileSync } from 'node:fs';
 import { resolve } from 'node:path';
 import { expect, type Page, test } from '@playwright/test';
-import { count, DEMO, openApp, shot, tapColony } from './helpers.ts';
+import { count, createExperiment, DEMO, openApp, shot, tapColony } from './helpers.ts';
 
 const PHOTO = resolve(DEMO, 'marrowfield-L2-day1.jpg');
 
 async function readOnePlate(page: Page) {
   await openApp(page);
-  await page.getByRole('button', { name: 'New experiment' }).tap();
-  await page.getByLabel('Experiment name').fill('Tools');
-  await page.getByRole('button', { name: 'Create experiment' }).tap();
+  await createExperiment(page, 'Tools');
   await page.getByRole('button', { name: 'Save assay' }).tap();
   await page.getByRole('link', { name: 'Photo of start plate' }).tap();
   await page.getByTestId('file-input').setInputFiles(PHOTO);
@@ -113,9 +111,7 @@ test('a photo stored sideways with an EXIF orientation is read upright', async (
   // picture; the file itself is stored 1200 × 1600 with EXIF orientation 6.
   const truth = JSON.parse(readFileSync(rotated.replace('.jpg', '.truth.json'), 'utf8'));
   await openApp(page);
-  await page.getByRole('button', { name: 'New experiment' }).tap();
-  await page.getByLabel('Experiment name').fill('Sideways');
-  await page.getByRole('button', { name: 'Create experiment' }).tap();
+  await createExperiment(page, 'Sideways');
   await page.getByRole('button', { name: 'Save assay' }).tap();
   await page.getByRole('link', { name: 'Photo of start plate' }).tap();
   await page.getByTestId('file-input').setInputFiles(rotated);

@@ -1,7 +1,7 @@
 import { resolve } from 'node:path';
 import { expect, type Page, test } from '@playwright/test';
 import type { Corrections } from '../../schema/records.ts';
-import { count, DEMO, shot, tapColony } from './helpers.ts';
+import { count, createExperiment, DEMO, shot, tapColony } from './helpers.ts';
 import { connectedPhone, type LabServer, serverRecords, startLabServer } from './lab-server.ts';
 
 /**
@@ -42,9 +42,7 @@ test('both phones correct one plate offline; the conflict is shown and the merge
   browser,
 }) => {
   const a = await connectedPhone(browser, lab);
-  await a.getByRole('button', { name: 'New experiment' }).tap();
-  await a.getByLabel('Experiment name').fill('Offline taps');
-  await a.getByRole('button', { name: 'Create experiment' }).tap();
+  await createExperiment(a, 'Offline taps');
   await a.getByRole('button', { name: 'Save assay' }).tap();
   await a.getByRole('link', { name: 'Photo of start plate' }).tap();
   await a.getByTestId('file-input').setInputFiles(PHOTO);

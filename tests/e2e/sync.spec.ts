@@ -1,6 +1,6 @@
-import { devices, expect, test } from '@playwright/test';
-import { shot } from './helpers.ts';
-import { connectedPhone, type LabServer, startLabServer } from './lab-server.ts';
+import { expect, test } from '@playwright/test';
+import { createExperiment, shot } from './helpers.ts';
+import { connectedPhone, type LabServer, phoneConnecting, startLabServer } from './lab-server.ts';
 
 /** Two phones share plates through the lab's real sync server. */
 let lab: LabServer;
@@ -13,9 +13,7 @@ test('an experiment made on one phone arrives on another through the lab server'
   browser,
 }) => {
   const a = await connectedPhone(browser, lab);
-  await a.getByRole('button', { name: 'New experiment' }).tap();
-  await a.getByLabel('Experiment name').fill('Shared run');
-  await a.getByRole('button', { name: 'Create experiment' }).tap();
+  await createExperiment(a, 'Shared run');
   await a.getByRole('button', { name: 'Save assay' }).tap();
   await a.getByRole('link', { name: 'Back' }).tap();
   await a.getByRole('button', { name: 'Share now' }).tap();
@@ -33,14 +31,7 @@ test('an experiment made on one phone arrives on another through the lab server'
 test('a wrong token is refused with the server’s reason, and the phone keeps working alone', async ({
   browser,
 }) => {
-  const context = await browser.newContext({ ...devices['Pixel 7'], serviceWorkers: 'allow' });
-  const page = await context.newPage();
-  await page.goto(`${lab.url}/`);
-  await page.getByRole('button', { name: 'Understood' }).tap();
-  await page.getByText("Share this phone's plates with the lab server").tap();
-  await page.getByLabel('Server address').fill(lab.url);
-  await page.getByLabel('Token').fill('not-a-token');
-  await page.getByRole('button', { name: 'Connect' }).tap();
+  const page = await phoneConnecting(browser, lab, 'not-a-token');
   await expect(page.locator('.field-error')).toContainText(/token/i);
   await expect(page.getByTestId('sync-phase')).toHaveText(
     'Not shared: everything stays on this phone.',
