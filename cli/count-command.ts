@@ -5,10 +5,10 @@
 import { readdir, stat, writeFile } from 'node:fs/promises';
 import { extname, join } from 'node:path';
 import { parseArgs } from 'node:util';
-import type { Palette, PlateAnalysis } from '../cv/index.ts';
+import type { Palette } from '../cv/index.ts';
 import { type CountableRange, DEFAULT_COUNTABLE_RANGE } from '../fitness/countable-range.ts';
+import { countBatch } from './count-batch.ts';
 import { type CountRecord, countRecord, csvErrorRow, csvHeader, csvRow } from './count-record.ts';
-import { decodePhoto } from './decode-image.ts';
 import type { CommandIo } from './io.ts';
 import { loadCvCore } from './opencv-quiet.ts';
 import { parseRange, UsageError, wholeNumber } from './options.ts';
@@ -49,11 +49,6 @@ interface Options {
   inputs: string[];
 }
 
-type Outcome =
-  | { file: string; analysis: PlateAnalysis; original: Original; ms: number }
-  | { file: string; error: string };
-type Original = { width: number; height: number; decodedScale: number };
-
 export async function run(args: string[], io: CommandIo): Promise<number> {
   let options: Options;
   try {
@@ -81,21 +76,14 @@ export async function run(args: string[], io: CommandIo): Promise<number> {
     }
   }
 
-  const outcomes: Outcome[] = [];
-  for (const [i, file] of files.entries()) {
-    io.status?.(`[${i + 1}/${files.length}] ${file}`.slice(0, 100));
-    outcomes.push(await countOne(core, file, options, palette));
-  }
+  const batch = await countBatch(core, files, {
+    dishMm: options.dishMm,
+    ...(palette ? { palette } : {}),
+    onPhoto: (i, n, file) => io.status?.(`[${i}/${n}] ${file}`.slice(0, 100)),
+  });
   if (files.length > 0) io.status?.('');
-
-  if (!palette) {
-    const learned = core.learnPalette(analysesOf(outcomes));
-    if (learned) {
-      palette = learned;
-      for (const o of outcomes)
-        if ('analysis' in o) o.analysis = core.classifyWithPalette(o.analysis, learned);
-    }
-  }
+  const { outcomes } = batch;
+  palette = batch.palette;
   if (options.savePalette) {
     if (palette) await writePaletteFile(options.savePalette, palette);
     else io.err('rivalplate count: no palette saved: the batch shows only one colony colour');
@@ -115,30 +103,6 @@ export async function run(args: string[], io: CommandIo): Promise<number> {
     }
   }
   return failed > 0 || files.length === 0 ? 1 : 0;
-}
-
-async function countOne(
-  core: Awaited<ReturnType<typeof loadCvCore>>,
-  file: string,
-  options: Options,
-  palette: Palette | undefined,
-): Promise<Outcome> {
-  try {
-    const photo = await decodePhoto(file);
-    const started = performance.now();
-    const analysis = await core.analyzePlate(photo.pixels, {
-      dishDiameterMm: options.dishMm,
-      ...(palette ? { palette } : {}),
-    });
-    const original = { width: photo.width, height: photo.height, decodedScale: photo.scale };
-    return { file, analysis, original, ms: performance.now() - started };
-  } catch (e) {
-    return { file, error: e instanceof Error ? e.message : String(e) };
-  }
-}
-
-function analysesOf(outcomes: readonly Outcome[]): PlateAnalysis[] {
-  return outcomes.flatMap((o) => ('analysis' in o ? [o.analysis] : []));
 }
 
 function parseOptions(args: string[]): Options {

@@ -15,6 +15,10 @@ const COMMANDS: Record<string, Command> = {
     summary: 'count the colonies of each marker colour on plate photos',
     load: () => import('./count-command.ts'),
   },
+  accuracy: {
+    summary: 'score the counter on a folder of photos labelled by hand',
+    load: () => import('./accuracy-command.ts'),
+  },
   fitness: {
     summary: 'relative fitness, replicate statistics and trajectories from a CSV of plate counts',
     load: () => import('./fitness-command.ts'),

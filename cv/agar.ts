@@ -32,6 +32,8 @@ export interface AgarModel {
   countMask: Mat;
   /** The outermost pixels of the counting area, next to the dish wall (8-bit 0/255). */
   rim: Mat;
+  /** The band within WALL_ZONE_MM of the wall, where the meniscus and reflections lie (0/255). */
+  wallBand: Mat;
   glareFraction: number;
   /** Within GLARE_ZONE_MM of lid glare, where its fainter fringe still lights the agar (0/255). */
   glareZone: Mat;
@@ -68,11 +70,12 @@ export function modelAgar(
   cv.bitwise_not(glare, notGlare);
   cv.bitwise_and(agarMask, notGlare, countMask);
 
-  const rim = keep(rimOf(cv, agarMask));
+  const rim = keep(bandInside(cv, agarMask, RIM_PX));
+  const wallBand = keep(bandInside(cv, agarMask, Math.round(WALL_ZONE_MM / frame.mmPerPx)));
   const centre = background8.data;
   const ci = (Math.round(dish.cy) * background8.cols + Math.round(dish.cx)) * 3;
   const agarLab = lab8ToLab(centre[ci] ?? 0, centre[ci + 1] ?? 128, centre[ci + 2] ?? 128);
-  return { lab8, background8, deltaE, countMask, rim, glareFraction, glareZone, agarLab };
+  return { lab8, background8, deltaE, countMask, rim, wallBand, glareFraction, glareZone, agarLab };
 }
 
 /** An 8-bit 0/255 mask of the dish ellipse scaled by `fraction`. */
@@ -110,13 +113,17 @@ function zoneAround(cv: OpenCv, glare: Mat, quarter: Mat, frame: WorkingFrame): 
   });
 }
 
-/** The band of RIM_PX pixels just inside the edge of a mask. */
+/** The rim: the outermost RIM_PX pixels of the counting area. */
 const RIM_PX = 3;
-function rimOf(cv: OpenCv, mask: Mat): Mat {
+/** The wall zone: within this distance of the wall the meniscus and the wall's reflections lie. */
+export const WALL_ZONE_MM = 1.2;
+
+/** The band of `width` pixels just inside the edge of a mask. */
+function bandInside(cv: OpenCv, mask: Mat, width: number): Mat {
   return withMats((keep) => {
     const inner = keep(new cv.Mat());
     const k = keep(
-      cv.getStructuringElement(cv.MORPH_ELLIPSE, new cv.Size(2 * RIM_PX + 1, 2 * RIM_PX + 1)),
+      cv.getStructuringElement(cv.MORPH_ELLIPSE, new cv.Size(2 * width + 1, 2 * width + 1)),
     );
     cv.erode(mask, inner, k);
     const rim = new cv.Mat();

@@ -1,7 +1,7 @@
-import { modelAgar } from './agar.ts';
+import { modelAgar, WALL_ZONE_MM } from './agar.ts';
 import { resizeRegion } from './banded-resize.ts';
-import { selectCandidates, WALL_ZONE_MM } from './candidates.ts';
-import { classify } from './classify.ts';
+import { selectCandidates } from './candidates.ts';
+import { classify, OUTLIER_CONFIDENCE } from './classify.ts';
 import { now } from './clock.ts';
 import { detectDish, ellipseRadius, givenDish } from './dish.ts';
 import { deltaESlope, edgeWidthMm } from './focus.ts';
@@ -100,6 +100,7 @@ function runPipeline(
     agar.deltaE,
     deltaESlope(cv, keep, agar.deltaE),
     agar.rim,
+    split.ridge,
   );
   const { candidates, rejected } = selectCandidates(
     measured.regions,
@@ -110,9 +111,8 @@ function runPipeline(
     (r) => (1 - ellipseRadius(dishW, r.x, r.y)) * dishW.r * frame.mmPerPx < WALL_ZONE_MM,
     (r) => agar.glareZone.data[Math.floor(r.y) * agar.glareZone.cols + Math.floor(r.x)]! > 0,
   );
-  // The person looks there: a colony under writing shares the ink's blob and may go with it.
-  // (Thin strokes are not counted here: most are reflections along the wall.)
-  if (rejected.ink > 0) flags.push({ kind: 'ink', pieces: rejected.ink });
+  // The person looks there: a colony under writing shares the stroke's blob and may go with it.
+  if (rejected.strokes > 0) flags.push({ kind: 'ink', pieces: rejected.strokes });
   stage('measure', 0.85);
 
   const samples = candidates.map((c) => ({
@@ -129,17 +129,17 @@ function runPipeline(
       r: round(Math.sqrt(area / Math.PI), 2),
       area: Math.round(area),
       cls: classes.cls[i]!,
-      confidence: round(classes.confidence[i]!, 3),
+      confidence: classes.outlier[i] ? OUTLIER_CONFIDENCE : round(classes.confidence[i]!, 3),
       split: c.split,
       count: c.count,
       lab: roundLab(samples[i]!.lab),
       deltaLab: roundLab(samples[i]!.deltaLab),
     };
   });
-  const colonies = all.filter((_, i) => !classes.outlier[i]);
+  const colonies = all;
   stage('classify', 0.95);
 
-  flags.push(...colonyFlags(colonies, classes.oneColour, all.length - colonies.length));
+  flags.push(...colonyFlags(colonies, classes.oneColour, classes.outlier.filter(Boolean).length));
   const edge = edgeWidthMm(
     candidates.map((c) => c.region),
     frame.mmPerPx,

@@ -13,12 +13,14 @@ import type { ComponentStats, RegionStats } from './measure.ts';
  *   is such a ghost; every real colony here is lighter or darker than its agar.
  * - Slivers and satellites: thin pieces the watershed cuts off the edge of a colony in a touching
  *   group, and small blobs hugging a bigger colony (its blurred rim, cut loose by thresholding).
- * - Strokes (marker-pen writing seen through the lid): blobs far longer than they are thick and
- *   thinner than a typical colony. A chain of touching colonies is long too, but as thick as its
- *   colonies, so it stays.
- * - Ink: regions much darker than the agar and colourless (marker pen, whatever its shape once the
- *   watershed has cut a letter into pieces). Marker colours are colours; a plate whose marker is
- *   itself near-black would need this rule relaxed.
+ * - Strokes (marker-pen writing on the lid or the base, scratches, a lamp's line reflection):
+ *   blobs far longer than they are thick and of even thickness, recognised by shape alone, never
+ *   by colour (pens come in every colour, and so do colonies). Even thickness is read from the
+ *   ridge of the distance map (its local maxima, the medial axis): along a band of even width the
+ *   ridge holds one value, so its coefficient of variation is near 0 (corners and junctions of
+ *   writing add a little); along a chain of touching discs of radius R it follows
+ *   √(R² − x²), whose coefficient of variation is about 0.28, and a single disc's ridge is one
+ *   point. A long blob whose ridge varies less than STROKE_RIDGE_VARIATION is a band.
  * - Grey shades: regions darker than the agar with hardly any colour of their own (the soft edge
  *   of an ink stroke, the shadowed side of a droplet, the dim rim round lid glare). A colony is
  *   either lighter than the agar (pale, white, cream) or coloured; a grey shade is neither.
@@ -49,18 +51,18 @@ const SLIVER = 0.15;
 /** Satellites: smaller than SATELLITE_AREA minimum colonies, within SATELLITE_GAP_MM of a bigger one. */
 const SATELLITE_AREA = 3;
 const SATELLITE_GAP_MM = 0.3;
-const STROKE_ELONGATION = 4.5;
+const STROKE_ELONGATION = 3;
+/** Between a band's ridge variation (≈ 0) and a chain of colonies' (≈ 0.28). */
+const STROKE_RIDGE_VARIATION = 0.15;
 const STROKE_THINNESS = 0.7;
-/** Ink: darker than the agar by this much in L*, and with a chroma below INK_CHROMA. */
-const INK_DARKER = 15;
-const INK_CHROMA = 12;
+/** A region of a stroke's blob this many times thicker than the stroke is a colony under it. */
+const COLONY_ON_STROKE = 1.6;
 /** A grey shade: darker than the agar and within this colour difference of it in a*, b*. */
 const GREY_SHADE_CHROMA = 6;
 /** Glare fringe: within this colour difference of the agar in a*, b*. */
 const GLARE_FRINGE_TINT = 3;
 const CLUMP_ELONGATION = 2.0;
 const WALL_THINNESS = 0.35;
-export const WALL_ZONE_MM = 1.2;
 const WALL_CRUMB = 0.35;
 /** A region near the wall at least this many typical radii thick is a colony the wall cuts. */
 const WALL_CRUMB_THICKNESS = 0.45;
@@ -73,7 +75,7 @@ export interface Candidate {
 
 export interface CandidateResult {
   candidates: Candidate[];
-  rejected: { specks: number; strokes: number; ink: number; wall: number; shades: number };
+  rejected: { specks: number; strokes: number; wall: number; shades: number };
   typicalArea: number;
 }
 
@@ -88,7 +90,7 @@ export function selectCandidates(
 ): CandidateResult {
   const minArea = Math.PI * (MIN_COLONY_RADIUS_MM / mmPerPx) ** 2;
   const byId = new Map(components.map((c) => [c.id, c]));
-  const rejected = { specks: 0, strokes: 0, ink: 0, wall: 0, shades: 0 };
+  const rejected = { specks: 0, strokes: 0, wall: 0, shades: 0 };
   const verdict = new Map<number, 'keep' | 'specks' | 'strokes' | 'wall'>();
   for (const c of components) {
     const v = componentVerdict(c, minArea, typicalRadius);
@@ -99,8 +101,11 @@ export function selectCandidates(
     const v = verdict.get(r.component);
     // A colony touching a pen stroke or a glint on the wall shares its blob; it is as thick as a
     // colony, the stroke and the glint are not.
+    const comp = byId.get(r.component);
     const fatInThin =
-      (v === 'strokes' || v === 'wall') && r.halfWidth >= STROKE_THINNESS * typicalRadius;
+      comp !== undefined &&
+      ((v === 'strokes' && r.halfWidth >= COLONY_ON_STROKE * strokeHalfWidth(comp)) ||
+        (v === 'wall' && r.halfWidth >= STROKE_THINNESS * typicalRadius));
     if ((v !== 'keep' && !fatInThin) || r.area < minArea) return false;
     // A region no different from the agar on average is agar enclosed by something else (the
     // inside of a pen letter, a filled ring) or a fringe of ringing round a dark colony, whose
@@ -117,17 +122,12 @@ export function selectCandidates(
       rejected.specks++; // a chroma ghost, see above
       return false;
     }
-    const comp = byId.get(r.component);
     if (comp && comp.regions > 1 && r.area < SLIVER * Math.PI * typicalRadius ** 2) {
       rejected.specks++; // a sliver the watershed cut off a colony's edge
       return false;
     }
     if (nearGlare(r) && isGlareFringe(r)) {
       rejected.shades++;
-      return false;
-    }
-    if (isInk(r)) {
-      rejected.ink++;
       return false;
     }
     if (!isGreyShade(r)) return true;
@@ -195,11 +195,19 @@ function componentVerdict(
 ): 'keep' | 'specks' | 'strokes' | 'wall' {
   if (c.area < minArea) return 'specks';
   const elongation = c.area / (Math.PI * Math.max(1, c.halfWidth) ** 2);
-  if (elongation > STROKE_ELONGATION && c.halfWidth < STROKE_THINNESS * typicalRadius) {
+  if (elongation > STROKE_ELONGATION && c.ridgeVariation < STROKE_RIDGE_VARIATION) {
     return 'strokes';
   }
   if (c.rimPixels > 0 && c.halfWidth < WALL_THINNESS * typicalRadius) return 'wall';
   return 'keep';
+}
+
+/**
+ * Half the thickness of a band-shaped blob: twice its mean distance-map value (across a band the
+ * distance rises linearly from the edge to the middle, so its mean is half the maximum).
+ */
+function strokeHalfWidth(c: ComponentStats): number {
+  return 2 * c.meanDistance;
 }
 
 /** Lighter than the agar and untinted: the fading edge of lid glare, next to a glare patch. */
@@ -213,11 +221,6 @@ function isGreyShade(r: RegionStats): boolean {
   const dA = r.lab[1] - r.backgroundLab[1];
   const dB = r.lab[2] - r.backgroundLab[2];
   return r.lab[0] < r.backgroundLab[0] && Math.hypot(dA, dB) < GREY_SHADE_CHROMA;
-}
-
-function isInk(r: RegionStats): boolean {
-  const darker = r.backgroundLab[0] - r.lab[0];
-  return darker > INK_DARKER && Math.hypot(r.lab[1], r.lab[2]) < INK_CHROMA;
 }
 
 /** Median area of regions that were alone in their blob: the size of one colony on this plate. */

@@ -1,4 +1,4 @@
-import { centroid, isTwoColours, kmeans2, type Point } from './cluster.ts';
+import { centroid, isTwoColours, kmeans2, type Point, type TwoClusters } from './cluster.ts';
 import { labToHex } from './colour.ts';
 import { colourName, distinctNames } from './colour-name.ts';
 import type { ColonyClass, ColourClass, Lab, Palette, PaletteColour } from './types.ts';
@@ -35,8 +35,12 @@ export const LOW_CONFIDENCE = 0.75;
  * (a tinted droplet, a JPEG ghost) and is left out. Colonies of a colour sit within about 2.
  */
 export const OUTLIER_SPREADS = 4;
+/** The confidence given to a colony of neither colour: a coin toss, shown for the person to judge. */
+export const OUTLIER_CONFIDENCE = 0.5;
 /** Smallest spread used to scale distances, in feature units: real colours always vary this much. */
 const MIN_SPREAD = 2;
+/** A plate's own cluster needs this many colonies before the plate is sorted by its own split. */
+const MIN_OWN_CLUSTER = 3;
 
 export function colourFeature(d: Lab): Point {
   return [0.5 * d[0], d[1], d[2]];
@@ -65,6 +69,8 @@ export function classify(samples: readonly ColourSample[], palette?: Palette): C
       oneColour: 'no second colony colour stands apart from the spread of the first',
     };
   }
+  const own = palette ? twoColoursOf(features) : null;
+  if (palette && own && agrees(own, palette)) return byOwnClusters(features, own, palette);
   const centres = model.colours.map((c) => colourFeature(c.deltaLab));
   const spreads = model.colours.map((c) => Math.max(MIN_SPREAD, c.spread));
   const cls: ColonyClass[] = [];
@@ -82,14 +88,63 @@ export function classify(samples: readonly ColourSample[], palette?: Palette): C
   return { cls, confidence, outlier, classes: paletteClasses(model), oneColour: null };
 }
 
+/** This plate's own two colours, when its colonies show two (cluster.ts), else null. */
+function twoColoursOf(features: readonly Point[]): TwoClusters | null {
+  const clusters = kmeans2(features);
+  if (!clusters || !isTwoColours(clusters)) return null;
+  return Math.min(...clusters.sizes) >= MIN_OWN_CLUSTER ? clusters : null;
+}
+
+/** Each of the plate's own colours lies near a different palette colour (within OUTLIER_SPREADS). */
+function agrees(own: TwoClusters, palette: Palette): boolean {
+  const p = palette.colours.map((c) => colourFeature(c.deltaLab));
+  const s = palette.colours.map((c) => Math.max(MIN_SPREAD, c.spread));
+  const near = (o: Point, k: number) => distance(o, p[k]!) / s[k]! <= OUTLIER_SPREADS;
+  const [a, b] = own.centres;
+  return (near(a, 0) && near(b, 1)) || (near(a, 1) && near(b, 0));
+}
+
+/**
+ * A plate whose colonies show two colours of their own is sorted by its own clusters, and the
+ * palette only says which cluster is which colour (the pairing of centres with the smaller total
+ * distance). Lighting, white balance and the agar's batch shift both colours of a plate alike, so
+ * the plate's own split is sharper than the distance to colours learned on other plates.
+ * A colony far from both of its plate's clusters is marked as an outlier for the person to judge.
+ */
+function byOwnClusters(
+  features: readonly Point[],
+  own: TwoClusters,
+  palette: Palette,
+): Classification {
+  const p = palette.colours.map((c) => colourFeature(c.deltaLab));
+  const straight = distance(own.centres[0], p[0]!) + distance(own.centres[1], p[1]!);
+  const swapped = distance(own.centres[0], p[1]!) + distance(own.centres[1], p[0]!);
+  const classOf = (k: 0 | 1): ColonyClass => (straight <= swapped ? k : ((1 - k) as ColonyClass));
+  const spreads = own.spreads.map((s) => Math.max(MIN_SPREAD, s));
+  const cls: ColonyClass[] = [];
+  const confidence: number[] = [];
+  const outlier: boolean[] = [];
+  features.forEach((f, i) => {
+    const d0 = distance(f, own.centres[0]) / spreads[0]!;
+    const d1 = distance(f, own.centres[1]) / spreads[1]!;
+    const k = own.assignment[i] as 0 | 1;
+    cls.push(classOf(k));
+    const total = d0 + d1;
+    confidence.push(total === 0 ? 0.5 : (k === 0 ? d1 : d0) / total);
+    outlier.push(Math.min(d0, d1) > OUTLIER_SPREADS);
+  });
+  return { cls, confidence, outlier, classes: paletteClasses(palette), oneColour: null };
+}
+
 /**
  * Learns two marker colours from colonies (of one plate or pooled over a batch), or null when they
  * show only one colour. Class 0 is the darker colour relative to the agar.
  */
-export function paletteFrom(samples: readonly ColourSample[]): Palette | null {
+export function paletteFrom(samples: readonly ColourSample[], minShare = 0): Palette | null {
   const features = samples.map((s) => colourFeature(s.deltaLab));
   const clusters = kmeans2(features);
   if (!clusters || !isTwoColours(clusters)) return null;
+  if (Math.min(...clusters.sizes) < minShare * samples.length) return null;
   const groups = [0, 1].map((k) => samples.filter((_, i) => clusters.assignment[i] === k));
   const colours = groups.map((g, k) => ({
     lab: meanLab(g.map((s) => s.lab)),

@@ -5,8 +5,11 @@
  * Points are colour features (see colour-features.ts). Start: the point farthest from the mean
  * and the point farthest from that one, so the result never depends on a random seed and a 97:3
  * plate still seeds one centre in the small class. The pair is accepted as two colours only when
- * the centres lie further apart than SEPARATION_SD pooled within-cluster standard deviations and
- * at least MIN_SEPARATION feature units: a single-colour plate's natural spread does not pass.
+ * the centres lie at least MIN_SEPARATION feature units apart and Ashman's D along the line
+ * joining them, D = √2·|μ₁ − μ₂| / √(σ₁² + σ₂²) (Ashman, Bird & Zepf 1994, AJ 108:2348), is at
+ * least MIN_ASHMAN_D. Measured along that line, the spread a colour has across it (lighting,
+ * colony size) does not count against the split. Cutting one colour in two gives D ≈ 2.7 for a
+ * normal cloud and 3.5 for a uniform one, so a single-colour plate's natural spread does not pass.
  */
 export type Point = readonly [number, number, number];
 
@@ -17,10 +20,12 @@ export interface TwoClusters {
   assignment: Int8Array;
   sizes: [number, number];
   separation: number;
+  /** Ashman's D of the two clusters along the line joining their centres. */
+  ashmanD: number;
 }
 
 export const MIN_SEPARATION = 7;
-const SEPARATION_SD = 4;
+const MIN_ASHMAN_D = 4;
 
 export function kmeans2(points: readonly Point[], iterations = 25): TwoClusters | null {
   if (points.length < 2) return null;
@@ -52,20 +57,44 @@ export function kmeans2(points: readonly Point[], iterations = 25): TwoClusters 
     ss[k] += dist2(p, centres[k]);
   });
   if (sizes[0] === 0 || sizes[1] === 0) return null;
+  const separation = Math.sqrt(dist2(centres[0], centres[1]));
   return {
     centres,
     spreads: [Math.sqrt(ss[0] / sizes[0]), Math.sqrt(ss[1] / sizes[1])],
     assignment,
     sizes,
-    separation: Math.sqrt(dist2(centres[0], centres[1])),
+    separation,
+    ashmanD: ashmanD(points, assignment, centres, separation),
   };
+}
+
+function ashmanD(
+  points: readonly Point[],
+  assignment: Int8Array,
+  centres: [Point, Point],
+  separation: number,
+): number {
+  if (separation === 0) return 0;
+  const axis = [0, 1, 2].map((j) => (centres[1][j]! - centres[0][j]!) / separation);
+  const along = (p: Point) => p[0] * axis[0]! + p[1] * axis[1]! + p[2] * axis[2]!;
+  const variance = [0, 1].map((k) => {
+    const mean = along(centres[k as 0 | 1]);
+    let s = 0;
+    let n = 0;
+    points.forEach((p, i) => {
+      if (assignment[i] !== k) return;
+      s += (along(p) - mean) ** 2;
+      n++;
+    });
+    return s / n;
+  });
+  const pooled = Math.sqrt(variance[0]! + variance[1]!);
+  return pooled === 0 ? Number.POSITIVE_INFINITY : (Math.SQRT2 * separation) / pooled;
 }
 
 /** True when the two clusters are distinct colours rather than one colour's spread. */
 export function isTwoColours(c: TwoClusters): boolean {
-  const n = c.sizes[0] + c.sizes[1];
-  const pooled = Math.sqrt((c.sizes[0] * c.spreads[0] ** 2 + c.sizes[1] * c.spreads[1] ** 2) / n);
-  return c.separation >= MIN_SEPARATION && c.separation >= SEPARATION_SD * pooled;
+  return c.separation >= MIN_SEPARATION && c.ashmanD >= MIN_ASHMAN_D;
 }
 
 export function centroid(points: readonly Point[]): Point {

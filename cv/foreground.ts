@@ -19,13 +19,12 @@ import type { Mat, OpenCv } from './opencv.ts';
  */
 const MIN_CONTRAST = 3;
 const NOISE_MULTIPLE = 4;
-/** A ring: its holes cover more than this share of its outline's area. */
-const RING_HOLE_SHARE = 0.3;
+/** Largest colony seen only by its rim, as a diameter in mm (see fillColonyHoles). */
+const RING_COLONY_MAX_MM = 4;
 
 export interface Foreground {
   mask: Mat;
   threshold: number;
-  bubbles: number;
 }
 
 export function segmentForeground(
@@ -45,10 +44,32 @@ export function segmentForeground(
     const size = oddAtLeast(3, 0.2 / frame.mmPerPx);
     const disc = k(cv.getStructuringElement(cv.MORPH_ELLIPSE, new cv.Size(size, size)));
     cv.morphologyEx(mask, mask, cv.MORPH_OPEN, disc);
+    clearThinAlongWall(cv, k, mask, agar.wallBand, frame);
   });
-  const bubbles = fillHolesDropRings(cv, mask);
+  fillColonyHoles(cv, mask, Math.PI * (RING_COLONY_MAX_MM / 2 / frame.mmPerPx) ** 2);
   cutLightFromDark(cv, mask, agar);
-  return { mask, threshold, bubbles };
+  return { mask, threshold };
+}
+
+/**
+ * In the wall zone the meniscus and the wall's reflections draw thin arcs that run round the dish
+ * and join everything they touch into one blob (pen writing near the rim, colonies at the wall).
+ * There, only what holds a disc of WALL_OPENING_MM survives (a morphological opening restricted
+ * to the band); a colony growing at the wall is thicker than that and is kept.
+ */
+const WALL_OPENING_MM = 0.6;
+function clearThinAlongWall(
+  cv: OpenCv,
+  k: Keep,
+  mask: Mat,
+  wallBand: Mat,
+  frame: WorkingFrame,
+): void {
+  const size = oddAtLeast(3, WALL_OPENING_MM / frame.mmPerPx);
+  const disc = k(cv.getStructuringElement(cv.MORPH_ELLIPSE, new cv.Size(size, size)));
+  const opened = k(new cv.Mat());
+  cv.morphologyEx(mask, opened, cv.MORPH_OPEN, disc);
+  opened.copyTo(mask, wallBand);
 }
 
 /**
@@ -104,26 +125,44 @@ function medianWithin(img: Mat, mask: Mat): number {
   return samples[samples.length >> 1]!;
 }
 
-/** Redraws each outer contour filled, unless its holes make it a ring. Returns the rings dropped. */
-function fillHolesDropRings(cv: OpenCv, mask: Mat): number {
-  return withMats((keep) => {
+/**
+ * Fills the holes that belong to a colony and leaves the others. A hole is filled when it is round
+ * and the ring round it is at least as thick as the hole is wide (the highlight on a domed
+ * colony; the loop of a letter is not round, and its stroke is thin), or when
+ * the whole outline is small and round (a colourless colony seen only by its rim, whose inside
+ * looks like agar). A hole in a thin outline that is large or not round (a pen loop, an arc of
+ * the wall, writing round colonies) is left open, so that the outline keeps the shape of a
+ * stroke and is judged as one (candidates.ts). Roundness is the isoperimetric quotient
+ * 4πA/P², 1 for a circle (common practice).
+ */
+const ROUND = 0.8;
+function fillColonyHoles(cv: OpenCv, mask: Mat, smallArea: number): void {
+  withMats((keep) => {
     const contours = keep(new cv.MatVector());
     const hierarchy = keep(new cv.Mat());
     const work = keep(mask.clone());
     cv.findContours(work, contours, hierarchy, cv.RETR_CCOMP, cv.CHAIN_APPROX_SIMPLE);
     const h = hierarchy.data32S; // [next, previous, firstChild, parent] per contour
-    let rings = 0;
     for (let i = 0; i < contours.size(); i++) {
-      if (h[4 * i + 3]! !== -1) continue; // a hole; handled with its parent
+      if (h[4 * i + 3]! !== -1 || h[4 * i + 2]! === -1) continue; // a hole, or no hole
       const outer = keep(contours.get(i));
       const outerArea = cv.contourArea(outer);
-      let holes = 0;
-      for (let c = h[4 * i + 2]!; c !== -1; c = h[4 * c]!)
-        holes += cv.contourArea(keep(contours.get(c)));
-      const ring = outerArea > 0 && holes / outerArea > RING_HOLE_SHARE;
-      if (ring) rings++;
-      cv.drawContours(mask, contours, i, ring ? [0, 0, 0, 0] : [255, 0, 0, 0], -1);
+      const smallRound = outerArea <= smallArea && roundness(cv, outer, outerArea) >= ROUND;
+      const outerRadius = Math.sqrt(outerArea / Math.PI);
+      for (let c = h[4 * i + 2]!; c !== -1; c = h[4 * c]!) {
+        const hole = keep(contours.get(c));
+        const holeArea = cv.contourArea(hole);
+        const holeRadius = Math.sqrt(holeArea / Math.PI);
+        const highlight =
+          holeRadius <= outerRadius - holeRadius && roundness(cv, hole, holeArea) >= ROUND;
+        if (smallRound || highlight) cv.drawContours(mask, contours, c, [255, 0, 0, 0], -1);
+      }
     }
-    return rings;
   });
+}
+
+/** The isoperimetric quotient 4πA/P² of a contour: 1 for a circle, less for any other shape. */
+function roundness(cv: OpenCv, contour: Mat, area: number): number {
+  const perimeter = cv.arcLength(contour, true);
+  return perimeter > 0 ? (4 * Math.PI * area) / (perimeter * perimeter) : 0;
 }

@@ -34,6 +34,10 @@ export interface ComponentStats {
   regions: number;
   /** Pixels of the blob on the rim of the counting area (next to the dish wall). */
   rimPixels: number;
+  /** Mean distance-map value over the blob (see candidates.ts, strokes). */
+  meanDistance: number;
+  /** Coefficient of variation of the distance map along the blob's ridge (see candidates.ts). */
+  ridgeVariation: number;
 }
 
 export function measureRegions(
@@ -47,6 +51,7 @@ export function measureRegions(
   deltaE: Mat,
   slope: Mat,
   rim: Mat,
+  ridge: Mat,
 ): { regions: RegionStats[]; components: ComponentStats[] } {
   const n = regionCount + 1;
   const area = new Float64Array(n);
@@ -63,6 +68,11 @@ export function measureRegions(
   const cArea = new Float64Array(componentCount + 1);
   const cHalf = new Float32Array(componentCount + 1);
   const cRim = new Int32Array(componentCount + 1);
+  const cDist = new Float64Array(componentCount + 1);
+  const cRidgeN = new Float64Array(componentCount + 1);
+  const cRidge = new Float64Array(componentCount + 1);
+  const cRidge2 = new Float64Array(componentCount + 1);
+  const ridgeData = ridge.data;
   const rimData = rim.data;
 
   const r = regions.data32S;
@@ -78,6 +88,12 @@ export function measureRegions(
       cArea[ci]!++;
       if (d[i]! > cHalf[ci]!) cHalf[ci] = d[i]!;
       if (rimData[i]) cRim[ci]!++;
+      cDist[ci]! += d[i]!;
+      if (ridgeData[i]) {
+        cRidgeN[ci]!++;
+        cRidge[ci]! += d[i]!;
+        cRidge2[ci]! += d[i]! * d[i]!;
+      }
     }
     const id = r[i]!;
     if (id <= 0) continue;
@@ -124,7 +140,16 @@ export function measureRegions(
       halfWidth: cHalf[id]!,
       regions: compRegions[id]!,
       rimPixels: cRim[id]!,
+      meanDistance: cArea[id]! > 0 ? cDist[id]! / cArea[id]! : 0,
+      ridgeVariation: variation(cRidgeN[id]!, cRidge[id]!, cRidge2[id]!),
     });
   }
   return { regions: out, components: comps };
+}
+
+/** Coefficient of variation from a count, a sum and a sum of squares (0 for fewer than 2). */
+function variation(n: number, sum: number, sum2: number): number {
+  if (n < 2 || sum === 0) return 0;
+  const mean = sum / n;
+  return Math.sqrt(Math.max(0, sum2 / n - mean * mean)) / mean;
 }

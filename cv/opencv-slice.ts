@@ -158,6 +158,7 @@ export interface OpenCv {
   ): void;
   findContours(image: Mat, contours: MatVector, hierarchy: Mat, mode: number, method: number): void;
   contourArea(contour: Mat): number;
+  arcLength(curve: Mat, closed: boolean): number;
   convexHull(points: Mat, hull: Mat, clockwise?: boolean, returnPoints?: boolean): void;
   drawContours(
     image: Mat,

@@ -1,4 +1,5 @@
-import { classify, paletteFrom, paletteFromSamples } from './classify.ts';
+import { classify, OUTLIER_CONFIDENCE, paletteFrom, paletteFromSamples } from './classify.ts';
+import { deltaE76 } from './colour.ts';
 import { colonyFlags, countsByClass, imageFlags } from './summary.ts';
 import type { Colony, Palette, PlateAnalysis } from './types.ts';
 
@@ -8,7 +9,65 @@ import type { Colony, Palette, PlateAnalysis } from './types.ts';
  * plates), or taught by pointing at one colony of each colour.
  */
 export function learnPalette(analyses: readonly PlateAnalysis[]): Palette | null {
-  return paletteFrom(analyses.flatMap((a) => a.colonies));
+  const trusted = analyses.filter(isTrustworthy);
+  const twoColour = trusted.flatMap((a) => {
+    const p = paletteFrom(a.colonies, MIN_TEACHING_SHARE);
+    return p ? [{ palette: p, weight: a.colonies.length }] : [];
+  });
+  if (twoColour.length === 0) return paletteFrom(trusted.flatMap((a) => a.colonies));
+  return mergePalettes(twoColour);
+}
+
+/** Plates that may teach colours: the dish was found and nothing whole-plate is in doubt. */
+const DOUBTFUL = new Set<string>([
+  'dish-not-found',
+  'out-of-focus',
+  'nothing-found',
+  'unstable-count',
+]);
+function isTrustworthy(a: PlateAnalysis): boolean {
+  return a.colonies.length >= MIN_TEACHING_COLONIES && !a.flags.some((f) => DOUBTFUL.has(f.kind));
+}
+const MIN_TEACHING_COLONIES = 10;
+/**
+ * A plate teaches colours only when each holds at least this share of its colonies: a lopsided
+ * split is as likely a few stray objects as a rare strain, and is sorted, not learned from.
+ */
+const MIN_TEACHING_SHARE = 0.1;
+
+/**
+ * One palette from the palettes of several plates, each learned on its own plate (so a lighting
+ * change between plates cannot blur the two colours into one): colours are paired with those of
+ * the medoid plate (the one closest to all others, so one odd plate cannot lead) by the smaller
+ * total distance, then averaged, weighted by colony numbers; spreads are pooled as root mean
+ * squares.
+ */
+function mergePalettes(parts: readonly { palette: Palette; weight: number }[]): Palette {
+  const ref = medoid(parts.map((p) => p.palette));
+  const sums = [0, 1].map(() => ({ w: 0, delta: [0, 0, 0], spread2: 0 }));
+  for (const { palette, weight } of parts) {
+    const [a, b] = palette.colours;
+    const straight =
+      deltaE76(a.deltaLab, ref.colours[0].deltaLab) + deltaE76(b.deltaLab, ref.colours[1].deltaLab);
+    const swapped =
+      deltaE76(a.deltaLab, ref.colours[1].deltaLab) + deltaE76(b.deltaLab, ref.colours[0].deltaLab);
+    const ordered = straight <= swapped ? [a, b] : [b, a];
+    ordered.forEach((c, k) => {
+      const s = sums[k]!;
+      s.w += weight;
+      for (let j = 0; j < 3; j++) s.delta[j]! += weight * c.deltaLab[j]!;
+      s.spread2 += weight * c.spread ** 2;
+    });
+  }
+  const colours = ref.colours.map((c, k) => {
+    const s = sums[k]!;
+    return {
+      ...c,
+      deltaLab: [s.delta[0]! / s.w, s.delta[1]! / s.w, s.delta[2]! / s.w] as const,
+      spread: Math.sqrt(s.spread2 / s.w),
+    };
+  });
+  return { version: 1, colours: [colours[0]!, colours[1]!] };
 }
 
 export function paletteFromExamples(a: Colony, b: Colony, names?: [string, string]): Palette {
@@ -16,19 +75,20 @@ export function paletteFromExamples(a: Colony, b: Colony, names?: [string, strin
 }
 
 /**
- * Re-sorts an analysis's colonies against a palette without segmenting the photo again; blobs of
- * neither palette colour are left out and counted in a 'colour-outliers' flag.
+ * Re-sorts an analysis's colonies against a palette without segmenting the photo again; colonies
+ * of neither palette colour stay in the count with a low confidence and are counted in a
+ * 'colour-outliers' flag, for the person to decide.
  */
 export function classifyWithPalette(analysis: PlateAnalysis, palette: Palette): PlateAnalysis {
   const result = classify(analysis.colonies, palette);
-  const colonies = analysis.colonies
-    .map((c, i) => ({
-      ...c,
-      cls: result.cls[i]!,
-      confidence: Math.round(result.confidence[i]! * 1000) / 1000,
-    }))
-    .filter((_, i) => !result.outlier[i]);
-  const outliers = analysis.colonies.length - colonies.length;
+  const colonies = analysis.colonies.map((c, i) => ({
+    ...c,
+    cls: result.cls[i]!,
+    confidence: result.outlier[i]
+      ? OUTLIER_CONFIDENCE
+      : Math.round(result.confidence[i]! * 1000) / 1000,
+  }));
+  const outliers = result.outlier.filter(Boolean).length;
   return {
     ...analysis,
     colonies,
@@ -36,4 +96,28 @@ export function classifyWithPalette(analysis: PlateAnalysis, palette: Palette): 
     counts: countsByClass(colonies, result.classes),
     flags: [...imageFlags(analysis.flags), ...colonyFlags(colonies, result.oneColour, outliers)],
   };
+}
+
+/** How palette `p` pairs with `q`: swapped or not, and the total colour distance of the pairing. */
+function pairing(p: Palette, q: Palette): { swapped: boolean; distance: number } {
+  const [a, b] = p.colours;
+  const [c, d] = q.colours;
+  const straight = deltaE76(a.deltaLab, c.deltaLab) + deltaE76(b.deltaLab, d.deltaLab);
+  const swapped = deltaE76(a.deltaLab, d.deltaLab) + deltaE76(b.deltaLab, c.deltaLab);
+  return swapped < straight
+    ? { swapped: true, distance: swapped }
+    : { swapped: false, distance: straight };
+}
+
+function medoid(palettes: readonly Palette[]): Palette {
+  let best = palettes[0]!;
+  let bestSum = Number.POSITIVE_INFINITY;
+  for (const p of palettes) {
+    const sum = palettes.reduce((s, q) => s + pairing(p, q).distance, 0);
+    if (sum < bestSum) {
+      bestSum = sum;
+      best = p;
+    }
+  }
+  return best;
 }

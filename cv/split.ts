@@ -20,6 +20,8 @@ export interface Split {
   components: Mat;
   componentCount: number;
   distance: Mat;
+  /** The distance map's ridge: pixels no 3×3 neighbour exceeds (8-bit 0/255; see candidates.ts). */
+  ridge: Mat;
   typicalRadius: number;
 }
 
@@ -68,7 +70,24 @@ export function splitTouching(
     regions.setTo([0, 0, 0, 0], notMask);
     return n;
   });
-  return { regions, regionCount, components, componentCount, distance, typicalRadius };
+  const ridge = keep(ridgeOf(cv, distance));
+  return { regions, regionCount, components, componentCount, distance, ridge, typicalRadius };
+}
+
+/** Local maxima of the distance map (3×3), at least one pixel inside the foreground. */
+function ridgeOf(cv: OpenCv, distance: Mat): Mat {
+  return withMats((keep) => {
+    const grown = keep(new cv.Mat());
+    cv.dilate(distance, grown, keep(cv.getStructuringElement(cv.MORPH_RECT, new cv.Size(3, 3))));
+    const ridge = new cv.Mat();
+    cv.compare(distance, grown, ridge, cv.CMP_GE);
+    const inside = keep(new cv.Mat());
+    cv.threshold(distance, inside, 1, 255, cv.THRESH_BINARY);
+    const inside8 = keep(new cv.Mat());
+    inside.convertTo(inside8, cv.CV_8U);
+    cv.bitwise_and(ridge, inside8, ridge);
+    return ridge;
+  });
 }
 
 /**
