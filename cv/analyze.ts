@@ -1,7 +1,7 @@
 import { modelAgar, WALL_ZONE_MM } from './agar.ts';
 import { resizeRegion } from './banded-resize.ts';
 import { selectCandidates } from './candidates.ts';
-import { classify, OUTLIER_CONFIDENCE } from './classify.ts';
+import { classify } from './classify.ts';
 import { now } from './clock.ts';
 import { detectDish, ellipseRadius, givenDish } from './dish.ts';
 import { deltaESlope, edgeWidthMm } from './focus.ts';
@@ -30,6 +30,7 @@ import type {
  */
 const BLURRED_EDGE_MM = 0.5;
 const DEFAULT_DISH_MM = 90;
+const SMOOTHING_MM = 0.07;
 
 /**
  * Analyses one plate photo: dish → working frame → agar model → foreground → split → measure →
@@ -129,17 +130,18 @@ function runPipeline(
       r: round(Math.sqrt(area / Math.PI), 2),
       area: Math.round(area),
       cls: classes.cls[i]!,
-      confidence: classes.outlier[i] ? OUTLIER_CONFIDENCE : round(classes.confidence[i]!, 3),
+      confidence: round(classes.confidence[i]!, 3),
       split: c.split,
       count: c.count,
       lab: roundLab(samples[i]!.lab),
       deltaLab: roundLab(samples[i]!.deltaLab),
     };
   });
-  const colonies = all;
+  const colonies = all.filter((_, i) => !classes.outlier[i]);
+  const neither = all.filter((_, i) => classes.outlier[i]);
   stage('classify', 0.95);
 
-  flags.push(...colonyFlags(colonies, classes.oneColour, classes.outlier.filter(Boolean).length));
+  flags.push(...colonyFlags(colonies, classes.oneColour, neither.length));
   const edge = edgeWidthMm(
     candidates.map((c) => c.region),
     frame.mmPerPx,
@@ -155,6 +157,7 @@ function runPipeline(
     scale: frame.scale,
     dish,
     colonies,
+    neither,
     counts: countsByClass(colonies, classes.classes),
     classes: classes.classes,
     agarLab: roundLab(agar.agarLab),
@@ -169,8 +172,11 @@ function workingImage(cv: OpenCv, image: RgbaImage, frame: WorkingFrame): Mat {
     const small = keep(resizeRegion(cv, image, frame.roi, frame.scale, frame.width, frame.height));
     const rgb = new cv.Mat();
     cv.cvtColor(small, rgb, cv.COLOR_RGBA2RGB);
-    // Light smoothing: sensor noise and JPEG blocks would otherwise set the detection threshold.
-    cv.GaussianBlur(rgb, rgb, new cv.Size(3, 3), 0.8);
+    // Smoothing at the scale of the smallest colony counted (a Gaussian of σ = SMOOTHING_MM, a
+    // quarter of a 0.45 mm colony's diameter): noise, JPEG blocks and a phone's noise reduction
+    // are averaged down while a colony, however faint, keeps its contrast over its area. Its
+    // scale is in millimetres, so the same physical detail is kept whatever the camera.
+    cv.GaussianBlur(rgb, rgb, new cv.Size(0, 0), SMOOTHING_MM / frame.mmPerPx);
     return rgb;
   });
 }

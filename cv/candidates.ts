@@ -1,5 +1,6 @@
 import { deltaE76 } from './colour.ts';
 import type { ComponentStats, RegionStats } from './measure.ts';
+import { isPenPiece, penFromStrokes } from './writing.ts';
 
 /**
  * Turns measured regions into colony candidates: drops what is not a colony by size and shape,
@@ -20,7 +21,9 @@ import type { ComponentStats, RegionStats } from './measure.ts';
  *   ridge holds one value, so its coefficient of variation is near 0 (corners and junctions of
  *   writing add a little); along a chain of touching discs of radius R it follows
  *   √(R² − x²), whose coefficient of variation is about 0.28, and a single disc's ridge is one
- *   point. A long blob whose ridge varies less than STROKE_RIDGE_VARIATION is a band.
+ *   point. A long blob whose ridge varies less than STROKE_RIDGE_VARIATION is a band. The
+ *   pieces of the same writing that shape cannot tell are found by the pen's colour and
+ *   thickness, learned from those bands (writing.ts).
  * - Grey shades: regions darker than the agar with hardly any colour of their own (the soft edge
  *   of an ink stroke, the shadowed side of a droplet, the dim rim round lid glare). A colony is
  *   either lighter than the agar (pale, white, cream) or coloured; a grey shade is neither.
@@ -53,7 +56,7 @@ const SATELLITE_AREA = 3;
 const SATELLITE_GAP_MM = 0.3;
 const STROKE_ELONGATION = 3;
 /** Between a band's ridge variation (≈ 0) and a chain of colonies' (≈ 0.28). */
-const STROKE_RIDGE_VARIATION = 0.15;
+const STROKE_RIDGE_VARIATION = 0.2;
 const STROKE_THINNESS = 0.7;
 /** A region of a stroke's blob this many times thicker than the stroke is a colony under it. */
 const COLONY_ON_STROKE = 1.6;
@@ -62,6 +65,8 @@ const GREY_SHADE_CHROMA = 6;
 /** Glare fringe: within this colour difference of the agar in a*, b*. */
 const GLARE_FRINGE_TINT = 3;
 const CLUMP_ELONGATION = 2.0;
+/** A blob whose area is at most this many times its largest disc is round (one colony or a pair). */
+const ROUND_BLOB = 2.2;
 const WALL_THINNESS = 0.35;
 const WALL_CRUMB = 0.35;
 /** A region near the wall at least this many typical radii thick is a colony the wall cuts. */
@@ -97,6 +102,12 @@ export function selectCandidates(
     verdict.set(c.id, v);
     if (v !== 'keep') rejected[v]++;
   }
+  const roundIds = new Set(components.filter(isRound).map((c) => c.id));
+  const pen = penFromStrokes(
+    components.filter((c) => verdict.get(c.id) === 'strokes'),
+    regions,
+    regions.filter((r) => roundIds.has(r.component)),
+  );
   const kept = regions.filter((r) => {
     const v = verdict.get(r.component);
     // A colony touching a pen stroke or a glint on the wall shares its blob; it is as thick as a
@@ -124,6 +135,10 @@ export function selectCandidates(
     }
     if (comp && comp.regions > 1 && r.area < SLIVER * Math.PI * typicalRadius ** 2) {
       rejected.specks++; // a sliver the watershed cut off a colony's edge
+      return false;
+    }
+    if (pen && comp && !isRound(comp) && isPenPiece(r, pen)) {
+      rejected.strokes++;
       return false;
     }
     if (nearGlare(r) && isGlareFringe(r)) {
@@ -200,6 +215,14 @@ function componentVerdict(
   }
   if (c.rimPixels > 0 && c.halfWidth < WALL_THINNESS * typicalRadius) return 'wall';
   return 'keep';
+}
+
+/**
+ * A blob that is one round colony (or a round pair) and touches nothing: never taken for a piece
+ * of writing, whatever its colour.
+ */
+function isRound(c: ComponentStats): boolean {
+  return c.rimPixels === 0 && c.area / (Math.PI * Math.max(1, c.halfWidth) ** 2) <= ROUND_BLOB;
 }
 
 /**

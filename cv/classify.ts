@@ -35,8 +35,6 @@ export const LOW_CONFIDENCE = 0.75;
  * (a tinted droplet, a JPEG ghost) and is left out. Colonies of a colour sit within about 2.
  */
 export const OUTLIER_SPREADS = 4;
-/** The confidence given to a colony of neither colour: a coin toss, shown for the person to judge. */
-export const OUTLIER_CONFIDENCE = 0.5;
 /** Smallest spread used to scale distances, in feature units: real colours always vary this much. */
 const MIN_SPREAD = 2;
 /** A plate's own cluster needs this many colonies before the plate is sorted by its own split. */
@@ -83,9 +81,17 @@ export function classify(samples: readonly ColourSample[], palette?: Palette): C
     cls.push(k);
     const total = d0 + d1;
     confidence.push(total === 0 ? 0.5 : (k === 0 ? d1 : d0) / total);
-    outlier.push(palette !== undefined && Math.min(d0, d1) > OUTLIER_SPREADS);
+    outlier.push(palette !== undefined && isNeither(f, palette));
   }
   return { cls, confidence, outlier, classes: paletteClasses(model), oneColour: null };
+}
+
+/** Further than OUTLIER_SPREADS spreads from both palette colours: of neither marker colour. */
+function isNeither(f: Point, palette: Palette): boolean {
+  return palette.colours.every(
+    (c) =>
+      distance(f, colourFeature(c.deltaLab)) / Math.max(MIN_SPREAD, c.spread) > OUTLIER_SPREADS,
+  );
 }
 
 /** This plate's own two colours, when its colonies show two (cluster.ts), else null. */
@@ -95,13 +101,21 @@ function twoColoursOf(features: readonly Point[]): TwoClusters | null {
   return Math.min(...clusters.sizes) >= MIN_OWN_CLUSTER ? clusters : null;
 }
 
-/** Each of the plate's own colours lies near a different palette colour (within OUTLIER_SPREADS). */
+/**
+ * The plate's own two colours are the palette's two: each is nearer to a different palette colour
+ * and lies within OUTLIER_SPREADS of it. A plate of one colour split by shade (a 194:6 plate whose
+ * blue colonies vary) has both its clusters nearest the same palette colour, and is sorted by the
+ * palette instead.
+ */
 function agrees(own: TwoClusters, palette: Palette): boolean {
   const p = palette.colours.map((c) => colourFeature(c.deltaLab));
   const s = palette.colours.map((c) => Math.max(MIN_SPREAD, c.spread));
-  const near = (o: Point, k: number) => distance(o, p[k]!) / s[k]! <= OUTLIER_SPREADS;
+  const scaled = (o: Point, k: number) => distance(o, p[k]!) / s[k]!;
+  const nearest = (o: Point) => (scaled(o, 0) <= scaled(o, 1) ? 0 : 1);
   const [a, b] = own.centres;
-  return (near(a, 0) && near(b, 1)) || (near(a, 1) && near(b, 0));
+  const ka = nearest(a);
+  const kb = nearest(b);
+  return ka !== kb && scaled(a, ka) <= OUTLIER_SPREADS && scaled(b, kb) <= OUTLIER_SPREADS;
 }
 
 /**
@@ -109,7 +123,7 @@ function agrees(own: TwoClusters, palette: Palette): boolean {
  * palette only says which cluster is which colour (the pairing of centres with the smaller total
  * distance). Lighting, white balance and the agar's batch shift both colours of a plate alike, so
  * the plate's own split is sharper than the distance to colours learned on other plates.
- * A colony far from both of its plate's clusters is marked as an outlier for the person to judge.
+ * A colony far from both palette colours is marked as an outlier for the person to judge.
  */
 function byOwnClusters(
   features: readonly Point[],
@@ -131,7 +145,7 @@ function byOwnClusters(
     cls.push(classOf(k));
     const total = d0 + d1;
     confidence.push(total === 0 ? 0.5 : (k === 0 ? d1 : d0) / total);
-    outlier.push(Math.min(d0, d1) > OUTLIER_SPREADS);
+    outlier.push(isNeither(f, palette));
   });
   return { cls, confidence, outlier, classes: paletteClasses(palette), oneColour: null };
 }

@@ -46,7 +46,10 @@ export function segmentForeground(
     cv.morphologyEx(mask, mask, cv.MORPH_OPEN, disc);
     clearThinAlongWall(cv, k, mask, agar.wallBand, frame);
   });
-  fillColonyHoles(cv, mask, Math.PI * (RING_COLONY_MAX_MM / 2 / frame.mmPerPx) ** 2);
+  withMats((k) => {
+    const lighter = k(lighterThanAgar(cv, k, agar));
+    fillColonyHoles(cv, mask, lighter, Math.PI * (RING_COLONY_MAX_MM / 2 / frame.mmPerPx) ** 2);
+  });
   cutLightFromDark(cv, mask, agar);
   return { mask, threshold };
 }
@@ -129,14 +132,16 @@ function medianWithin(img: Mat, mask: Mat): number {
  * Fills the holes that belong to a colony and leaves the others. A hole is filled when it is round
  * and the ring round it is at least as thick as the hole is wide (the highlight on a domed
  * colony; the loop of a letter is not round, and its stroke is thin), or when
- * the whole outline is small and round (a colourless colony seen only by its rim, whose inside
- * looks like agar). A hole in a thin outline that is large or not round (a pen loop, an arc of
+ * the whole outline is small, round and mostly lighter than the agar (a colourless colony seen
+ * only by its rim, whose inside looks like agar: the rim refracts light towards the camera). A
+ * small round outline darker than the agar is an "o" written in ink, which absorbs light, or the
+ * dark edge of an air bubble, and stays open. A hole in a thin outline that is large or not round (a pen loop, an arc of
  * the wall, writing round colonies) is left open, so that the outline keeps the shape of a
  * stroke and is judged as one (candidates.ts). Roundness is the isoperimetric quotient
  * 4πA/P², 1 for a circle (common practice).
  */
 const ROUND = 0.8;
-function fillColonyHoles(cv: OpenCv, mask: Mat, smallArea: number): void {
+function fillColonyHoles(cv: OpenCv, mask: Mat, lighter: Mat, smallArea: number): void {
   withMats((keep) => {
     const contours = keep(new cv.MatVector());
     const hierarchy = keep(new cv.Mat());
@@ -147,7 +152,10 @@ function fillColonyHoles(cv: OpenCv, mask: Mat, smallArea: number): void {
       if (h[4 * i + 3]! !== -1 || h[4 * i + 2]! === -1) continue; // a hole, or no hole
       const outer = keep(contours.get(i));
       const outerArea = cv.contourArea(outer);
-      const smallRound = outerArea <= smallArea && roundness(cv, outer, outerArea) >= ROUND;
+      const smallRound =
+        outerArea <= smallArea &&
+        roundness(cv, outer, outerArea) >= ROUND &&
+        mostlyLighter(cv, keep, outer, mask, lighter);
       const outerRadius = Math.sqrt(outerArea / Math.PI);
       for (let c = h[4 * i + 2]!; c !== -1; c = h[4 * c]!) {
         const hole = keep(contours.get(c));
@@ -165,4 +173,33 @@ function fillColonyHoles(cv: OpenCv, mask: Mat, smallArea: number): void {
 function roundness(cv: OpenCv, contour: Mat, area: number): number {
   const perimeter = cv.arcLength(contour, true);
   return perimeter > 0 ? (4 * Math.PI * area) / (perimeter * perimeter) : 0;
+}
+
+/** 0/255 where the image is lighter (L*) than the agar model there. */
+function lighterThanAgar(cv: OpenCv, k: Keep, agar: AgarModel): Mat {
+  const planes = k(new cv.MatVector());
+  cv.split(agar.lab8, planes);
+  const bgPlanes = k(new cv.MatVector());
+  cv.split(agar.background8, bgPlanes);
+  const lighter = new cv.Mat();
+  cv.compare(k(planes.get(0)), k(bgPlanes.get(0)), lighter, cv.CMP_GT);
+  return lighter;
+}
+
+/** Whether most foreground pixels in the contour's bounding box are lighter than the agar. */
+function mostlyLighter(cv: OpenCv, keep: Keep, contour: Mat, mask: Mat, lighter: Mat): boolean {
+  const p = contour.data32S; // x, y pairs
+  let x0 = Number.POSITIVE_INFINITY;
+  let y0 = Number.POSITIVE_INFINITY;
+  let x1 = 0;
+  let y1 = 0;
+  for (let i = 0; i < p.length; i += 2) {
+    x0 = Math.min(x0, p[i]!);
+    x1 = Math.max(x1, p[i]!);
+    y0 = Math.min(y0, p[i + 1]!);
+    y1 = Math.max(y1, p[i + 1]!);
+  }
+  const box = new cv.Rect(x0, y0, x1 - x0 + 1, y1 - y0 + 1);
+  const share = cv.mean(keep(lighter.roi(box)), keep(mask.roi(box)))[0]! / 255;
+  return share >= 0.5;
 }

@@ -69,9 +69,7 @@ export function measureRegions(
   const cHalf = new Float32Array(componentCount + 1);
   const cRim = new Int32Array(componentCount + 1);
   const cDist = new Float64Array(componentCount + 1);
-  const cRidgeN = new Float64Array(componentCount + 1);
-  const cRidge = new Float64Array(componentCount + 1);
-  const cRidge2 = new Float64Array(componentCount + 1);
+  const cRidge: number[][] = Array.from({ length: componentCount + 1 }, () => []);
   const ridgeData = ridge.data;
   const rimData = rim.data;
 
@@ -89,11 +87,7 @@ export function measureRegions(
       if (d[i]! > cHalf[ci]!) cHalf[ci] = d[i]!;
       if (rimData[i]) cRim[ci]!++;
       cDist[ci]! += d[i]!;
-      if (ridgeData[i]) {
-        cRidgeN[ci]!++;
-        cRidge[ci]! += d[i]!;
-        cRidge2[ci]! += d[i]! * d[i]!;
-      }
+      if (ridgeData[i]) cRidge[ci]!.push(d[i]!);
     }
     const id = r[i]!;
     if (id <= 0) continue;
@@ -141,15 +135,33 @@ export function measureRegions(
       regions: compRegions[id]!,
       rimPixels: cRim[id]!,
       meanDistance: cArea[id]! > 0 ? cDist[id]! / cArea[id]! : 0,
-      ridgeVariation: variation(cRidgeN[id]!, cRidge[id]!, cRidge2[id]!),
+      ridgeVariation: trimmedVariation(cRidge[id]!),
     });
   }
   return { regions: out, components: comps };
 }
 
-/** Coefficient of variation from a count, a sum and a sum of squares (0 for fewer than 2). */
-function variation(n: number, sum: number, sum2: number): number {
-  if (n < 2 || sum === 0) return 0;
+/**
+ * Coefficient of variation of a blob's ridge values, leaving out those above RIDGE_TRIM times
+ * their median: a colony touching a pen line raises the line's ridge where it sits, and should not
+ * make the line look uneven. Along a chain of colonies no value reaches 1.5 × the median (the
+ * ridge follows √(R² − x²), whose median is 0.87 R), so little is left out there. 0 for a ridge
+ * of fewer than two values.
+ */
+const RIDGE_TRIM = 1.3;
+function trimmedVariation(values: number[]): number {
+  if (values.length < 2) return 0;
+  values.sort((a, b) => a - b);
+  const limit = RIDGE_TRIM * values[values.length >> 1]!;
+  let n = 0;
+  let sum = 0;
+  let sum2 = 0;
+  for (const v of values) {
+    if (v > limit) break;
+    n++;
+    sum += v;
+    sum2 += v * v;
+  }
   const mean = sum / n;
-  return Math.sqrt(Math.max(0, sum2 / n - mean * mean)) / mean;
+  return mean > 0 ? Math.sqrt(Math.max(0, sum2 / n - mean * mean)) / mean : 0;
 }

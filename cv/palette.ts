@@ -1,4 +1,4 @@
-import { classify, OUTLIER_CONFIDENCE, paletteFrom, paletteFromSamples } from './classify.ts';
+import { classify, paletteFrom, paletteFromSamples } from './classify.ts';
 import { deltaE76 } from './colour.ts';
 import { colonyFlags, countsByClass, imageFlags } from './summary.ts';
 import type { Colony, Palette, PlateAnalysis } from './types.ts';
@@ -75,29 +75,32 @@ export function paletteFromExamples(a: Colony, b: Colony, names?: [string, strin
 }
 
 /**
- * Re-sorts an analysis's colonies against a palette without segmenting the photo again; colonies
- * of neither palette colour stay in the count with a low confidence and are counted in a
- * 'colour-outliers' flag, for the person to decide.
+ * Re-sorts an analysis's colonies against a palette without segmenting the photo again. Objects
+ * of neither palette colour are moved to `neither` (not counted, for the person to decide, and
+ * counted in a 'colour-outliers' flag); those an earlier palette set aside are considered again.
  */
 export function classifyWithPalette(analysis: PlateAnalysis, palette: Palette): PlateAnalysis {
-  const result = classify(analysis.colonies, palette);
-  const colonies = analysis.colonies.map((c, i) => ({
+  const all = [...analysis.colonies, ...(analysis.neither ?? [])];
+  const result = classify(all, palette);
+  const sorted = all.map((c, i) => ({
     ...c,
     cls: result.cls[i]!,
-    confidence: result.outlier[i]
-      ? OUTLIER_CONFIDENCE
-      : Math.round(result.confidence[i]! * 1000) / 1000,
+    confidence: Math.round(result.confidence[i]! * 1000) / 1000,
   }));
-  const outliers = result.outlier.filter(Boolean).length;
+  const colonies = sorted.filter((_, i) => !result.outlier[i]);
+  const neither = sorted.filter((_, i) => result.outlier[i]);
   return {
     ...analysis,
     colonies,
+    neither,
     classes: result.classes,
     counts: countsByClass(colonies, result.classes),
-    flags: [...imageFlags(analysis.flags), ...colonyFlags(colonies, result.oneColour, outliers)],
+    flags: [
+      ...imageFlags(analysis.flags),
+      ...colonyFlags(colonies, result.oneColour, neither.length),
+    ],
   };
 }
-
 /** How palette `p` pairs with `q`: swapped or not, and the total colour distance of the pairing. */
 function pairing(p: Palette, q: Palette): { swapped: boolean; distance: number } {
   const [a, b] = p.colours;

@@ -84,7 +84,7 @@ export type QualityFlag =
   | { kind: 'glare'; fraction: number }
   | { kind: 'clumps-estimated'; clumps: number; colonies: number }
   | { kind: 'low-confidence'; colonies: number }
-  /** Blobs of neither palette colour, left out of the count (tinted droplets, JPEG ghosts). */
+  /** Objects of neither palette colour, listed in `neither` and left out of the count. */
   | { kind: 'colour-outliers'; colonies: number }
   /** Ink (writing on the lid or the plate) left out, in `pieces`; colonies under it may be too. */
   | { kind: 'ink'; pieces: number }
@@ -98,6 +98,12 @@ export interface PlateAnalysis {
   scale: number;
   dish: Dish | null;
   colonies: Colony[];
+  /**
+   * Colony-like objects of neither palette colour (a tinted droplet, a piece of writing, a strain
+   * that is not one of the two): not counted, listed for the person to decide, and counted in the
+   * 'colour-outliers' flag. Re-sorting against another palette considers them again.
+   */
+  neither?: Colony[];
   /** Colony totals per class name (clump estimates included). */
   counts: Record<string, number>;
   classes: ColourClass[];

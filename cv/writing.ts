@@ -1,0 +1,76 @@
+import { deltaE76 } from './colour.ts';
+import type { ComponentStats, RegionStats } from './measure.ts';
+import type { Lab } from './types.ts';
+
+/**
+ * The plate's own writing: once some blobs are recognised as strokes by their shape
+ * (candidates.ts), their colour and thickness say what this plate's pen looks like, and the
+ * pieces of the same writing that shape alone cannot tell (letters cut by the dish edge, strokes
+ * joined to the wall's arc or to each other) are recognised by being of that colour and no
+ * thicker than that pen. Nothing is assumed about the ink's colour: it is learned on each plate.
+ * A colony of the pen's colour is kept when it is clearly thicker than the pen's line. When the
+ * plate's round blobs (colonies beyond doubt) share the pen's colour, colour cannot tell writing
+ * from colonies on this plate (or the "strokes" were chains of colonies), and no pen is learned.
+ */
+export interface Pen {
+  /** Mean colour of the writing relative to the agar under it (L*a*b*). */
+  delta: Lab;
+  /** Root-mean-square ΔE*ab of the strokes' regions from that mean. */
+  spread: number;
+  /** Half the line's thickness in working pixels. */
+  halfWidth: number;
+}
+
+/**
+ * A region matches the pen within PEN_SPREADS spreads of its colour, taken between PEN_MIN_DELTA_E
+ * and PEN_MAX_DELTA_E: a just-noticeable difference is a few ΔE*ab units (common practice), and
+ * writing mixed up with other things must not grow a match wide enough to take in a colony colour.
+ */
+const PEN_SPREADS = 2.5;
+const PEN_MIN_DELTA_E = 6;
+const PEN_MAX_DELTA_E = 12;
+/** A region up to this many times the pen's half thickness can be a piece of its line. */
+const PEN_THICKNESS = 1.4;
+
+/** No pen is learned when more than this share of the round blobs have its colour. */
+const AMBIGUOUS_SHARE = 0.1;
+
+export function penFromStrokes(
+  strokes: readonly ComponentStats[],
+  regions: readonly RegionStats[],
+  roundBlobs: readonly RegionStats[],
+): Pen | null {
+  // The longest stroke stands for the pen: a plate is labelled with one pen, and other band-shaped
+  // things (a lamp's line reflection, a scratch) would blur its colour.
+  const longest = [...strokes].sort((a, b) => b.area - a.area)[0];
+  if (!longest) return null;
+  const pieces = regions.filter((r) => r.component === longest.id);
+  const area = pieces.reduce((s, r) => s + r.area, 0);
+  if (area === 0) return null;
+  const delta = [0, 1, 2].map(
+    (k) => pieces.reduce((s, r) => s + r.area * (r.lab[k]! - r.backgroundLab[k]!), 0) / area,
+  ) as unknown as Lab;
+  const spread = Math.sqrt(
+    pieces.reduce((s, r) => s + r.area * deltaE76(deltaOf(r), delta) ** 2, 0) / area,
+  );
+  const pen = { delta, spread, halfWidth: 2 * longest.meanDistance };
+  const sameColour = roundBlobs.filter((r) => hasPenColour(r, pen)).length;
+  return sameColour > AMBIGUOUS_SHARE * roundBlobs.length ? null : pen;
+}
+
+export function isPenPiece(r: RegionStats, pen: Pen): boolean {
+  return hasPenColour(r, pen) && r.halfWidth <= PEN_THICKNESS * pen.halfWidth;
+}
+
+function hasPenColour(r: RegionStats, pen: Pen): boolean {
+  const reach = Math.min(PEN_MAX_DELTA_E, Math.max(PEN_MIN_DELTA_E, PEN_SPREADS * pen.spread));
+  return deltaE76(deltaOf(r), pen.delta) <= reach;
+}
+
+function deltaOf(r: RegionStats): Lab {
+  return [
+    r.lab[0] - r.backgroundLab[0],
+    r.lab[1] - r.backgroundLab[1],
+    r.lab[2] - r.backgroundLab[2],
+  ];
+}
