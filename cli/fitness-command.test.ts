@@ -169,6 +169,27 @@ describe('rivalplate fitness', () => {
     expect(missing.stderr()).toContain('cannot read nope.csv');
   });
 
+  it('answers odd files with messages naming row and field, never a stack trace', async () => {
+    const rows = [
+      'A1,g,L1,0,1,start,100,100,50,50,',
+      `A1,g,L1,0,1,end,10^2,100,${'7'.repeat(306)},40,1`,
+      ',,,,,,,,,,',
+    ];
+    writeFileSync(join(dir, 'huge.csv'), [HEADER, ...rows].join('\n'));
+    const io = capture(dir);
+    expect(await run(['huge.csv'], io)).toBe(1);
+    expect(io.stderr()).toContain(
+      'row 3 (assay A1): test_colonies must be a whole number from 0 to 10000000 (colonies on one plate), got "777777777777…" (306 characters)',
+    );
+    expect(io.stderr()).not.toMatch(/at .*\.ts:\d+/);
+
+    const fine = [HEADER, rows[0], 'A1,g,L1,0,1,end,10^4,100,70,40,1', ',,,,,,,,,,'];
+    writeFileSync(join(dir, 'semi.csv'), fine.join('\n').replace(/,/g, ';'));
+    const semi = capture(dir);
+    expect(await run(['--draws', '0', 'semi.csv'], semi)).toBe(0);
+    expect(semi.stdout()).toContain('Read as semicolon-separated (the header has no comma).');
+  });
+
   it('runs as `rivalplate fitness` through bin/rivalplate.js', async () => {
     const { stdout } = await promisify(execFile)(
       process.execPath,

@@ -12,6 +12,7 @@ import {
 } from '../fitness/analysis.ts';
 import { DEFAULT_BOOTSTRAP_DRAWS } from '../fitness/competition.ts';
 import { readCompetitionCsv } from '../fitness/competition-csv.ts';
+import { SEPARATOR_NAMES } from '../fitness/csv.ts';
 import { FitnessError } from '../fitness/errors.ts';
 import { analysisJson, assertAllFinite } from '../fitness/report.ts';
 import { analysisText, type TextOptions } from './fitness-format.ts';
@@ -129,7 +130,11 @@ export async function run(args: string[], io: CommandIo): Promise<number> {
     } else {
       io.out(analysisText(analysis, { rounding: parsed.rounding }));
       if (table.ignoredColumns.length > 0)
-        io.out(`Columns not used: ${table.ignoredColumns.join(', ')}`);
+        io.out(`Columns not used: ${table.ignoredColumns.join(', ')}\n`);
+      if (table.separator !== ',')
+        io.out(
+          `Read as ${SEPARATOR_NAMES[table.separator]}-separated (the header has no comma).\n`,
+        );
     }
     for (const e of analysis.errors) io.err(`rivalplate fitness: ${e.message}`);
     return analysis.errors.length > 0 ? 1 : 0;

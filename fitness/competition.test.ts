@@ -133,3 +133,34 @@ describe('computeAssay', () => {
     expect(a.flags[0]!.message).not.toMatch(/row 3/);
   });
 });
+
+describe('reference generations against days and D', () => {
+  // A two-day assay with one 100-fold transfer: each day the reference regrows 100-fold.
+  const start = [plate('row 2', 1e4, 50, 50)];
+  const end = [plate('row 3', 1e6, 70, 50)];
+
+  it('says nothing when log₂(D) per transfer matches the generations per day', () => {
+    const a = computeAssay(assay(start, end, 100, 2));
+    expect(a.generationsRef).toBeCloseTo(2 * Math.log2(100), 12);
+    expect(a.flags).toEqual([]);
+  });
+
+  it('warns when the same assay is entered with D = 1', () => {
+    const a = computeAssay(assay(start, end, 1, 2));
+    expect(a.flags).toEqual([
+      {
+        code: 'generations-implausible',
+        message:
+          'the reference went through 6.64 generations in 2 day(s), but D = 1 over 1 transfer(s) accounts for 0.00 a day: check days and fold_dilution_since_start',
+      },
+    ]);
+  });
+
+  it('warns when the generations per day are outside 1–15', () => {
+    const a = computeAssay(assay(start, [plate('row 3', 1e4, 70, 60)], 1, 1));
+    const warned = a.flags.filter((f) => f.code === 'generations-implausible');
+    expect(warned.map((f) => f.message)).toEqual([
+      'the reference went through 0.26 generations in 1 day(s) (0.26 a day, plausible 1–15): check days, fold_dilution_since_start and the plates',
+    ]);
+  });
+});

@@ -17,6 +17,7 @@
  */
 import { type DensityOptions, type Plate, type SampleDensity, sampleDensity } from './densities.ts';
 import { FitnessError } from './errors.ts';
+import { generationsWarning } from './generation-check.ts';
 import { hashSeed, poissonDraw, seededUniform } from './poisson.ts';
 
 export interface AssayInput {
@@ -40,6 +41,7 @@ export type FlagCode =
   | 'out-of-range'
   | 'plates-dropped'
   | 'test-declined'
+  | 'generations-implausible'
   | 'ci-partial'
   | 'ci-undefined'
   | 'marker-corrected';
@@ -197,6 +199,11 @@ export function computeAssay(input: AssayInput, options: AssayOptions = {}): Ass
   }
   const W = mTest / mRef;
   const r = mTest - mRef;
+  if (!Number.isFinite(W) || !Number.isFinite(r)) {
+    throw new FitnessError(
+      `${name}: the counts, volumes and dilutions give no finite fitness (m_test = ${mTest}, m_ref = ${mRef})`,
+    );
+  }
   const varMTest = start.test.logVariance + end.test.logVariance;
   const varMRef = start.reference.logVariance + end.reference.logVariance;
   // Var(W) ≈ (Var(m_test) + W²·Var(m_ref)) / m_ref², the delta method for a ratio.
@@ -226,6 +233,8 @@ export function computeAssay(input: AssayInput, options: AssayOptions = {}): Ass
     }
   }
   const generationsRef = mRef / Math.LN2;
+  const implausible = generationsWarning(generationsRef, input.days, D);
+  if (implausible) flags.push({ code: 'generations-implausible', message: implausible });
   return {
     assay: input.assay,
     group: input.group,
