@@ -1,5 +1,6 @@
 /** Readable tables for `rivalplate fitness` (the --json output is fitness/report.ts). */
 import type { Analysis, Comparison } from '../fitness/analysis.ts';
+import type { Adjusted, LabComparisons } from '../fitness/lab-comparisons.ts';
 import type { ReplicatesPlan } from '../fitness/planning.ts';
 import type { Anova, TTest } from '../fitness/replicate-stats.ts';
 import { formatForReport, type RoundingRule } from '../fitness/rounding.ts';
@@ -51,6 +52,83 @@ function comparisonText(c: Comparison): string {
   const name = c.test === 'welch' ? "Welch's two-sample t-test" : 'one-way ANOVA';
   const groups = c.groups.length > 6 ? `${c.groups.length} groups` : c.groups.join(', ');
   return [`${name} across ${groups}`, `  W: ${testText(c.W)}`, `  r: ${testText(c.r)}`].join('\n');
+}
+
+const adjustedCells = (x: Adjusted) =>
+  x.test
+    ? [x.test.t.toFixed(3), dfText(x.test.df), p(x.test.p), p(x.pHolm), p(x.pBH)]
+    : ['no test (one assay or no spread)', '', '', '', ''];
+
+function comparisonsText(c: LabComparisons): string[] {
+  const out: string[] = [];
+  if (c.byGeneration.length > 0) {
+    out.push('', 'Lines compared within each generation (W)');
+    out.push(
+      table(
+        ['gen', 'lines (n)', 'ANOVA', 'SS between', 'SS within', "Welch's ANOVA"],
+        c.byGeneration.map((g) => [
+          String(g.generation),
+          g.lines.map((l) => `${l.line} (${l.n})`).join(', '),
+          testText(g.anova),
+          f(g.anova?.ssBetween, 6),
+          f(g.anova?.ssWithin, 6),
+          g.welch
+            ? `F(${g.welch.dfBetween}, ${dfText(g.welch.dfWithin)}) = ${g.welch.f.toFixed(3)}, ${pEq(g.welch.p)}`
+            : 'not computable (a line with one assay or no spread)',
+        ]),
+      ),
+    );
+    const pairs = c.byGeneration.flatMap((g) =>
+      (g.tukey ?? []).map((t) => [
+        String(g.generation),
+        `${t.first} − ${t.second}`,
+        f(t.diff),
+        ci(t.ci),
+        p(t.pAdjusted),
+      ]),
+    );
+    if (pairs.length > 0) {
+      out.push('', "Tukey's HSD, every pair of lines at one generation (95% family-wise)");
+      out.push(table(['gen', 'pair', 'diff W', '95% CI', 'p adj'], pairs));
+    }
+  }
+  if (c.vsAncestor.length > 0) {
+    out.push(
+      '',
+      'Each line against the ancestor (W = 1), one-sample t-tests; Holm and Benjamini–Hochberg over all of them',
+    );
+    out.push(
+      table(
+        ['line', 'gen', 'n', 'mean W', 't', 'df', 'p', 'p Holm', 'p BH'],
+        c.vsAncestor.map((x) => [
+          x.line,
+          String(x.generation),
+          String(x.n),
+          f(x.meanW),
+          ...adjustedCells(x),
+        ]),
+      ),
+    );
+  }
+  if (c.changes.length > 0) {
+    out.push(
+      '',
+      "Each line's change between measured generations, Welch t-tests; Holm and Benjamini–Hochberg over all of them",
+    );
+    out.push(
+      table(
+        ['line', 'from', 'to', 'diff W', 't', 'df', 'p', 'p Holm', 'p BH'],
+        c.changes.map((x) => [
+          x.line,
+          String(x.from),
+          String(x.to),
+          f(x.diff),
+          ...adjustedCells(x),
+        ]),
+      ),
+    );
+  }
+  return out;
 }
 
 function modelRow(m: CurveFit | StepFit | ModelFailure, label: string): string[] {
@@ -182,6 +260,7 @@ export function analysisText(a: Analysis, options: TextOptions): string {
       ),
     );
   }
+  out.push(...comparisonsText(a.comparisons));
   if (a.comparison) out.push('', comparisonText(a.comparison));
   for (const t of a.trajectories) {
     out.push('', `Trajectory of ${t.line} (${t.points.length} assays; w against generations)`);

@@ -65,8 +65,15 @@ describe('analyse', () => {
     expect(a.markerEffect).toMatchObject({ group: 'marker-control', n: 4, applied: false });
     expect(a.markerEffect!.W.mean).toBeLessThan(1);
     expect(a.assays.every((x) => x.uncorrected === undefined)).toBe(true);
-    // Three non-control groups: one-way ANOVA.
-    expect(a.comparison).toMatchObject({ test: 'anova', groups: ['L1-0', 'L1-1000', 'L1-2000'] });
+    // No test across chosen groups unless asked; the lab's comparisons of one line: its three
+    // generations against W = 1 and its two changes (no second line to compare it with).
+    expect(a.comparison).toBeNull();
+    expect(a.comparisons.byGeneration).toEqual([]);
+    expect(a.comparisons.vsAncestor.map((x) => x.generation)).toEqual([0, 1000, 2000]);
+    expect(a.comparisons.changes.map((x) => [x.from, x.to])).toEqual([
+      [0, 1000],
+      [1000, 2000],
+    ]);
     expect(a.trajectories).toHaveLength(1);
     expect(a.trajectories[0]!.points).toHaveLength(9);
     expect(a.trajectories[0]!.ranking.length).toBeGreaterThan(0);

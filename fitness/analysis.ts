@@ -9,6 +9,7 @@ import {
   computeAssay,
 } from './competition.ts';
 import { FitnessError } from './errors.ts';
+import { type LabComparisons, labComparisons } from './lab-comparisons.ts';
 import { type ObservedSpread, type ReplicatesPlan, replicatesFromSpread } from './planning.ts';
 import {
   type Anova,
@@ -38,7 +39,10 @@ export interface AnalysisOptions extends AssayOptions {
    * (off by default). Needs at least one marker-control assay.
    */
   correctMarker?: boolean;
-  /** Groups to compare; default all groups except the marker controls. */
+  /**
+   * Groups to compare with one test across them (two: Welch's t-test; more: one-way ANOVA). The
+   * lab's comparisons of lines (`comparisons`) are made in every run.
+   */
   compare?: string[];
   maxChangePoints?: number;
   /**
@@ -113,7 +117,10 @@ export interface Analysis {
   groups: GroupResult[];
   markerEffect: MarkerEffect | null;
   reciprocal: ReciprocalResult[];
+  /** The test across the groups named in options.compare; null without it. */
   comparison: Comparison | null;
+  /** Lines within each generation, each line against W = 1, each line's changes. */
+  comparisons: LabComparisons;
   trajectories: LineTrajectory[];
   /**
    * With detectDifference: replicates needed judged from the SD pooled within all groups but
@@ -257,7 +264,7 @@ export function analyse(inputs: readonly AssayInput[], options: AnalysisOptions 
   );
   const tested = assays.filter((a) => a.group !== controlGroup);
 
-  const compareNames = options.compare ?? [...new Set(tested.map((a) => a.group))];
+  const compareNames = options.compare ?? [];
   const byGroup = by(assays, (a) => a.group);
   for (const name of compareNames) {
     if (!byGroup.has(name))
@@ -318,6 +325,7 @@ export function analyse(inputs: readonly AssayInput[], options: AnalysisOptions 
     markerEffect,
     reciprocal,
     comparison,
+    comparisons: labComparisons(tested),
     trajectories,
   };
   if (options.detectDifference !== undefined) {

@@ -3,6 +3,7 @@
  * exist). This is the `rivalplate fitness --json` output; README "Fitness from a CSV" lists it.
  */
 import type { Analysis, Comparison, LineTrajectory } from './analysis.ts';
+import type { Adjusted, LabComparisons } from './lab-comparisons.ts';
 import type { ReplicatesPlan } from './planning.ts';
 import type { Anova, Summary, TTest } from './replicate-stats.ts';
 import type { CurveFit, ModelFailure, StepFit } from './trajectories.ts';
@@ -19,9 +20,63 @@ const summaryFields = (prefix: string, s: Summary, test: TTest | null, mu0: numb
 
 function testJson(test: TTest | Anova | null) {
   if (test === null) return null;
-  if ('f' in test)
-    return { F: test.f, df_between: test.dfBetween, df_within: test.dfWithin, p: test.p };
+  if ('f' in test) {
+    return {
+      F: test.f,
+      df_between: test.dfBetween,
+      df_within: test.dfWithin,
+      p: test.p,
+      ss_between: test.ssBetween,
+      ss_within: test.ssWithin,
+    };
+  }
   return { t: test.t, df: test.df, p: test.p };
+}
+
+const adjustedJson = (x: Adjusted) => ({
+  t: x.test?.t ?? null,
+  df: x.test?.df ?? null,
+  p: x.test?.p ?? null,
+  p_holm: x.pHolm,
+  p_BH: x.pBH,
+});
+
+function comparisonsJson(c: LabComparisons) {
+  return {
+    by_generation: c.byGeneration.map((g) => ({
+      generation: g.generation,
+      lines: g.lines.map((l) => ({ line: l.line, n: l.n, mean_W: l.meanW })),
+      anova: testJson(g.anova),
+      welch_anova: g.welch && {
+        F: g.welch.f,
+        df_between: g.welch.dfBetween,
+        df_within: g.welch.dfWithin,
+        p: g.welch.p,
+      },
+      tukey_hsd:
+        g.tukey?.map((t) => ({
+          pair: `${t.first}-${t.second}`,
+          diff: t.diff,
+          lwr: t.ci[0],
+          upr: t.ci[1],
+          p_adjusted: t.pAdjusted,
+        })) ?? null,
+    })),
+    vs_ancestor: c.vsAncestor.map((x) => ({
+      line: x.line,
+      generation: x.generation,
+      n: x.n,
+      mean_W: x.meanW,
+      ...adjustedJson(x),
+    })),
+    changes: c.changes.map((x) => ({
+      line: x.line,
+      from: x.from,
+      to: x.to,
+      diff_W: x.diff,
+      ...adjustedJson(x),
+    })),
+  };
 }
 
 function planJson(p: ReplicatesPlan | null) {
@@ -167,6 +222,7 @@ export function analysisJson(analysis: Analysis) {
       mean_r: r.meanR,
     })),
     comparison: comparisonJson(analysis.comparison),
+    comparisons: comparisonsJson(analysis.comparisons),
     trajectories: analysis.trajectories.map(trajectoryJson),
     ...(analysis.pooledReplicatesNeeded !== undefined
       ? { replicates_needed_pooled: planJson(analysis.pooledReplicatesNeeded) }
