@@ -33,8 +33,9 @@ Options:
   --exclude-out-of-range   drop out-of-range plates where the sample has an in-range plate
   --control-group NAME     group of marker-control assays (default "${DEFAULT_MARKER_CONTROL_GROUP}")
   --correct-marker         correct the other assays by the marker effect (off by default)
-  --compare A,B[,C...]     groups to compare (2: Welch t-test; more: one-way ANOVA);
-                           default all groups except the marker controls
+  --compare A,B[,C...]     also test across these groups (2: Welch t-test; more: one-way
+                           ANOVA); lines are always compared within each generation, against
+                           W = 1, and between generations
   --round bam|iso7218      round densities in the tables to two significant figures
   --draws N                bootstrap draws for the counting-noise interval of W (default ${DEFAULT_BOOTSTRAP_DRAWS})
   --seed N                 mixed into each assay's bootstrap seed (default 0)
