@@ -153,11 +153,18 @@ describe('rivalplate fitness', () => {
       ].join('\n'),
     );
     const z = capture(dir);
-    expect(await run(['--json', 'zero.csv'], z)).toBe(1);
-    expect(z.stderr()).toContain('assay A1, end sample: no test colony on row 3');
+    expect(await run(['--json', 'zero.csv'], z)).toBe(0);
     const doc = JSON.parse(z.stdout());
-    expect(doc.assays.map((x: { assay: string }) => x.assay)).toEqual(['A2']);
-    expect(doc.errors[0].assay).toBe('A1');
+    expect(
+      doc.assays.map((x: { assay: string; bound: string | null }) => [x.assay, x.bound]),
+    ).toEqual([
+      ['A1', 'at-most'],
+      ['A2', null],
+    ]);
+    expect(doc.groups[0]).toMatchObject({ group: 'g', n: 1, bounded: 1, dropped: 0 });
+    expect(doc.left_out).toEqual([
+      expect.objectContaining({ assay: 'A1', group: 'g', reason: 'bounded' }),
+    ]);
 
     const u = capture();
     expect(await run(['--range', 'big', EXAMPLE], u)).toBe(2);

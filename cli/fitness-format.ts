@@ -149,6 +149,14 @@ function modelRow(m: CurveFit | StepFit | ModelFailure, label: string): string[]
   return [label, params, m.residualSe.toFixed(4), f(m.aic, 2), f(m.bic, 2), String(m.k)];
 }
 
+function leftOutText(bounded: number, dropped: number): string {
+  const parts = [
+    ...(bounded > 0 ? [`${bounded} bounded`] : []),
+    ...(dropped > 0 ? [`${dropped} not computable`] : []),
+  ];
+  return parts.length > 0 ? parts.join(', ') : 'none';
+}
+
 function planRow(label: string, p: ReplicatesPlan | null): string[] {
   return p
     ? [label, String(p.n), f(p.sdPerAssay), f(p.betweenAssaySd), f(p.countingSe)]
@@ -178,7 +186,7 @@ export function analysisText(a: Analysis, options: TextOptions): string {
         x.assay,
         x.group,
         String(x.generation),
-        f(x.W),
+        x.bound ? `${x.bound === 'at-most' ? '≤' : '≥'} ${f(x.W)}` : f(x.W),
         ci(x.W_ci),
         f(x.r),
         f(x.rPerDay),
@@ -197,16 +205,37 @@ export function analysisText(a: Analysis, options: TextOptions): string {
     out.push('', 'Assays that could not be computed:');
     for (const e of a.errors) out.push(`  ${e.message}`);
   }
+  const bounded = a.leftOut.filter((l) => l.reason === 'bounded');
+  if (bounded.length > 0) {
+    out.push(
+      '',
+      'Assays whose W is only a bound (a strain had no colony), left out of means and tests:',
+    );
+    for (const l of bounded) out.push(`  assay ${l.assay} (${l.group}): ${l.message}`);
+  }
   out.push(
     '',
     'Groups (mean of replicate assays, 95% CI from Student t, two-sided one-sample t-tests)',
   );
   out.push(
     table(
-      ['group', 'n', 'mean W', 'SD', 'SE', '95% CI', 'p (W=1)', 'mean r', 'SD r', 'p (r=0)'],
+      [
+        'group',
+        'n',
+        'left out',
+        'mean W',
+        'SD',
+        'SE',
+        '95% CI',
+        'p (W=1)',
+        'mean r',
+        'SD r',
+        'p (r=0)',
+      ],
       a.groups.map((g) => [
         g.group,
         String(g.W.n),
+        leftOutText(g.bounded, g.dropped),
         f(g.W.mean),
         f(g.W.sd),
         f(g.W.se),

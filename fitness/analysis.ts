@@ -54,6 +54,9 @@ export interface AnalysisOptions extends AssayOptions {
 
 export interface GroupResult {
   group: string;
+  /** Assays of the group left out of these statistics: W only bounded, or not computable. */
+  bounded: number;
+  dropped: number;
   W: Summary;
   W_vs_1: TTest | null;
   r: Summary;
@@ -111,9 +114,21 @@ export interface AnalysedAssay extends AssayResult {
   uncorrected?: Uncorrected;
 }
 
+export interface LeftOut {
+  assay: string;
+  group: string;
+  reason: 'bounded' | 'not computable';
+  message: string;
+}
+
 export interface Analysis {
   assays: AnalysedAssay[];
-  errors: { assay: string; message: string }[];
+  errors: { assay: string; group: string; message: string }[];
+  /**
+   * Assays left out of every mean, test and fit, with the reason: a strain had no colony (W is
+   * only a bound) or the assay could not be computed. Each group counts its own.
+   */
+  leftOut: LeftOut[];
   groups: GroupResult[];
   markerEffect: MarkerEffect | null;
   reciprocal: ReciprocalResult[];
@@ -166,11 +181,19 @@ function pooledSd(groups: readonly GroupResult[]): number | null {
   return df > 0 ? Math.sqrt(ss / df) : null;
 }
 
-function groupResult(group: string, assays: readonly AssayResult[], detect?: number): GroupResult {
+function groupResult(
+  group: string,
+  assays: readonly AssayResult[],
+  leftOut: readonly LeftOut[],
+  detect?: number,
+): GroupResult {
   const W = assays.map((a) => a.W);
   const r = assays.map((a) => a.r);
+  const mine = leftOut.filter((l) => l.group === group);
   const result: GroupResult = {
     group,
+    bounded: mine.filter((l) => l.reason === 'bounded').length,
+    dropped: mine.filter((l) => l.reason === 'not computable').length,
     W: summarise(W),
     W_vs_1: oneSampleTTest(W, 1),
     r: summarise(r),
@@ -240,14 +263,25 @@ export function analyse(inputs: readonly AssayInput[], options: AnalysisOptions 
       raw.push(computeAssay(input, options));
     } catch (e) {
       if (!(e instanceof FitnessError)) throw e;
-      errors.push({ assay: input.assay, message: e.message });
+      errors.push({ assay: input.assay, group: input.group, message: e.message });
     }
   }
-  const controls = raw.filter((a) => a.group === controlGroup);
+  const leftOut: LeftOut[] = [
+    ...raw
+      .filter((a) => a.bound !== null)
+      .map((a) => ({
+        assay: a.assay,
+        group: a.group,
+        reason: 'bounded' as const,
+        message: a.flags.find((f) => f.code === 'bounded')!.message,
+      })),
+    ...errors.map((e) => ({ ...e, reason: 'not computable' as const })),
+  ];
+  const controls = raw.filter((a) => a.group === controlGroup && a.bound === null);
   let markerEffect: MarkerEffect | null = null;
   let assays: AnalysedAssay[] = raw;
   if (controls.length > 0) {
-    const g = groupResult(controlGroup, controls);
+    const g = groupResult(controlGroup, controls, leftOut);
     markerEffect = { ...g, n: controls.length, applied: Boolean(options.correctMarker) };
     if (options.correctMarker) {
       assays = raw.map((a) =>
@@ -259,13 +293,14 @@ export function analyse(inputs: readonly AssayInput[], options: AnalysisOptions 
       `marker correction asked for, but no assay of group "${controlGroup}" could be computed`,
     );
   }
-  const groups = [...by(assays, (a) => a.group)].map(([group, list]) =>
-    groupResult(group, list, options.detectDifference),
+  const usable = assays.filter((a) => a.bound === null);
+  const groups = [...by(usable, (a) => a.group)].map(([group, list]) =>
+    groupResult(group, list, leftOut, options.detectDifference),
   );
-  const tested = assays.filter((a) => a.group !== controlGroup);
+  const tested = usable.filter((a) => a.group !== controlGroup);
 
   const compareNames = options.compare ?? [];
-  const byGroup = by(assays, (a) => a.group);
+  const byGroup = by(usable, (a) => a.group);
   for (const name of compareNames) {
     if (!byGroup.has(name))
       throw new FitnessError(`no computed assay in group "${name}" to compare`);
@@ -321,6 +356,7 @@ export function analyse(inputs: readonly AssayInput[], options: AnalysisOptions 
   const result: Analysis = {
     assays,
     errors,
+    leftOut,
     groups,
     markerEffect,
     reciprocal,

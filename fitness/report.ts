@@ -158,6 +158,7 @@ export function analysisJson(analysis: Analysis) {
       replicate: a.replicate,
       ...(a.testMarker ? { test_marker: a.testMarker } : {}),
       W: a.W,
+      bound: a.bound,
       r: a.r,
       r_per_day: a.rPerDay,
       m_test: a.mTest,
@@ -193,9 +194,12 @@ export function analysisJson(analysis: Analysis) {
       flags: a.flags,
     })),
     errors: analysis.errors,
+    left_out: analysis.leftOut,
     groups: analysis.groups.map((g) => ({
       group: g.group,
       n: g.W.n,
+      bounded: g.bounded,
+      dropped: g.dropped,
       ...summaryFields('W', g.W, g.W_vs_1, 1),
       ...summaryFields('r', g.r, g.r_vs_0, 0),
       ...(g.replicatesNeeded !== undefined
