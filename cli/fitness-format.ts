@@ -1,10 +1,11 @@
 /** Readable tables for `rivalplate fitness` (the --json output is fitness/report.ts). */
 import type { Analysis, Comparison } from '../fitness/analysis.ts';
 import type { Adjusted, LabComparisons } from '../fitness/lab-comparisons.ts';
+import type { FTest, SharedCurveTest } from '../fitness/nested-models.ts';
 import type { ReplicatesPlan } from '../fitness/planning.ts';
 import type { Anova, TTest } from '../fitness/replicate-stats.ts';
 import { formatForReport, type RoundingRule } from '../fitness/rounding.ts';
-import type { CurveFit, ModelFailure, StepFit } from '../fitness/trajectories.ts';
+import type { CurveFit, ModelFailure, NullFit, StepFit } from '../fitness/trajectories.ts';
 
 export interface TextOptions {
   /** Publication rounding of densities; 'none' prints three significant digits. */
@@ -131,22 +132,40 @@ function comparisonsText(c: LabComparisons): string[] {
   return out;
 }
 
-function modelRow(m: CurveFit | StepFit | ModelFailure, label: string): string[] {
-  if ('reason' in m) return [label, `not fitted: ${m.reason}`, '', '', '', ''];
+const fText = (t: FTest | null) =>
+  t ? `F(${t.df1}, ${t.df2}) = ${t.f.toFixed(3)}, ${pEq(t.p)}` : 'no test';
+
+function sharedText(s: SharedCurveTest | ModelFailure): string {
+  if ('reason' in s) return `  ${s.model}: not tested: ${s.reason}`;
+  return `  ${s.model}: one curve for ${s.lines.join(', ')} against one per line: ${fText(s.test)} (RSS ${s.shared.rss.toPrecision(4)} vs ${s.rssSeparate.toPrecision(4)})`;
+}
+
+function modelRow(m: NullFit | CurveFit | StepFit | ModelFailure, label: string): string[] {
+  if ('reason' in m) return [label, `not fitted: ${m.reason}`, '', '', '', '', ''];
   let params: string;
-  if (m.model === 'step') {
+  if (m.model === 'null') {
+    params = 'none';
+  } else if (m.model === 'step') {
     const heights = m.segments.map((s) => `${s.from}–${s.to}: ${s.w.toFixed(3)}`).join('; ');
     params = `${m.changePoints} change point(s); ${heights}`;
   } else {
     params = m.parameters
       .map(
         (q) =>
-          `${q.name} = ${q.estimate.toPrecision(4)} ± ${q.se.toPrecision(2)}${q.poorlyDetermined ? ' (poorly determined)' : ''}`,
+          `${q.name} = ${q.estimate.toPrecision(4)} ± ${q.se.toPrecision(2)} (95% ${q.ci[0].toPrecision(3)} to ${q.ci[1].toPrecision(3)})${q.poorlyDetermined ? ' poorly determined' : ''}`,
       )
       .join(', ');
     if (!m.converged) params += ' (not converged)';
   }
-  return [label, params, m.residualSe.toFixed(4), f(m.aic, 2), f(m.bic, 2), String(m.k)];
+  return [
+    label,
+    params,
+    m.residualSe.toFixed(4),
+    f(m.aic, 2),
+    m.aicc === null ? 'n too small' : f(m.aicc, 2),
+    f(m.bic, 2),
+    String(m.k),
+  ];
 }
 
 function leftOutText(bounded: number, dropped: number): string {
@@ -295,8 +314,9 @@ export function analysisText(a: Analysis, options: TextOptions): string {
     out.push('', `Trajectory of ${t.line} (${t.points.length} assays; w against generations)`);
     out.push(
       table(
-        ['model', 'parameters ± SE', 'resid SE', 'AIC', 'BIC', 'k'],
+        ['model', 'parameters ± SE (Wald 95% interval)', 'resid SE', 'AIC', 'AICc', 'BIC', 'k'],
         [
+          modelRow(t.null, 'null        w = 1'),
           modelRow(t.hyperbolic, 'hyperbolic  w = 1 + a·t/(t + b)'),
           modelRow(t.powerLaw, 'power law   w = (b·t + 1)^a'),
           modelRow(t.step, 'step        piecewise constant'),
@@ -310,6 +330,13 @@ export function analysisText(a: Analysis, options: TextOptions): string {
         `  lowest AIC: ${best.model}${next ? ` (next: ${next.model}, ΔAIC ${next.deltaAic.toFixed(2)})` : ''}`,
       );
     }
+    out.push(
+      `  against w = 1 (extra sum of squares): hyperbolic ${fText(t.vsNull.hyperbolic)}; power law ${fText(t.vsNull.powerLaw)}`,
+    );
+  }
+  if (a.sharedCurves.length > 0) {
+    out.push('', 'Do the lines share one curve? (extra-sum-of-squares F test)');
+    for (const sc of a.sharedCurves) out.push(sharedText(sc));
   }
   return `${out.join('\n')}\n`;
 }

@@ -10,6 +10,12 @@ import {
 } from './competition.ts';
 import { FitnessError } from './errors.ts';
 import { type LabComparisons, labComparisons } from './lab-comparisons.ts';
+import {
+  extraSumOfSquares,
+  type FTest,
+  type SharedCurveTest,
+  sharedCurveTest,
+} from './nested-models.ts';
 import { type ObservedSpread, type ReplicatesPlan, replicatesFromSpread } from './planning.ts';
 import {
   type Anova,
@@ -22,12 +28,18 @@ import {
 } from './replicate-stats.ts';
 import {
   type CurveFit,
+  curveBand,
   fitHyperbolic,
+  fitNull,
   fitPowerLaw,
   fitStep,
   type ModelFailure,
+  type NullFit,
   type StepFit,
 } from './trajectories.ts';
+
+/** Generations at which each fitted curve and its band are given: this many steps from 0. */
+export const BAND_STEPS = 40;
 
 export const DEFAULT_MARKER_CONTROL_GROUP = 'marker-control';
 
@@ -93,14 +105,34 @@ export interface Comparison {
   r: TTest | Anova | null;
 }
 
+export interface BandPoint {
+  generation: number;
+  w: number;
+  low: number;
+  high: number;
+}
+
 export interface LineTrajectory {
   line: string;
   points: { generation: number; w: number; assay: string }[];
+  /** w = 1: no change from the ancestor. */
+  null: NullFit | ModelFailure;
   hyperbolic: CurveFit | ModelFailure;
   powerLaw: CurveFit | ModelFailure;
   step: StepFit | ModelFailure;
+  /** Extra-sum-of-squares F test of the null model against each curve; null when not fitted. */
+  vsNull: { hyperbolic: FTest | null; powerLaw: FTest | null };
+  /** Each fitted curve with its 95 % band, from generation 0 to the last measured. */
+  bands: { hyperbolic: BandPoint[] | null; powerLaw: BandPoint[] | null };
   /** Fitted models ranked by AIC, with differences from the best. */
-  ranking: { model: string; aic: number; bic: number; deltaAic: number; deltaBic: number }[];
+  ranking: {
+    model: string;
+    aic: number;
+    aicc: number | null;
+    bic: number;
+    deltaAic: number;
+    deltaBic: number;
+  }[];
 }
 
 export interface Uncorrected {
@@ -137,6 +169,8 @@ export interface Analysis {
   /** Lines within each generation, each line against W = 1, each line's changes. */
   comparisons: LabComparisons;
   trajectories: LineTrajectory[];
+  /** Whether the lines share one curve, per curve model; empty with fewer than two lines. */
+  sharedCurves: (SharedCurveTest | ModelFailure)[];
   /**
    * With detectDifference: replicates needed judged from the SD pooled within all groups but
    * the marker controls (steadier than any one small group's SD); null without two replicates.
@@ -236,22 +270,44 @@ function trajectory(
   maxChangePoints: number,
 ): LineTrajectory {
   const points = assays.map((a) => ({ generation: a.generation, w: a.W, assay: a.assay }));
+  const nullFit = fitNull(points);
   const hyperbolic = fitHyperbolic(points);
   const powerLaw = fitPowerLaw(points);
   const step = fitStep(points, maxChangePoints);
-  const fitted = [hyperbolic, powerLaw, step].filter((m): m is CurveFit | StepFit => 'aic' in m);
+  const fitted = [nullFit, hyperbolic, powerLaw, step].filter(
+    (m): m is NullFit | CurveFit | StepFit => 'aic' in m,
+  );
+  const last = Math.max(...points.map((p) => p.generation));
+  const grid = Array.from({ length: BAND_STEPS + 1 }, (_, i) => (last * i) / BAND_STEPS);
+  const vs = (curve: CurveFit | ModelFailure) =>
+    'reason' in curve || 'reason' in nullFit
+      ? null
+      : extraSumOfSquares({ rss: nullFit.rss, parameters: 0 }, { ...curve, parameters: 2 });
+  const band = (curve: CurveFit | ModelFailure) =>
+    'reason' in curve ? null : curveBand(curve, grid);
   const bestAic = Math.min(...fitted.map((m) => m.aic));
   const bestBic = Math.min(...fitted.map((m) => m.bic));
   const ranking = fitted
     .map((m) => ({
       model: m.model,
       aic: m.aic,
+      aicc: m.aicc,
       bic: m.bic,
       deltaAic: m.aic - bestAic,
       deltaBic: m.bic - bestBic,
     }))
     .sort((a, b) => a.aic - b.aic);
-  return { line, points, hyperbolic, powerLaw, step, ranking };
+  return {
+    line,
+    points,
+    null: nullFit,
+    hyperbolic,
+    powerLaw,
+    step,
+    vsNull: { hyperbolic: vs(hyperbolic), powerLaw: vs(powerLaw) },
+    bands: { hyperbolic: band(hyperbolic), powerLaw: band(powerLaw) },
+    ranking,
+  };
 }
 
 export function analyse(inputs: readonly AssayInput[], options: AnalysisOptions = {}): Analysis {
@@ -353,6 +409,10 @@ export function analyse(inputs: readonly AssayInput[], options: AnalysisOptions 
     if (new Set(list.map((a) => a.generation)).size < 2) continue;
     trajectories.push(trajectory(line, list, options.maxChangePoints ?? 3));
   }
+  const sharedCurves =
+    trajectories.length < 2
+      ? []
+      : (['hyperbolic', 'power-law'] as const).map((model) => sharedCurveTest(model, trajectories));
   const result: Analysis = {
     assays,
     errors,
@@ -363,6 +423,7 @@ export function analyse(inputs: readonly AssayInput[], options: AnalysisOptions 
     comparison,
     comparisons: labComparisons(tested),
     trajectories,
+    sharedCurves,
   };
   if (options.detectDifference !== undefined) {
     const sd = pooledSd(groups.filter((g) => g.group !== controlGroup));

@@ -4,9 +4,10 @@
  */
 import type { Analysis, Comparison, LineTrajectory } from './analysis.ts';
 import type { Adjusted, LabComparisons } from './lab-comparisons.ts';
+import type { FTest, SharedCurveTest } from './nested-models.ts';
 import type { ReplicatesPlan } from './planning.ts';
 import type { Anova, Summary, TTest } from './replicate-stats.ts';
-import type { CurveFit, ModelFailure, StepFit } from './trajectories.ts';
+import type { CurveFit, ModelFailure, NullFit, StepFit } from './trajectories.ts';
 
 const summaryFields = (prefix: string, s: Summary, test: TTest | null, mu0: number) => ({
   [`mean_${prefix}`]: s.mean,
@@ -94,7 +95,22 @@ function comparisonJson(c: Comparison | null) {
   return { groups: c.groups, test: c.test, W: testJson(c.W), r: testJson(c.r) };
 }
 
-function fitJson(m: CurveFit | StepFit | ModelFailure) {
+const fTestJson = (t: FTest | null) => t && { F: t.f, df_between: t.df1, df_within: t.df2, p: t.p };
+
+function sharedCurveJson(s: SharedCurveTest | ModelFailure) {
+  if ('reason' in s) return { model: s.model.replace('-', '_'), tested: false, reason: s.reason };
+  return {
+    model: s.model.replace('-', '_'),
+    tested: true,
+    lines: s.lines,
+    rss_shared: s.shared.rss,
+    rss_separate: s.rssSeparate,
+    shared_parameters: Object.fromEntries(s.shared.parameters.map((p) => [p.name, p.estimate])),
+    test: fTestJson(s.test),
+  };
+}
+
+function fitJson(m: NullFit | CurveFit | StepFit | ModelFailure) {
   if ('reason' in m) return { fitted: false, reason: m.reason };
   const common = {
     fitted: true,
@@ -104,9 +120,11 @@ function fitJson(m: CurveFit | StepFit | ModelFailure) {
     residual_se: m.residualSe,
     log_lik: m.logLik,
     AIC: m.aic,
+    AICc: m.aicc,
     BIC: m.bic,
     residuals: m.residuals,
   };
+  if (m.model === 'null') return common;
   if (m.model === 'step') {
     return {
       ...common,
@@ -125,6 +143,7 @@ function fitJson(m: CurveFit | StepFit | ModelFailure) {
     converged: m.converged,
     parameters: Object.fromEntries(m.parameters.map((p) => [p.name, p.estimate])),
     standard_errors: Object.fromEntries(m.parameters.map((p) => [p.name, p.se])),
+    confidence_intervals: Object.fromEntries(m.parameters.map((p) => [p.name, p.ci])),
     poorly_determined: m.parameters.filter((p) => p.poorlyDetermined).map((p) => p.name),
   };
 }
@@ -134,13 +153,20 @@ function trajectoryJson(t: LineTrajectory) {
     line: t.line,
     points: t.points,
     models: {
+      null: fitJson(t.null),
       hyperbolic: fitJson(t.hyperbolic),
       power_law: fitJson(t.powerLaw),
       step: fitJson(t.step),
     },
+    vs_null: {
+      hyperbolic: fTestJson(t.vsNull.hyperbolic),
+      power_law: fTestJson(t.vsNull.powerLaw),
+    },
+    bands: { hyperbolic: t.bands.hyperbolic, power_law: t.bands.powerLaw },
     ranking: t.ranking.map((r) => ({
       model: r.model.replace('-', '_'),
       AIC: r.aic,
+      AICc: r.aicc,
       BIC: r.bic,
       delta_AIC: r.deltaAic,
       delta_BIC: r.deltaBic,
@@ -228,6 +254,7 @@ export function analysisJson(analysis: Analysis) {
     comparison: comparisonJson(analysis.comparison),
     comparisons: comparisonsJson(analysis.comparisons),
     trajectories: analysis.trajectories.map(trajectoryJson),
+    shared_curves: analysis.sharedCurves.map(sharedCurveJson),
     ...(analysis.pooledReplicatesNeeded !== undefined
       ? { replicates_needed_pooled: planJson(analysis.pooledReplicatesNeeded) }
       : {}),
