@@ -254,3 +254,17 @@ describe('intervals, AICc, the null model and the band, against R', () => {
     expect(step.bicByChangePoints.map((b) => b.changePoints)).toEqual([0]);
   });
 });
+
+describe('step model cost', () => {
+  it('chooses the segmentation on the RSS it reports, even far from zero', () => {
+    // Values near 1000 with steps of 1e-5: Σw² − (Σw)²/m would lose these digits.
+    const data: TrajectoryPoint[] = [0, 0, 0, 500, 500, 500, 1000, 1000, 1000].map((t, i) => ({
+      generation: t,
+      w: 1000 + (t >= 500 ? 1e-5 : 0) + [1, -2, 1.5][i % 3]! * 1e-7,
+    }));
+    const fit = fitStep(data, 2) as StepFit;
+    expect(fit.changePoints).toBe(1);
+    expect(fit.steps).toEqual([{ after: 0, before: 500 }]);
+    expect(fit.rss / bruteForceRss(data, 1)).toBeCloseTo(1, 9);
+  });
+});
