@@ -1,5 +1,6 @@
 /** Readable tables for `rivalplate fitness` (the --json output is fitness/report.ts). */
 import type { Analysis, Comparison } from '../fitness/analysis.ts';
+import type { BlockedComparison } from '../fitness/blocks.ts';
 import type { Adjusted, LabComparisons } from '../fitness/lab-comparisons.ts';
 import type { FTest, SharedCurveTest } from '../fitness/nested-models.ts';
 import type { ReplicatesPlan } from '../fitness/planning.ts';
@@ -60,6 +61,59 @@ const adjustedCells = (x: Adjusted) =>
     ? [x.test.t.toFixed(3), dfText(x.test.df), p(x.test.p), p(x.pHolm), p(x.pBH)]
     : ['no test (one assay or no spread)', '', '', '', ''];
 
+function blockedText(generation: number, b: BlockedComparison): string[] {
+  const out = ['', `Generation ${generation} in blocks (${b.blocks.join(', ')})`];
+  if ('reason' in b.anova) out.push(`  aov(W ~ block + line): not computable: ${b.anova.reason}`);
+  else {
+    const a = b.anova;
+    out.push(
+      table(
+        ['  aov(W ~ block + line)', 'df', 'SS', 'MS', 'F', 'p'],
+        [
+          [
+            '  block',
+            String(a.block.df),
+            f(a.block.ss, 6),
+            f(a.block.ms, 6),
+            f(a.block.f, 3),
+            p(a.block.p),
+          ],
+          [
+            '  line',
+            String(a.line.df),
+            f(a.line.ss, 6),
+            f(a.line.ms, 6),
+            f(a.line.f, 3),
+            p(a.line.p),
+          ],
+          ['  residual', String(a.residual.df), f(a.residual.ss, 6), f(a.residual.ms, 6), '', ''],
+        ],
+      ),
+    );
+  }
+  if ('reason' in b.mixed) out.push(`  mixed model (REML): not fitted: ${b.mixed.reason}`);
+  else {
+    const m = b.mixed;
+    out.push(
+      `  mixed model W ~ line + (1 | block), REML: SD between blocks ${m.sdBlock.toFixed(4)}, within ${m.sdResidual.toFixed(4)}`,
+    );
+    out.push(
+      table(
+        ['  effect', 'estimate', 'SE', 'df', 't', 'p'],
+        m.fixed.map((x) => [
+          `  ${x.name}`,
+          f(x.estimate),
+          f(x.se),
+          String(x.df),
+          x.t.toFixed(3),
+          p(x.p),
+        ]),
+      ),
+    );
+  }
+  return out;
+}
+
 function comparisonsText(c: LabComparisons): string[] {
   const out: string[] = [];
   if (c.byGeneration.length > 0) {
@@ -93,6 +147,7 @@ function comparisonsText(c: LabComparisons): string[] {
       out.push(table(['gen', 'pair', 'diff W', '95% CI', 'p adj'], pairs));
     }
   }
+  for (const g of c.byGeneration) if (g.blocked) out.push(...blockedText(g.generation, g.blocked));
   if (c.vsAncestor.length > 0) {
     out.push(
       '',

@@ -190,3 +190,12 @@ describe('odd files', () => {
     );
   });
 });
+
+describe('block column', () => {
+  it('reads the block of each assay and checks it is the same on all its rows', () => {
+    const withBlock = ok.replace(HEADER, `${HEADER},block`).replace(/\n(A1.*)/g, '\n$1,day2');
+    expect(readCompetitionCsv(withBlock).assays[0]!.block).toBe('day2');
+    const mixed = withBlock.replace(/day2$/, 'day3');
+    expect(problems(mixed)).toEqual(['row 4: assay A1 has block "day3" here but "day2" on row 2']);
+  });
+});

@@ -5,7 +5,7 @@
  *   assay, group, line, generation, replicate, sample (start | end), dilution_fold, volume_ul,
  *   test_colonies, reference_colonies, fold_dilution_since_start (required on end rows),
  *   days (optional, default 1), test_marker (optional: the marker the test strain carries, for
- *   reciprocal designs).
+ *   reciprocal designs), block (optional: the day or batch the assay was run in).
  * Rows are named by their line in the file (the header is line 1). The separator is the comma, or a
  * semicolon or tab when the header has no comma (then a decimal comma is read as a point). Rows
  * whose cells are all empty (spreadsheets export them) are skipped; a column named twice is refused.
@@ -32,7 +32,7 @@ export const REQUIRED_COLUMNS = [
   'fold_dilution_since_start',
 ] as const;
 
-export const OPTIONAL_COLUMNS = ['days', 'test_marker'] as const;
+export const OPTIONAL_COLUMNS = ['days', 'test_marker', 'block'] as const;
 
 type Column = (typeof REQUIRED_COLUMNS)[number] | (typeof OPTIONAL_COLUMNS)[number];
 const KNOWN = new Set<string>([...REQUIRED_COLUMNS, ...OPTIONAL_COLUMNS]);
@@ -248,6 +248,7 @@ export function readCompetitionCsv(text: string): CompetitionTable {
       referenceColonies: referenceColonies!,
     };
     const marker = row.get('test_marker');
+    const block = row.get('block');
     const fields: Omit<AssayInput, 'start' | 'end' | 'foldDilutionSinceStart'> = {
       assay,
       group: row.get('group'),
@@ -256,6 +257,7 @@ export function readCompetitionCsv(text: string): CompetitionTable {
       replicate: row.get('replicate'),
       days,
       ...(marker ? { testMarker: marker } : {}),
+      ...(block ? { block } : {}),
     };
     let entry = pending.get(assay);
     if (!entry) {
@@ -275,6 +277,7 @@ export function readCompetitionCsv(text: string): CompetitionTable {
         'replicate',
         'days',
         'testMarker',
+        'block',
       ] as const) {
         if (entry.input[key] !== fields[key]) {
           problems.push(

@@ -40,6 +40,8 @@ export interface AssayInput {
   foldDilutionSinceStart: number;
   /** Marker the test strain carries, when the CSV says (for reciprocal designs). */
   testMarker?: string;
+  /** The day or batch the assay was run in, when the CSV says. */
+  block?: string;
   start: Plate[];
   end: Plate[];
 }
@@ -70,6 +72,7 @@ export interface AssayResult {
   replicate: string;
   days: number;
   testMarker?: string;
+  block?: string;
   D: number;
   start: SampleDensity;
   end: SampleDensity;
@@ -288,6 +291,7 @@ export function computeAssay(input: AssayInput, options: AssayOptions = {}): Ass
     replicate: input.replicate,
     days: input.days,
     ...(input.testMarker ? { testMarker: input.testMarker } : {}),
+    ...(input.block ? { block: input.block } : {}),
     D,
     start,
     end,

@@ -140,3 +140,21 @@ describe('labComparisons', () => {
     expect(labComparisons([{ line: 'L1', generation: 0, W: 1 }]).byGeneration).toEqual([]);
   });
 });
+
+describe('labComparisons with blocks', () => {
+  it('adds the blocked analyses (blocks.ts) where every assay of a generation names its block', () => {
+    const blocked = values.map((v, i) => ({ ...v, block: `d${i % 3}` }));
+    const c = labComparisons(blocked);
+    expect(c.byGeneration.map((g) => g.blocked?.blocks)).toEqual([
+      ['d0', 'd1', 'd2'],
+      ['d0', 'd1', 'd2'],
+    ]);
+    expect(c.byGeneration[0]!.blocked!.anova).toHaveProperty('line');
+    // One assay without a block: no blocked analysis for its generation.
+    const partly = blocked.map((v, i) => (i === 0 ? { ...v, block: undefined } : v));
+    expect(labComparisons(partly).byGeneration.map((g) => g.blocked === null)).toEqual([
+      true,
+      false,
+    ]);
+  });
+});

@@ -7,7 +7,10 @@
  * The last two are families of many tests, so each carries Holm and Benjamini–Hochberg adjusted
  * p-values (p-adjust.ts) over the tests of its family that exist (a test that cannot be made, for
  * one assay or no spread, is null and not counted).
+ * When the assays of a generation were run in two blocks or more (every one naming its block), the
+ * lines are also compared with the blocks taken into account (blocks.ts).
  */
+import { type BlockedComparison, blockedComparison } from './blocks.ts';
 import { benjaminiHochberg, holm } from './p-adjust.ts';
 import {
   type Anova,
@@ -24,6 +27,7 @@ export interface LineValue {
   line: string;
   generation: number;
   W: number;
+  block?: string;
 }
 
 export interface GenerationComparison {
@@ -32,6 +36,8 @@ export interface GenerationComparison {
   anova: Anova | null;
   welch: WelchAnova | null;
   tukey: TukeyPair[] | null;
+  /** With blocks: aov(W ~ block + line) and the REML random-intercept model; else null. */
+  blocked: BlockedComparison | null;
 }
 
 export interface Adjusted {
@@ -98,12 +104,18 @@ export function labComparisons(values: readonly LineValue[]): LabComparisons {
       .map(([line, gens]) => ({ line, values: gens.get(generation)! }));
     if (present.length < 2) continue;
     const groups = present.map((p) => p.values);
+    const here = values.filter((v) => v.generation === generation);
+    const blocks = new Set(here.map((v) => v.block));
     byGeneration.push({
       generation,
       lines: present.map((p) => ({ line: p.line, n: p.values.length, meanW: mean(p.values) })),
       anova: oneWayAnova(groups),
       welch: welchAnova(groups),
       tukey: tukeyHsd(present.map((p) => ({ name: p.line, values: p.values }))),
+      blocked:
+        blocks.size >= 2 && !blocks.has(undefined)
+          ? blockedComparison(here.map((v) => ({ line: v.line, block: v.block!, W: v.W })))
+          : null,
     });
   }
   const vsAncestor: VersusAncestor[] = [];

@@ -3,6 +3,7 @@
  * exist). This is the `rivalplate fitness --json` output; README "Fitness from a CSV" lists it.
  */
 import type { Analysis, Comparison, LineTrajectory } from './analysis.ts';
+import type { AnovaRow, BlockedComparison } from './blocks.ts';
 import type { Adjusted, LabComparisons } from './lab-comparisons.ts';
 import type { FTest, SharedCurveTest } from './nested-models.ts';
 import type { ReplicatesPlan } from './planning.ts';
@@ -42,6 +43,40 @@ const adjustedJson = (x: Adjusted) => ({
   p_BH: x.pBH,
 });
 
+const anovaRowJson = (r: AnovaRow) => ({ df: r.df, ss: r.ss, ms: r.ms, F: r.f, p: r.p });
+
+function blockedJson(b: BlockedComparison | null) {
+  if (b === null) return null;
+  return {
+    blocks: b.blocks,
+    anova:
+      'reason' in b.anova
+        ? { fitted: false, reason: b.anova.reason }
+        : {
+            fitted: true,
+            block: anovaRowJson(b.anova.block),
+            line: anovaRowJson(b.anova.line),
+            residual: b.anova.residual,
+          },
+    mixed_model:
+      'reason' in b.mixed
+        ? { fitted: false, reason: b.mixed.reason }
+        : {
+            fitted: true,
+            fixed_effects: b.mixed.fixed.map((f) => ({
+              term: f.name,
+              estimate: f.estimate,
+              se: f.se,
+              df: f.df,
+              t: f.t,
+              p: f.p,
+            })),
+            sd_block: b.mixed.sdBlock,
+            sd_residual: b.mixed.sdResidual,
+          },
+  };
+}
+
 function comparisonsJson(c: LabComparisons) {
   return {
     by_generation: c.byGeneration.map((g) => ({
@@ -62,6 +97,7 @@ function comparisonsJson(c: LabComparisons) {
           upr: t.ci[1],
           p_adjusted: t.pAdjusted,
         })) ?? null,
+      blocked: blockedJson(g.blocked),
     })),
     vs_ancestor: c.vsAncestor.map((x) => ({
       line: x.line,
@@ -183,6 +219,7 @@ export function analysisJson(analysis: Analysis) {
       generation: a.generation,
       replicate: a.replicate,
       ...(a.testMarker ? { test_marker: a.testMarker } : {}),
+      ...(a.block ? { block: a.block } : {}),
       W: a.W,
       bound: a.bound,
       r: a.r,
