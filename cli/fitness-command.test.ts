@@ -1,9 +1,10 @@
 import { execFile } from 'node:child_process';
-import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { promisify } from 'node:util';
 import { afterAll, describe, expect, it } from 'vitest';
+import { parseCsv } from '../fitness/csv.ts';
 import { capturedIo } from './captured-io.ts';
 import { run } from './fitness-command.ts';
 import { main } from './main.ts';
@@ -118,6 +119,31 @@ describe('rivalplate fitness', () => {
       true,
     );
     expect(flags.some((f: { code: string }) => f.code === 'plates-dropped')).toBe(true);
+  });
+
+  it('writes tidy CSV tables with --csv-dir: one per table, every row as wide as its header', async () => {
+    const io = capture();
+    const out = join(dir, 'tables');
+    expect(await run(['--draws', '200', '--csv-dir', out, EXAMPLE], io)).toBe(0);
+    expect(readdirSync(out).sort()).toEqual([
+      'assays.csv',
+      'comparisons.csv',
+      'curve_points.csv',
+      'groups.csv',
+      'model_parameters.csv',
+      'models.csv',
+    ]);
+    for (const name of readdirSync(out)) {
+      const text = readFileSync(join(out, name), 'utf8');
+      expect(text).not.toMatch(/NaN|Infinity|undefined/);
+      const [header, ...rows] = parseCsv(text);
+      expect(rows.length).toBeGreaterThan(0);
+      for (const r of rows) expect(r.fields).toHaveLength(header!.fields.length);
+    }
+    const models = parseCsv(readFileSync(join(out, 'models.csv'), 'utf8'));
+    expect(models[0]!.fields.slice(0, 4)).toEqual(['line', 'model', 'fitted', 'reason']);
+    // Six lines, four models each (null, hyperbolic, power law, step).
+    expect(models).toHaveLength(1 + 6 * 4);
   });
 
   it('answers --help through the dispatcher and lists the command', async () => {

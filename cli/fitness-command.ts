@@ -2,8 +2,8 @@
  * `rivalplate fitness [options] FILE.csv`: relative fitness from a CSV of plate counts.
  * Exit codes: 0 done; 1 the data had problems (listed, each naming its row or assay); 2 usage.
  */
-import { readFile } from 'node:fs/promises';
-import { resolve } from 'node:path';
+import { mkdir, readFile, writeFile } from 'node:fs/promises';
+import { join, resolve } from 'node:path';
 import { parseArgs } from 'node:util';
 import {
   type AnalysisOptions,
@@ -15,6 +15,7 @@ import { readCompetitionCsv } from '../fitness/competition-csv.ts';
 import { SEPARATOR_NAMES } from '../fitness/csv.ts';
 import { FitnessError } from '../fitness/errors.ts';
 import { analysisJson, assertAllFinite } from '../fitness/report.ts';
+import { tidyCsv, tidyTables } from '../fitness/tidy-tables.ts';
 import { analysisText, type TextOptions } from './fitness-format.ts';
 import type { CommandIo } from './io.ts';
 import { parseRange, UsageError, wholeNumber } from './options.ts';
@@ -28,6 +29,8 @@ Relative fitness from competition plates: one CSV row per counted plate, with th
 
 Options:
   --json                   print one JSON document instead of tables
+  --csv-dir DIR            also write the results as tidy CSV tables into DIR (assays, groups,
+                           comparisons, models, model_parameters, curve_points; NA = missing)
   --range NAME|MIN-MAX     countable range per plate: bam (25–250, default), sm9215 (30–300),
                            iso7218 (10–300), or two numbers such as 30-300
   --exclude-out-of-range   drop out-of-range plates where the sample has an in-range plate
@@ -53,6 +56,7 @@ function parse(args: string[]) {
     allowPositionals: true,
     options: {
       json: { type: 'boolean' },
+      'csv-dir': { type: 'string' },
       range: { type: 'string' },
       'exclude-out-of-range': { type: 'boolean' },
       'control-group': { type: 'string' },
@@ -96,6 +100,7 @@ function parse(args: string[]) {
     help: false as const,
     file: positionals[0]!,
     json: Boolean(values.json),
+    csvDir: values['csv-dir'],
     rounding,
     options,
   };
@@ -124,6 +129,20 @@ export async function run(args: string[], io: CommandIo): Promise<number> {
   try {
     const table = readCompetitionCsv(text);
     const analysis = analyse(table.assays, parsed.options);
+    if (parsed.csvDir !== undefined) {
+      const dir = resolve(io.cwd, parsed.csvDir);
+      try {
+        await mkdir(dir, { recursive: true });
+        for (const t of tidyTables(analysis)) {
+          await writeFile(join(dir, `${t.name}.csv`), tidyCsv(t));
+        }
+      } catch (e) {
+        io.err(
+          `rivalplate fitness: cannot write the tables into ${parsed.csvDir}: ${(e as Error).message}`,
+        );
+        return 1;
+      }
+    }
     if (parsed.json) {
       const doc = analysisJson(analysis);
       assertAllFinite(doc);
