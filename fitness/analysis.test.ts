@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { analyse } from './analysis.ts';
 import { type AssayInput, computeAssay } from './competition.ts';
+import { correctedMean } from './marker-correction.ts';
 import { hashSeed, poissonDraw, seededUniform } from './poisson.ts';
 import { oneSampleTTest, welchTTest } from './replicate-stats.ts';
 import { analysisJson, assertAllFinite } from './report.ts';
@@ -96,6 +97,16 @@ describe('analyse', () => {
       expect(x.flags.map((f) => f.code)).toContain('marker-corrected');
     }
     expect(fixed.markerEffect!.applied).toBe(true);
+    // Group statistics carry the controls' uncertainty (marker-correction.ts, checked against R).
+    const raw = (g: string, f: 'W' | 'r') =>
+      plain.assays.filter((x) => x.group === g).map((x) => x[f]);
+    const g = fixed.groups.find((x) => x.group === 'L1-1000')!;
+    const expected = correctedMean(raw('L1-1000', 'W'), raw('marker-control', 'W'), 'ratio');
+    expect(g.W).toEqual(expected.summary);
+    expect(g.W_vs_1).toEqual(expected.test);
+    expect(g.r_vs_0).toEqual(
+      correctedMean(raw('L1-1000', 'r'), raw('marker-control', 'r'), 'difference').test,
+    );
     expect(() => analyse(evolved, { correctMarker: true })).toThrow(
       /no assay of group "marker-control"/,
     );

@@ -10,6 +10,7 @@ import {
 } from './competition.ts';
 import { FitnessError } from './errors.ts';
 import { type LabComparisons, labComparisons } from './lab-comparisons.ts';
+import { correctedMean } from './marker-correction.ts';
 import {
   extraSumOfSquares,
   type FTest,
@@ -215,23 +216,41 @@ function pooledSd(groups: readonly GroupResult[]): number | null {
   return df > 0 ? Math.sqrt(ss / df) : null;
 }
 
+/**
+ * One group's statistics. With `controls` (the marker correction was applied), the means are
+ * the corrected ones and their intervals and tests carry the controls' uncertainty
+ * (marker-correction.ts).
+ */
 function groupResult(
   group: string,
-  assays: readonly AssayResult[],
+  assays: readonly AnalysedAssay[],
   leftOut: readonly LeftOut[],
   detect?: number,
+  controls?: readonly AssayResult[],
 ): GroupResult {
-  const W = assays.map((a) => a.W);
-  const r = assays.map((a) => a.r);
   const mine = leftOut.filter((l) => l.group === group);
+  const stats = (field: 'W' | 'r', mu0: number) => {
+    if (controls) {
+      const c = correctedMean(
+        assays.map((a) => (a.uncorrected ?? a)[field]),
+        controls.map((a) => a[field]),
+        field === 'W' ? 'ratio' : 'difference',
+      );
+      return { summary: c.summary, test: c.test };
+    }
+    const values = assays.map((a) => a[field]);
+    return { summary: summarise(values), test: oneSampleTTest(values, mu0) };
+  };
+  const W = stats('W', 1);
+  const r = stats('r', 0);
   const result: GroupResult = {
     group,
     bounded: mine.filter((l) => l.reason === 'bounded').length,
     dropped: mine.filter((l) => l.reason === 'not computable').length,
-    W: summarise(W),
-    W_vs_1: oneSampleTTest(W, 1),
-    r: summarise(r),
-    r_vs_0: oneSampleTTest(r, 0),
+    W: W.summary,
+    W_vs_1: W.test,
+    r: r.summary,
+    r_vs_0: r.test,
   };
   if (detect !== undefined) {
     const sd = result.W.sd;
@@ -350,8 +369,15 @@ export function analyse(inputs: readonly AssayInput[], options: AnalysisOptions 
     );
   }
   const usable = assays.filter((a) => a.bound === null);
+  const correctedBy = options.correctMarker ? controls : undefined;
   const groups = [...by(usable, (a) => a.group)].map(([group, list]) =>
-    groupResult(group, list, leftOut, options.detectDifference),
+    groupResult(
+      group,
+      list,
+      leftOut,
+      options.detectDifference,
+      group === controlGroup ? undefined : correctedBy,
+    ),
   );
   const tested = usable.filter((a) => a.group !== controlGroup);
 
