@@ -344,7 +344,7 @@ export function analysisText(a: Analysis, options: TextOptions): string {
       '',
       `Marker effect (group ${m.group}, n = ${m.n}): mean W ${f(m.W.mean)} ${ci(m.W.ci)}, W = 1: ${testText(m.W_vs_1)}; mean r ${f(m.r.mean)}, r = 0: ${testText(m.r_vs_0)}`,
       m.applied
-        ? '  The other assays are corrected by it (W divided by its mean W, r minus its mean r).'
+        ? "  The other assays are corrected by it (W divided by its mean W, r minus its mean r); group intervals and tests carry the controls' uncertainty (delta method for W, Welch for r)."
         : '  Not applied to the other assays (use --correct-marker).',
     );
   }
