@@ -108,17 +108,36 @@ function studentizedRangeCdf(q: number, k: number, df: number): number {
   return Math.min(1, total);
 }
 
-/** The q with P(Q ≤ q) = p (bisection on the CDF to 1e-12 of q). */
+/** The q with P(Q ≤ q) = p (Illinois-modified regula falsi on the CDF, to 1e-12 of q). */
 export function studentizedRangeQuantile(p: number, k: number, df: number): number {
   if (!(p > 0 && p < 1)) throw new RangeError(`probability must lie in (0, 1), got ${p}`);
   studentizedRangeUpperP(1, k, df);
   let lo = 0;
+  let flo = -p;
   let hi = 1;
-  while (studentizedRangeCdf(hi, k, df) < p) hi *= 2;
-  while (hi - lo > 1e-12 * hi) {
-    const mid = 0.5 * (lo + hi);
-    if (studentizedRangeCdf(mid, k, df) < p) lo = mid;
-    else hi = mid;
+  let fhi = studentizedRangeCdf(hi, k, df) - p;
+  while (fhi < 0) {
+    lo = hi;
+    flo = fhi;
+    hi *= 2;
+    fhi = studentizedRangeCdf(hi, k, df) - p;
   }
-  return 0.5 * (lo + hi);
+  let side = 0;
+  for (let i = 0; i < 200 && hi - lo > 1e-12 * hi; i++) {
+    const q = (lo * fhi - hi * flo) / (fhi - flo);
+    const fq = studentizedRangeCdf(q, k, df) - p;
+    if (fq === 0) return q;
+    if (fq < 0) {
+      lo = q;
+      flo = fq;
+      if (side === -1) fhi /= 2;
+      side = -1;
+    } else {
+      hi = q;
+      fhi = fq;
+      if (side === 1) flo /= 2;
+      side = 1;
+    }
+  }
+  return (lo * fhi - hi * flo) / (fhi - flo);
 }
