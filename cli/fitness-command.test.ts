@@ -146,6 +146,39 @@ describe('rivalplate fitness', () => {
     expect(models).toHaveLength(1 + 6 * 4);
   });
 
+  it('compares lines with the blocks taken into account when the CSV has a block column', async () => {
+    const rows: string[] = [];
+    let n = 0;
+    for (const block of ['day1', 'day2']) {
+      for (const [line, base] of [
+        ['L1', 120],
+        ['L2', 150],
+        ['L3', 180],
+      ] as const) {
+        for (const rep of [0, 1]) {
+          n += 1;
+          const end = base + (block === 'day2' ? 15 : 0) + rep * 7 + n;
+          rows.push(`A${n},${line}-500,${line},500,${rep},start,100,100,50,50,,${block}`);
+          rows.push(`A${n},${line}-500,${line},500,${rep},end,10000,100,${end},50,1,${block}`);
+        }
+      }
+    }
+    writeFileSync(join(dir, 'blocks.csv'), [`${HEADER},block`, ...rows].join('\n'));
+    const io = capture(dir);
+    expect(await run(['--draws', '0', '--json', 'blocks.csv'], io)).toBe(0);
+    const [g] = JSON.parse(io.stdout()).comparisons.by_generation;
+    expect(g.blocked.blocks).toEqual(['day1', 'day2']);
+    expect(g.blocked.anova.line.df).toBe(2);
+    expect(g.blocked.mixed_model.fixed_effects.map((f: { term: string }) => f.term)).toEqual([
+      'L1',
+      'L2 − L1',
+      'L3 − L1',
+    ]);
+    const text = capture(dir);
+    expect(await run(['--draws', '0', 'blocks.csv'], text)).toBe(0);
+    expect(text.stdout()).toContain('Generation 500 in blocks (day1, day2)');
+  });
+
   it('answers --help through the dispatcher and lists the command', async () => {
     const io = capture();
     expect(await main(['fitness', '--help'], io)).toBe(0);
