@@ -62,7 +62,12 @@ const adjustedCells = (x: Adjusted) =>
     : ['no test (one assay or no spread)', '', '', '', ''];
 
 function blockedText(generation: number, b: BlockedComparison): string[] {
-  const out = ['', `Generation ${generation} in blocks (${b.blocks.join(', ')})`];
+  const out = [
+    '',
+    `Generation ${generation} in blocks (${b.blocks.join(', ')})`,
+    '  Read the aov when every line ran in every block and these blocks are the ones of interest;',
+    '  the mixed model when blocks stand for days in general or some lines miss some blocks.',
+  ];
   if ('reason' in b.anova) out.push(`  aov(W ~ block + line): not computable: ${b.anova.reason}`);
   else {
     const a = b.anova;
