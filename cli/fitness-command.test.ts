@@ -1,9 +1,10 @@
 import { execFile } from 'node:child_process';
-import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { promisify } from 'node:util';
 import { afterAll, describe, expect, it } from 'vitest';
+import { parseCsv } from '../fitness/csv.ts';
 import { capturedIo } from './captured-io.ts';
 import { run } from './fitness-command.ts';
 import { main } from './main.ts';
@@ -120,6 +121,64 @@ describe('rivalplate fitness', () => {
     expect(flags.some((f: { code: string }) => f.code === 'plates-dropped')).toBe(true);
   });
 
+  it('writes tidy CSV tables with --csv-dir: one per table, every row as wide as its header', async () => {
+    const io = capture();
+    const out = join(dir, 'tables');
+    expect(await run(['--draws', '200', '--csv-dir', out, EXAMPLE], io)).toBe(0);
+    expect(readdirSync(out).sort()).toEqual([
+      'assays.csv',
+      'comparisons.csv',
+      'curve_points.csv',
+      'groups.csv',
+      'model_parameters.csv',
+      'models.csv',
+    ]);
+    for (const name of readdirSync(out)) {
+      const text = readFileSync(join(out, name), 'utf8');
+      expect(text).not.toMatch(/NaN|Infinity|undefined/);
+      const [header, ...rows] = parseCsv(text);
+      expect(rows.length).toBeGreaterThan(0);
+      for (const r of rows) expect(r.fields).toHaveLength(header!.fields.length);
+    }
+    const models = parseCsv(readFileSync(join(out, 'models.csv'), 'utf8'));
+    expect(models[0]!.fields.slice(0, 4)).toEqual(['line', 'model', 'fitted', 'reason']);
+    // Six lines, four models each (null, hyperbolic, power law, step).
+    expect(models).toHaveLength(1 + 6 * 4);
+  });
+
+  it('compares lines with the blocks taken into account when the CSV has a block column', async () => {
+    const rows: string[] = [];
+    let n = 0;
+    for (const block of ['day1', 'day2']) {
+      for (const [line, base] of [
+        ['L1', 120],
+        ['L2', 150],
+        ['L3', 180],
+      ] as const) {
+        for (const rep of [0, 1]) {
+          n += 1;
+          const end = base + (block === 'day2' ? 15 : 0) + rep * 7 + n;
+          rows.push(`A${n},${line}-500,${line},500,${rep},start,100,100,50,50,,${block}`);
+          rows.push(`A${n},${line}-500,${line},500,${rep},end,10000,100,${end},50,1,${block}`);
+        }
+      }
+    }
+    writeFileSync(join(dir, 'blocks.csv'), [`${HEADER},block`, ...rows].join('\n'));
+    const io = capture(dir);
+    expect(await run(['--draws', '0', '--json', 'blocks.csv'], io)).toBe(0);
+    const [g] = JSON.parse(io.stdout()).comparisons.by_generation;
+    expect(g.blocked.blocks).toEqual(['day1', 'day2']);
+    expect(g.blocked.anova.line.df).toBe(2);
+    expect(g.blocked.mixed_model.fixed_effects.map((f: { term: string }) => f.term)).toEqual([
+      'L1',
+      'L2 − L1',
+      'L3 − L1',
+    ]);
+    const text = capture(dir);
+    expect(await run(['--draws', '0', 'blocks.csv'], text)).toBe(0);
+    expect(text.stdout()).toContain('Generation 500 in blocks (day1, day2)');
+  });
+
   it('answers --help through the dispatcher and lists the command', async () => {
     const io = capture();
     expect(await main(['fitness', '--help'], io)).toBe(0);
@@ -153,11 +212,18 @@ describe('rivalplate fitness', () => {
       ].join('\n'),
     );
     const z = capture(dir);
-    expect(await run(['--json', 'zero.csv'], z)).toBe(1);
-    expect(z.stderr()).toContain('assay A1, end sample: no test colony on row 3');
+    expect(await run(['--json', 'zero.csv'], z)).toBe(0);
     const doc = JSON.parse(z.stdout());
-    expect(doc.assays.map((x: { assay: string }) => x.assay)).toEqual(['A2']);
-    expect(doc.errors[0].assay).toBe('A1');
+    expect(
+      doc.assays.map((x: { assay: string; bound: string | null }) => [x.assay, x.bound]),
+    ).toEqual([
+      ['A1', 'at-most'],
+      ['A2', null],
+    ]);
+    expect(doc.groups[0]).toMatchObject({ group: 'g', n: 1, bounded: 1, dropped: 0 });
+    expect(doc.left_out).toEqual([
+      expect.objectContaining({ assay: 'A1', group: 'g', reason: 'bounded' }),
+    ]);
 
     const u = capture();
     expect(await run(['--range', 'big', EXAMPLE], u)).toBe(2);
@@ -167,6 +233,27 @@ describe('rivalplate fitness', () => {
     const missing = capture();
     expect(await run(['nope.csv'], missing)).toBe(1);
     expect(missing.stderr()).toContain('cannot read nope.csv');
+  });
+
+  it('answers odd files with messages naming row and field, never a stack trace', async () => {
+    const rows = [
+      'A1,g,L1,0,1,start,100,100,50,50,',
+      `A1,g,L1,0,1,end,10^2,100,${'7'.repeat(306)},40,1`,
+      ',,,,,,,,,,',
+    ];
+    writeFileSync(join(dir, 'huge.csv'), [HEADER, ...rows].join('\n'));
+    const io = capture(dir);
+    expect(await run(['huge.csv'], io)).toBe(1);
+    expect(io.stderr()).toContain(
+      'row 3 (assay A1): test_colonies must be a whole number from 0 to 10000000 (colonies on one plate), got "777777777777…" (306 characters)',
+    );
+    expect(io.stderr()).not.toMatch(/at .*\.ts:\d+/);
+
+    const fine = [HEADER, rows[0], 'A1,g,L1,0,1,end,10^4,100,70,40,1', ',,,,,,,,,,'];
+    writeFileSync(join(dir, 'semi.csv'), fine.join('\n').replace(/,/g, ';'));
+    const semi = capture(dir);
+    expect(await run(['--draws', '0', 'semi.csv'], semi)).toBe(0);
+    expect(semi.stdout()).toContain('Read as semicolon-separated (the header has no comma).');
   });
 
   it('runs as `rivalplate fitness` through bin/rivalplate.js', async () => {

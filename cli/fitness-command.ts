@@ -2,8 +2,8 @@
  * `rivalplate fitness [options] FILE.csv`: relative fitness from a CSV of plate counts.
  * Exit codes: 0 done; 1 the data had problems (listed, each naming its row or assay); 2 usage.
  */
-import { readFile } from 'node:fs/promises';
-import { resolve } from 'node:path';
+import { mkdir, readFile, writeFile } from 'node:fs/promises';
+import { join, resolve } from 'node:path';
 import { parseArgs } from 'node:util';
 import {
   type AnalysisOptions,
@@ -12,8 +12,10 @@ import {
 } from '../fitness/analysis.ts';
 import { DEFAULT_BOOTSTRAP_DRAWS } from '../fitness/competition.ts';
 import { readCompetitionCsv } from '../fitness/competition-csv.ts';
+import { SEPARATOR_NAMES } from '../fitness/csv.ts';
 import { FitnessError } from '../fitness/errors.ts';
 import { analysisJson, assertAllFinite } from '../fitness/report.ts';
+import { tidyCsv, tidyTables } from '../fitness/tidy-tables.ts';
 import { analysisText, type TextOptions } from './fitness-format.ts';
 import type { CommandIo } from './io.ts';
 import { parseRange, UsageError, wholeNumber } from './options.ts';
@@ -27,13 +29,16 @@ Relative fitness from competition plates: one CSV row per counted plate, with th
 
 Options:
   --json                   print one JSON document instead of tables
+  --csv-dir DIR            also write the results as tidy CSV tables into DIR (assays, groups,
+                           comparisons, models, model_parameters, curve_points; NA = missing)
   --range NAME|MIN-MAX     countable range per plate: bam (25–250, default), sm9215 (30–300),
                            iso7218 (10–300), or two numbers such as 30-300
   --exclude-out-of-range   drop out-of-range plates where the sample has an in-range plate
   --control-group NAME     group of marker-control assays (default "${DEFAULT_MARKER_CONTROL_GROUP}")
   --correct-marker         correct the other assays by the marker effect (off by default)
-  --compare A,B[,C...]     groups to compare (2: Welch t-test; more: one-way ANOVA);
-                           default all groups except the marker controls
+  --compare A,B[,C...]     also test across these groups (2: Welch t-test; more: one-way
+                           ANOVA); lines are always compared within each generation, against
+                           W = 1, and between generations
   --round bam|iso7218      round densities in the tables to two significant figures
   --draws N                bootstrap draws for the counting-noise interval of W (default ${DEFAULT_BOOTSTRAP_DRAWS})
   --seed N                 mixed into each assay's bootstrap seed (default 0)
@@ -51,6 +56,7 @@ function parse(args: string[]) {
     allowPositionals: true,
     options: {
       json: { type: 'boolean' },
+      'csv-dir': { type: 'string' },
       range: { type: 'string' },
       'exclude-out-of-range': { type: 'boolean' },
       'control-group': { type: 'string' },
@@ -94,6 +100,7 @@ function parse(args: string[]) {
     help: false as const,
     file: positionals[0]!,
     json: Boolean(values.json),
+    csvDir: values['csv-dir'],
     rounding,
     options,
   };
@@ -122,6 +129,20 @@ export async function run(args: string[], io: CommandIo): Promise<number> {
   try {
     const table = readCompetitionCsv(text);
     const analysis = analyse(table.assays, parsed.options);
+    if (parsed.csvDir !== undefined) {
+      const dir = resolve(io.cwd, parsed.csvDir);
+      try {
+        await mkdir(dir, { recursive: true });
+        for (const t of tidyTables(analysis)) {
+          await writeFile(join(dir, `${t.name}.csv`), tidyCsv(t));
+        }
+      } catch (e) {
+        io.err(
+          `rivalplate fitness: cannot write the tables into ${parsed.csvDir}: ${(e as Error).message}`,
+        );
+        return 1;
+      }
+    }
     if (parsed.json) {
       const doc = analysisJson(analysis);
       assertAllFinite(doc);
@@ -129,7 +150,11 @@ export async function run(args: string[], io: CommandIo): Promise<number> {
     } else {
       io.out(analysisText(analysis, { rounding: parsed.rounding }));
       if (table.ignoredColumns.length > 0)
-        io.out(`Columns not used: ${table.ignoredColumns.join(', ')}`);
+        io.out(`Columns not used: ${table.ignoredColumns.join(', ')}\n`);
+      if (table.separator !== ',')
+        io.out(
+          `Read as ${SEPARATOR_NAMES[table.separator]}-separated (the header has no comma).\n`,
+        );
     }
     for (const e of analysis.errors) io.err(`rivalplate fitness: ${e.message}`);
     return analysis.errors.length > 0 ? 1 : 0;

@@ -1,9 +1,12 @@
 /** Readable tables for `rivalplate fitness` (the --json output is fitness/report.ts). */
 import type { Analysis, Comparison } from '../fitness/analysis.ts';
+import type { BlockedComparison } from '../fitness/blocks.ts';
+import type { Adjusted, LabComparisons } from '../fitness/lab-comparisons.ts';
+import type { FTest, SharedCurveTest } from '../fitness/nested-models.ts';
 import type { ReplicatesPlan } from '../fitness/planning.ts';
 import type { Anova, TTest } from '../fitness/replicate-stats.ts';
 import { formatForReport, type RoundingRule } from '../fitness/rounding.ts';
-import type { CurveFit, ModelFailure, StepFit } from '../fitness/trajectories.ts';
+import type { CurveFit, ModelFailure, NullFit, StepFit } from '../fitness/trajectories.ts';
 
 export interface TextOptions {
   /** Publication rounding of densities; 'none' prints three significant digits. */
@@ -53,22 +56,184 @@ function comparisonText(c: Comparison): string {
   return [`${name} across ${groups}`, `  W: ${testText(c.W)}`, `  r: ${testText(c.r)}`].join('\n');
 }
 
-function modelRow(m: CurveFit | StepFit | ModelFailure, label: string): string[] {
-  if ('reason' in m) return [label, `not fitted: ${m.reason}`, '', '', '', ''];
+const adjustedCells = (x: Adjusted) =>
+  x.test
+    ? [x.test.t.toFixed(3), dfText(x.test.df), p(x.test.p), p(x.pHolm), p(x.pBH)]
+    : ['no test (one assay or no spread)', '', '', '', ''];
+
+function blockedText(generation: number, b: BlockedComparison): string[] {
+  const out = [
+    '',
+    `Generation ${generation} in blocks (${b.blocks.join(', ')})`,
+    '  Read the aov when every line ran in every block and these blocks are the ones of interest;',
+    '  the mixed model when blocks stand for days in general or some lines miss some blocks.',
+  ];
+  if ('reason' in b.anova) out.push(`  aov(W ~ block + line): not computable: ${b.anova.reason}`);
+  else {
+    const a = b.anova;
+    out.push(
+      table(
+        ['  aov(W ~ block + line)', 'df', 'SS', 'MS', 'F', 'p'],
+        [
+          [
+            '  block',
+            String(a.block.df),
+            f(a.block.ss, 6),
+            f(a.block.ms, 6),
+            f(a.block.f, 3),
+            p(a.block.p),
+          ],
+          [
+            '  line',
+            String(a.line.df),
+            f(a.line.ss, 6),
+            f(a.line.ms, 6),
+            f(a.line.f, 3),
+            p(a.line.p),
+          ],
+          ['  residual', String(a.residual.df), f(a.residual.ss, 6), f(a.residual.ms, 6), '', ''],
+        ],
+      ),
+    );
+  }
+  if ('reason' in b.mixed) out.push(`  mixed model (REML): not fitted: ${b.mixed.reason}`);
+  else {
+    const m = b.mixed;
+    out.push(
+      `  mixed model W ~ line + (1 | block), REML: SD between blocks ${m.sdBlock.toFixed(4)}, within ${m.sdResidual.toFixed(4)}`,
+    );
+    out.push(
+      table(
+        ['  effect', 'estimate', 'SE', 'df', 't', 'p'],
+        m.fixed.map((x) => [
+          `  ${x.name}`,
+          f(x.estimate),
+          f(x.se),
+          String(x.df),
+          x.t.toFixed(3),
+          p(x.p),
+        ]),
+      ),
+    );
+  }
+  return out;
+}
+
+function comparisonsText(c: LabComparisons): string[] {
+  const out: string[] = [];
+  if (c.byGeneration.length > 0) {
+    out.push('', 'Lines compared within each generation (W)');
+    out.push(
+      table(
+        ['gen', 'lines (n)', 'ANOVA', 'SS between', 'SS within', "Welch's ANOVA"],
+        c.byGeneration.map((g) => [
+          String(g.generation),
+          g.lines.map((l) => `${l.line} (${l.n})`).join(', '),
+          testText(g.anova),
+          f(g.anova?.ssBetween, 6),
+          f(g.anova?.ssWithin, 6),
+          g.welch
+            ? `F(${g.welch.dfBetween}, ${dfText(g.welch.dfWithin)}) = ${g.welch.f.toFixed(3)}, ${pEq(g.welch.p)}`
+            : 'not computable (a line with one assay or no spread)',
+        ]),
+      ),
+    );
+    const pairs = c.byGeneration.flatMap((g) =>
+      (g.tukey ?? []).map((t) => [
+        String(g.generation),
+        `${t.first} − ${t.second}`,
+        f(t.diff),
+        ci(t.ci),
+        p(t.pAdjusted),
+      ]),
+    );
+    if (pairs.length > 0) {
+      out.push('', "Tukey's HSD, every pair of lines at one generation (95% family-wise)");
+      out.push(table(['gen', 'pair', 'diff W', '95% CI', 'p adj'], pairs));
+    }
+  }
+  for (const g of c.byGeneration) if (g.blocked) out.push(...blockedText(g.generation, g.blocked));
+  if (c.vsAncestor.length > 0) {
+    out.push(
+      '',
+      'Each line against the ancestor (W = 1), one-sample t-tests; Holm and Benjamini–Hochberg over all of them',
+    );
+    out.push(
+      table(
+        ['line', 'gen', 'n', 'mean W', 't', 'df', 'p', 'p Holm', 'p BH'],
+        c.vsAncestor.map((x) => [
+          x.line,
+          String(x.generation),
+          String(x.n),
+          f(x.meanW),
+          ...adjustedCells(x),
+        ]),
+      ),
+    );
+  }
+  if (c.changes.length > 0) {
+    out.push(
+      '',
+      "Each line's change between measured generations, Welch t-tests; Holm and Benjamini–Hochberg over all of them",
+    );
+    out.push(
+      table(
+        ['line', 'from', 'to', 'diff W', 't', 'df', 'p', 'p Holm', 'p BH'],
+        c.changes.map((x) => [
+          x.line,
+          String(x.from),
+          String(x.to),
+          f(x.diff),
+          ...adjustedCells(x),
+        ]),
+      ),
+    );
+  }
+  return out;
+}
+
+const fText = (t: FTest | null) =>
+  t ? `F(${t.df1}, ${t.df2}) = ${t.f.toFixed(3)}, ${pEq(t.p)}` : 'no test';
+
+function sharedText(s: SharedCurveTest | ModelFailure): string {
+  if ('reason' in s) return `  ${s.model}: not tested: ${s.reason}`;
+  return `  ${s.model}: one curve for ${s.lines.join(', ')} against one per line: ${fText(s.test)} (RSS ${s.shared.rss.toPrecision(4)} vs ${s.rssSeparate.toPrecision(4)})`;
+}
+
+function modelRow(m: NullFit | CurveFit | StepFit | ModelFailure, label: string): string[] {
+  if ('reason' in m) return [label, `not fitted: ${m.reason}`, '', '', '', '', ''];
   let params: string;
-  if (m.model === 'step') {
+  if (m.model === 'null') {
+    params = 'none';
+  } else if (m.model === 'step') {
     const heights = m.segments.map((s) => `${s.from}–${s.to}: ${s.w.toFixed(3)}`).join('; ');
     params = `${m.changePoints} change point(s); ${heights}`;
   } else {
     params = m.parameters
       .map(
         (q) =>
-          `${q.name} = ${q.estimate.toPrecision(4)} ± ${q.se.toPrecision(2)}${q.poorlyDetermined ? ' (poorly determined)' : ''}`,
+          `${q.name} = ${q.estimate.toPrecision(4)} ± ${q.se.toPrecision(2)} (95% ${q.ci[0].toPrecision(3)} to ${q.ci[1].toPrecision(3)})${q.poorlyDetermined ? ' poorly determined' : ''}`,
       )
       .join(', ');
     if (!m.converged) params += ' (not converged)';
   }
-  return [label, params, m.residualSe.toFixed(4), f(m.aic, 2), f(m.bic, 2), String(m.k)];
+  return [
+    label,
+    params,
+    m.residualSe.toFixed(4),
+    f(m.aic, 2),
+    m.aicc === null ? 'n too small' : f(m.aicc, 2),
+    f(m.bic, 2),
+    String(m.k),
+  ];
+}
+
+function leftOutText(bounded: number, dropped: number): string {
+  const parts = [
+    ...(bounded > 0 ? [`${bounded} bounded`] : []),
+    ...(dropped > 0 ? [`${dropped} not computable`] : []),
+  ];
+  return parts.length > 0 ? parts.join(', ') : 'none';
 }
 
 function planRow(label: string, p: ReplicatesPlan | null): string[] {
@@ -100,7 +265,7 @@ export function analysisText(a: Analysis, options: TextOptions): string {
         x.assay,
         x.group,
         String(x.generation),
-        f(x.W),
+        x.bound ? `${x.bound === 'at-most' ? '≤' : '≥'} ${f(x.W)}` : f(x.W),
         ci(x.W_ci),
         f(x.r),
         f(x.rPerDay),
@@ -119,16 +284,37 @@ export function analysisText(a: Analysis, options: TextOptions): string {
     out.push('', 'Assays that could not be computed:');
     for (const e of a.errors) out.push(`  ${e.message}`);
   }
+  const bounded = a.leftOut.filter((l) => l.reason === 'bounded');
+  if (bounded.length > 0) {
+    out.push(
+      '',
+      'Assays whose W is only a bound (a strain had no colony), left out of means and tests:',
+    );
+    for (const l of bounded) out.push(`  assay ${l.assay} (${l.group}): ${l.message}`);
+  }
   out.push(
     '',
     'Groups (mean of replicate assays, 95% CI from Student t, two-sided one-sample t-tests)',
   );
   out.push(
     table(
-      ['group', 'n', 'mean W', 'SD', 'SE', '95% CI', 'p (W=1)', 'mean r', 'SD r', 'p (r=0)'],
+      [
+        'group',
+        'n',
+        'left out',
+        'mean W',
+        'SD',
+        'SE',
+        '95% CI',
+        'p (W=1)',
+        'mean r',
+        'SD r',
+        'p (r=0)',
+      ],
       a.groups.map((g) => [
         g.group,
         String(g.W.n),
+        leftOutText(g.bounded, g.dropped),
         f(g.W.mean),
         f(g.W.sd),
         f(g.W.se),
@@ -163,7 +349,7 @@ export function analysisText(a: Analysis, options: TextOptions): string {
       '',
       `Marker effect (group ${m.group}, n = ${m.n}): mean W ${f(m.W.mean)} ${ci(m.W.ci)}, W = 1: ${testText(m.W_vs_1)}; mean r ${f(m.r.mean)}, r = 0: ${testText(m.r_vs_0)}`,
       m.applied
-        ? '  The other assays are corrected by it (W divided by its mean W, r minus its mean r).'
+        ? "  The other assays are corrected by it (W divided by its mean W, r minus its mean r); group intervals and tests carry the controls' uncertainty (delta method for W, Welch for r)."
         : '  Not applied to the other assays (use --correct-marker).',
     );
   }
@@ -182,13 +368,15 @@ export function analysisText(a: Analysis, options: TextOptions): string {
       ),
     );
   }
+  out.push(...comparisonsText(a.comparisons));
   if (a.comparison) out.push('', comparisonText(a.comparison));
   for (const t of a.trajectories) {
     out.push('', `Trajectory of ${t.line} (${t.points.length} assays; w against generations)`);
     out.push(
       table(
-        ['model', 'parameters ± SE', 'resid SE', 'AIC', 'BIC', 'k'],
+        ['model', 'parameters ± SE (Wald 95% interval)', 'resid SE', 'AIC', 'AICc', 'BIC', 'k'],
         [
+          modelRow(t.null, 'null        w = 1'),
           modelRow(t.hyperbolic, 'hyperbolic  w = 1 + a·t/(t + b)'),
           modelRow(t.powerLaw, 'power law   w = (b·t + 1)^a'),
           modelRow(t.step, 'step        piecewise constant'),
@@ -202,6 +390,13 @@ export function analysisText(a: Analysis, options: TextOptions): string {
         `  lowest AIC: ${best.model}${next ? ` (next: ${next.model}, ΔAIC ${next.deltaAic.toFixed(2)})` : ''}`,
       );
     }
+    out.push(
+      `  against w = 1 (extra sum of squares): hyperbolic ${fText(t.vsNull.hyperbolic)}; power law ${fText(t.vsNull.powerLaw)}`,
+    );
+  }
+  if (a.sharedCurves.length > 0) {
+    out.push('', 'Do the lines share one curve? (extra-sum-of-squares F test)');
+    for (const sc of a.sharedCurves) out.push(sharedText(sc));
   }
   return `${out.join('\n')}\n`;
 }

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { analyse } from './analysis.ts';
 import { type AssayInput, computeAssay } from './competition.ts';
+import { correctedMean } from './marker-correction.ts';
 import { hashSeed, poissonDraw, seededUniform } from './poisson.ts';
 import { oneSampleTTest, welchTTest } from './replicate-stats.ts';
 import { analysisJson, assertAllFinite } from './report.ts';
@@ -65,8 +66,15 @@ describe('analyse', () => {
     expect(a.markerEffect).toMatchObject({ group: 'marker-control', n: 4, applied: false });
     expect(a.markerEffect!.W.mean).toBeLessThan(1);
     expect(a.assays.every((x) => x.uncorrected === undefined)).toBe(true);
-    // Three non-control groups: one-way ANOVA.
-    expect(a.comparison).toMatchObject({ test: 'anova', groups: ['L1-0', 'L1-1000', 'L1-2000'] });
+    // No test across chosen groups unless asked; the lab's comparisons of one line: its three
+    // generations against W = 1 and its two changes (no second line to compare it with).
+    expect(a.comparison).toBeNull();
+    expect(a.comparisons.byGeneration).toEqual([]);
+    expect(a.comparisons.vsAncestor.map((x) => x.generation)).toEqual([0, 1000, 2000]);
+    expect(a.comparisons.changes.map((x) => [x.from, x.to])).toEqual([
+      [0, 1000],
+      [1000, 2000],
+    ]);
     expect(a.trajectories).toHaveLength(1);
     expect(a.trajectories[0]!.points).toHaveLength(9);
     expect(a.trajectories[0]!.ranking.length).toBeGreaterThan(0);
@@ -89,6 +97,16 @@ describe('analyse', () => {
       expect(x.flags.map((f) => f.code)).toContain('marker-corrected');
     }
     expect(fixed.markerEffect!.applied).toBe(true);
+    // Group statistics carry the controls' uncertainty (marker-correction.ts, checked against R).
+    const raw = (g: string, f: 'W' | 'r') =>
+      plain.assays.filter((x) => x.group === g).map((x) => x[f]);
+    const g = fixed.groups.find((x) => x.group === 'L1-1000')!;
+    const expected = correctedMean(raw('L1-1000', 'W'), raw('marker-control', 'W'), 'ratio');
+    expect(g.W).toEqual(expected.summary);
+    expect(g.W_vs_1).toEqual(expected.test);
+    expect(g.r_vs_0).toEqual(
+      correctedMean(raw('L1-1000', 'r'), raw('marker-control', 'r'), 'difference').test,
+    );
     expect(() => analyse(evolved, { correctMarker: true })).toThrow(
       /no assay of group "marker-control"/,
     );

@@ -9,6 +9,14 @@ import {
   computeAssay,
 } from './competition.ts';
 import { FitnessError } from './errors.ts';
+import { type LabComparisons, labComparisons } from './lab-comparisons.ts';
+import { correctedMean } from './marker-correction.ts';
+import {
+  extraSumOfSquares,
+  type FTest,
+  type SharedCurveTest,
+  sharedCurveTest,
+} from './nested-models.ts';
 import { type ObservedSpread, type ReplicatesPlan, replicatesFromSpread } from './planning.ts';
 import {
   type Anova,
@@ -21,12 +29,18 @@ import {
 } from './replicate-stats.ts';
 import {
   type CurveFit,
+  curveBand,
   fitHyperbolic,
+  fitNull,
   fitPowerLaw,
   fitStep,
   type ModelFailure,
+  type NullFit,
   type StepFit,
 } from './trajectories.ts';
+
+/** Generations at which each fitted curve and its band are given: this many steps from 0. */
+export const BAND_STEPS = 40;
 
 export const DEFAULT_MARKER_CONTROL_GROUP = 'marker-control';
 
@@ -38,7 +52,10 @@ export interface AnalysisOptions extends AssayOptions {
    * (off by default). Needs at least one marker-control assay.
    */
   correctMarker?: boolean;
-  /** Groups to compare; default all groups except the marker controls. */
+  /**
+   * Groups to compare with one test across them (two: Welch's t-test; more: one-way ANOVA). The
+   * lab's comparisons of lines (`comparisons`) are made in every run.
+   */
   compare?: string[];
   maxChangePoints?: number;
   /**
@@ -50,6 +67,9 @@ export interface AnalysisOptions extends AssayOptions {
 
 export interface GroupResult {
   group: string;
+  /** Assays of the group left out of these statistics: W only bounded, or not computable. */
+  bounded: number;
+  dropped: number;
   W: Summary;
   W_vs_1: TTest | null;
   r: Summary;
@@ -86,14 +106,34 @@ export interface Comparison {
   r: TTest | Anova | null;
 }
 
+export interface BandPoint {
+  generation: number;
+  w: number;
+  low: number;
+  high: number;
+}
+
 export interface LineTrajectory {
   line: string;
   points: { generation: number; w: number; assay: string }[];
+  /** w = 1: no change from the ancestor. */
+  null: NullFit | ModelFailure;
   hyperbolic: CurveFit | ModelFailure;
   powerLaw: CurveFit | ModelFailure;
   step: StepFit | ModelFailure;
+  /** Extra-sum-of-squares F test of the null model against each curve; null when not fitted. */
+  vsNull: { hyperbolic: FTest | null; powerLaw: FTest | null };
+  /** Each fitted curve with its 95 % band, from generation 0 to the last measured. */
+  bands: { hyperbolic: BandPoint[] | null; powerLaw: BandPoint[] | null };
   /** Fitted models ranked by AIC, with differences from the best. */
-  ranking: { model: string; aic: number; bic: number; deltaAic: number; deltaBic: number }[];
+  ranking: {
+    model: string;
+    aic: number;
+    aicc: number | null;
+    bic: number;
+    deltaAic: number;
+    deltaBic: number;
+  }[];
 }
 
 export interface Uncorrected {
@@ -107,14 +147,31 @@ export interface AnalysedAssay extends AssayResult {
   uncorrected?: Uncorrected;
 }
 
+export interface LeftOut {
+  assay: string;
+  group: string;
+  reason: 'bounded' | 'not computable';
+  message: string;
+}
+
 export interface Analysis {
   assays: AnalysedAssay[];
-  errors: { assay: string; message: string }[];
+  errors: { assay: string; group: string; message: string }[];
+  /**
+   * Assays left out of every mean, test and fit, with the reason: a strain had no colony (W is
+   * only a bound) or the assay could not be computed. Each group counts its own.
+   */
+  leftOut: LeftOut[];
   groups: GroupResult[];
   markerEffect: MarkerEffect | null;
   reciprocal: ReciprocalResult[];
+  /** The test across the groups named in options.compare; null without it. */
   comparison: Comparison | null;
+  /** Lines within each generation, each line against W = 1, each line's changes. */
+  comparisons: LabComparisons;
   trajectories: LineTrajectory[];
+  /** Whether the lines share one curve, per curve model; empty with fewer than two lines. */
+  sharedCurves: (SharedCurveTest | ModelFailure)[];
   /**
    * With detectDifference: replicates needed judged from the SD pooled within all groups but
    * the marker controls (steadier than any one small group's SD); null without two replicates.
@@ -159,15 +216,41 @@ function pooledSd(groups: readonly GroupResult[]): number | null {
   return df > 0 ? Math.sqrt(ss / df) : null;
 }
 
-function groupResult(group: string, assays: readonly AssayResult[], detect?: number): GroupResult {
-  const W = assays.map((a) => a.W);
-  const r = assays.map((a) => a.r);
+/**
+ * One group's statistics. With `controls` (the marker correction was applied), the means are
+ * the corrected ones and their intervals and tests carry the controls' uncertainty
+ * (marker-correction.ts).
+ */
+function groupResult(
+  group: string,
+  assays: readonly AnalysedAssay[],
+  leftOut: readonly LeftOut[],
+  detect?: number,
+  controls?: readonly AssayResult[],
+): GroupResult {
+  const mine = leftOut.filter((l) => l.group === group);
+  const stats = (field: 'W' | 'r', mu0: number) => {
+    if (controls) {
+      const c = correctedMean(
+        assays.map((a) => (a.uncorrected ?? a)[field]),
+        controls.map((a) => a[field]),
+        field === 'W' ? 'ratio' : 'difference',
+      );
+      return { summary: c.summary, test: c.test };
+    }
+    const values = assays.map((a) => a[field]);
+    return { summary: summarise(values), test: oneSampleTTest(values, mu0) };
+  };
+  const W = stats('W', 1);
+  const r = stats('r', 0);
   const result: GroupResult = {
     group,
-    W: summarise(W),
-    W_vs_1: oneSampleTTest(W, 1),
-    r: summarise(r),
-    r_vs_0: oneSampleTTest(r, 0),
+    bounded: mine.filter((l) => l.reason === 'bounded').length,
+    dropped: mine.filter((l) => l.reason === 'not computable').length,
+    W: W.summary,
+    W_vs_1: W.test,
+    r: r.summary,
+    r_vs_0: r.test,
   };
   if (detect !== undefined) {
     const sd = result.W.sd;
@@ -206,22 +289,44 @@ function trajectory(
   maxChangePoints: number,
 ): LineTrajectory {
   const points = assays.map((a) => ({ generation: a.generation, w: a.W, assay: a.assay }));
+  const nullFit = fitNull(points);
   const hyperbolic = fitHyperbolic(points);
   const powerLaw = fitPowerLaw(points);
   const step = fitStep(points, maxChangePoints);
-  const fitted = [hyperbolic, powerLaw, step].filter((m): m is CurveFit | StepFit => 'aic' in m);
+  const fitted = [nullFit, hyperbolic, powerLaw, step].filter(
+    (m): m is NullFit | CurveFit | StepFit => 'aic' in m,
+  );
+  const last = Math.max(...points.map((p) => p.generation));
+  const grid = Array.from({ length: BAND_STEPS + 1 }, (_, i) => (last * i) / BAND_STEPS);
+  const vs = (curve: CurveFit | ModelFailure) =>
+    'reason' in curve || 'reason' in nullFit
+      ? null
+      : extraSumOfSquares({ rss: nullFit.rss, parameters: 0 }, { ...curve, parameters: 2 });
+  const band = (curve: CurveFit | ModelFailure) =>
+    'reason' in curve ? null : curveBand(curve, grid);
   const bestAic = Math.min(...fitted.map((m) => m.aic));
   const bestBic = Math.min(...fitted.map((m) => m.bic));
   const ranking = fitted
     .map((m) => ({
       model: m.model,
       aic: m.aic,
+      aicc: m.aicc,
       bic: m.bic,
       deltaAic: m.aic - bestAic,
       deltaBic: m.bic - bestBic,
     }))
     .sort((a, b) => a.aic - b.aic);
-  return { line, points, hyperbolic, powerLaw, step, ranking };
+  return {
+    line,
+    points,
+    null: nullFit,
+    hyperbolic,
+    powerLaw,
+    step,
+    vsNull: { hyperbolic: vs(hyperbolic), powerLaw: vs(powerLaw) },
+    bands: { hyperbolic: band(hyperbolic), powerLaw: band(powerLaw) },
+    ranking,
+  };
 }
 
 export function analyse(inputs: readonly AssayInput[], options: AnalysisOptions = {}): Analysis {
@@ -233,14 +338,25 @@ export function analyse(inputs: readonly AssayInput[], options: AnalysisOptions 
       raw.push(computeAssay(input, options));
     } catch (e) {
       if (!(e instanceof FitnessError)) throw e;
-      errors.push({ assay: input.assay, message: e.message });
+      errors.push({ assay: input.assay, group: input.group, message: e.message });
     }
   }
-  const controls = raw.filter((a) => a.group === controlGroup);
+  const leftOut: LeftOut[] = [
+    ...raw
+      .filter((a) => a.bound !== null)
+      .map((a) => ({
+        assay: a.assay,
+        group: a.group,
+        reason: 'bounded' as const,
+        message: a.flags.find((f) => f.code === 'bounded')!.message,
+      })),
+    ...errors.map((e) => ({ ...e, reason: 'not computable' as const })),
+  ];
+  const controls = raw.filter((a) => a.group === controlGroup && a.bound === null);
   let markerEffect: MarkerEffect | null = null;
   let assays: AnalysedAssay[] = raw;
   if (controls.length > 0) {
-    const g = groupResult(controlGroup, controls);
+    const g = groupResult(controlGroup, controls, leftOut);
     markerEffect = { ...g, n: controls.length, applied: Boolean(options.correctMarker) };
     if (options.correctMarker) {
       assays = raw.map((a) =>
@@ -252,13 +368,21 @@ export function analyse(inputs: readonly AssayInput[], options: AnalysisOptions 
       `marker correction asked for, but no assay of group "${controlGroup}" could be computed`,
     );
   }
-  const groups = [...by(assays, (a) => a.group)].map(([group, list]) =>
-    groupResult(group, list, options.detectDifference),
+  const usable = assays.filter((a) => a.bound === null);
+  const correctedBy = options.correctMarker ? controls : undefined;
+  const groups = [...by(usable, (a) => a.group)].map(([group, list]) =>
+    groupResult(
+      group,
+      list,
+      leftOut,
+      options.detectDifference,
+      group === controlGroup ? undefined : correctedBy,
+    ),
   );
-  const tested = assays.filter((a) => a.group !== controlGroup);
+  const tested = usable.filter((a) => a.group !== controlGroup);
 
-  const compareNames = options.compare ?? [...new Set(tested.map((a) => a.group))];
-  const byGroup = by(assays, (a) => a.group);
+  const compareNames = options.compare ?? [];
+  const byGroup = by(usable, (a) => a.group);
   for (const name of compareNames) {
     if (!byGroup.has(name))
       throw new FitnessError(`no computed assay in group "${name}" to compare`);
@@ -311,14 +435,21 @@ export function analyse(inputs: readonly AssayInput[], options: AnalysisOptions 
     if (new Set(list.map((a) => a.generation)).size < 2) continue;
     trajectories.push(trajectory(line, list, options.maxChangePoints ?? 3));
   }
+  const sharedCurves =
+    trajectories.length < 2
+      ? []
+      : (['hyperbolic', 'power-law'] as const).map((model) => sharedCurveTest(model, trajectories));
   const result: Analysis = {
     assays,
     errors,
+    leftOut,
     groups,
     markerEffect,
     reciprocal,
     comparison,
+    comparisons: labComparisons(tested),
     trajectories,
+    sharedCurves,
   };
   if (options.detectDifference !== undefined) {
     const sd = pooledSd(groups.filter((g) => g.group !== controlGroup));

@@ -116,8 +116,10 @@ describe('computeAssay', () => {
       computeAssay(assay([plate('row 2', 1e4, 100, 100)], [plate('row 3', 1e4, 150, 90)], 1)),
     ).toThrow(/assay A1: the reference did not grow .*row 2, row 3/);
     expect(() =>
-      computeAssay(assay([plate('row 2', 1e4, 100, 100)], [plate('row 3', 1e6, 0, 90)], 1)),
-    ).toThrow(/assay A1, end sample: no test colony on row 3/);
+      computeAssay(assay([plate('row 2', 1e4, 0, 100)], [plate('row 3', 1e6, 0, 90)], 1)),
+    ).toThrow(
+      /assay A1: no test colony in the start sample \(row 2\) and no test colony in the end sample \(row 3\); with more than one zero count there is neither a fitness nor a bound/,
+    );
     expect(() =>
       computeAssay(assay([plate('row 2', 1e4, 100, 100)], [plate('row 3', 1e6, 10, 90)], 0.5)),
     ).toThrow(/assay A1: fold dilution since start/);
@@ -131,5 +133,64 @@ describe('computeAssay', () => {
     expect(a.flags[0]).toMatchObject({ code: 'out-of-range' });
     expect(a.flags[0]!.message).toMatch(/FDA BAM ch\. 3 \(25–250\).*row 2 \(19, too-few\)/);
     expect(a.flags[0]!.message).not.toMatch(/row 3/);
+  });
+});
+
+describe('reference generations against days and D', () => {
+  // A two-day assay with one 100-fold transfer: each day the reference regrows 100-fold.
+  const start = [plate('row 2', 1e4, 50, 50)];
+  const end = [plate('row 3', 1e6, 70, 50)];
+
+  it('says nothing when log₂(D) per transfer matches the generations per day', () => {
+    const a = computeAssay(assay(start, end, 100, 2));
+    expect(a.generationsRef).toBeCloseTo(2 * Math.log2(100), 12);
+    expect(a.flags).toEqual([]);
+  });
+
+  it('warns when the same assay is entered with D = 1', () => {
+    const a = computeAssay(assay(start, end, 1, 2));
+    expect(a.flags).toEqual([
+      {
+        code: 'generations-implausible',
+        message:
+          'the reference went through 6.64 generations in 2 day(s), but D = 1 over 1 transfer(s) accounts for 0.00 a day: check days and fold_dilution_since_start',
+      },
+    ]);
+  });
+
+  it('warns when the generations per day are outside 1–15', () => {
+    const a = computeAssay(assay(start, [plate('row 3', 1e4, 70, 60)], 1, 1));
+    const warned = a.flags.filter((f) => f.code === 'generations-implausible');
+    expect(warned.map((f) => f.message)).toEqual([
+      'the reference went through 0.26 generations in 1 day(s) (0.26 a day, plausible 1–15): check days, fold_dilution_since_start and the plates',
+    ]);
+  });
+});
+
+describe('a strain with no colony: W as a bound', () => {
+  // The zero count is taken as its exact one-sided 95 % Poisson limit,
+  // R 4.2.2: poisson.test(0, alternative = "less")$conf.int[2] = 2.99573227355399.
+  const U = 2.99573227355399;
+
+  it('an extinct test strain gives W at most ln(U·10⁶/(100·10⁴))/ln(90·10⁶/(100·10⁴)), flagged', () => {
+    const a = computeAssay(assay([plate('row 2', 1e4, 100, 100)], [plate('row 3', 1e6, 0, 90)], 1));
+    const expected = Math.log((U * 1e6) / (100 * 1e4)) / Math.log((90 * 1e6) / (100 * 1e4));
+    expect(Math.abs(a.W - expected) / expected).toBeLessThan(1e-9);
+    expect(a.bound).toBe('at-most');
+    expect(a.W_ci).toBeNull();
+    expect(a.flags.find((f) => f.code === 'bounded')!.message).toBe(
+      `no test colony in the end sample (row 3): W is at most ${expected.toFixed(4)}, counting the zero as its one-sided 95 % Poisson limit (3.00 colonies); left out of means and tests`,
+    );
+  });
+
+  it('a reference missing at the end bounds W from below (m_test > 0)', () => {
+    const a = computeAssay(
+      assay([plate('row 2', 1e4, 100, 100)], [plate('row 3', 1e6, 120, 0)], 1),
+    );
+    expect(a.bound).toBe('at-least');
+    const none = computeAssay(
+      assay([plate('row 2', 1e4, 100, 100)], [plate('row 3', 1e6, 120, 90)], 1),
+    );
+    expect(none.bound).toBeNull();
   });
 });

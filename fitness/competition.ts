@@ -14,10 +14,18 @@
  * Var(r) is the sum of the four; Var(W) ≈ (Var(m_test) + W²·Var(m_ref))/m_ref² (delta method).
  * The interval for W is a parametric bootstrap: the four pooled counts are redrawn as Poisson with their observed means (B = 2000 draws, mulberry32 seeded from the assay name), W is
  * recomputed, and the 2.5 % and 97.5 % percentiles are reported.
+ *
+ * A strain with no colony in one sample (extinct at the end, or missed at the start) gives no W
+ * but a bound: the zero count is replaced by its exact one-sided 95 % Poisson upper limit
+ * (−ln 0.05 ≈ 3.0 colonies, poisson.ts), so the density is at most that, and W is at most (or at
+ * least, depending on which count was zero and the sign of m_test) the value computed. Such an
+ * assay is flagged 'bounded', has no interval, and is left out of means and tests (analysis.ts).
+ * With more than one zero count the bounds pull different ways and the assay is an error.
  */
 import { type DensityOptions, type Plate, type SampleDensity, sampleDensity } from './densities.ts';
 import { FitnessError } from './errors.ts';
-import { hashSeed, poissonDraw, seededUniform } from './poisson.ts';
+import { generationsWarning } from './generation-check.ts';
+import { hashSeed, poissonDraw, seededUniform, ZERO_COUNT_UPPER_95 } from './poisson.ts';
 
 export interface AssayInput {
   assay: string;
@@ -32,6 +40,8 @@ export interface AssayInput {
   foldDilutionSinceStart: number;
   /** Marker the test strain carries, when the CSV says (for reciprocal designs). */
   testMarker?: string;
+  /** The day or batch the assay was run in, when the CSV says. */
+  block?: string;
   start: Plate[];
   end: Plate[];
 }
@@ -40,9 +50,14 @@ export type FlagCode =
   | 'out-of-range'
   | 'plates-dropped'
   | 'test-declined'
+  | 'generations-implausible'
   | 'ci-partial'
   | 'ci-undefined'
-  | 'marker-corrected';
+  | 'marker-corrected'
+  | 'bounded';
+
+/** W is at most, or at least, the value given (a strain had no colony in one sample). */
+export type Bound = 'at-most' | 'at-least';
 
 export interface Flag {
   code: FlagCode;
@@ -57,6 +72,7 @@ export interface AssayResult {
   replicate: string;
   days: number;
   testMarker?: string;
+  block?: string;
   D: number;
   start: SampleDensity;
   end: SampleDensity;
@@ -80,6 +96,8 @@ export interface AssayResult {
   };
   /** Bootstrap 95 % interval of W from counting noise alone; null when too many draws fail. */
   W_ci: [number, number] | null;
+  /** Set when a strain had no colony in one sample: W is then a bound, not an estimate. */
+  bound: Bound | null;
   flags: Flag[];
 }
 
@@ -158,10 +176,28 @@ function rangeFlags(label: string, sample: SampleDensity): Flag[] {
   return flags;
 }
 
+type Strain = 'test' | 'reference';
+type Sample = 'start' | 'end';
+
+/** Which way W is bounded when one count was zero (see the file comment). */
+function boundOf(strain: Strain, sample: Sample, mTest: number): Bound {
+  // m is at most its value when the end count is at most the limit, at least when the start is.
+  const m: Bound = sample === 'end' ? 'at-most' : 'at-least';
+  if (strain === 'test') return m;
+  // W = m_test / m_ref falls as m_ref rises when m_test ≥ 0.
+  return (m === 'at-most') === mTest >= 0 ? 'at-least' : 'at-most';
+}
+
+const usedPlates = (s: SampleDensity) =>
+  s.plates
+    .filter((p) => !p.dropped)
+    .map((p) => p.label)
+    .join(', ');
+
 /**
  * Computes one assay. Throws a FitnessError naming the assay (and the plates) when the numbers
- * cannot give a fitness: no plates, a bad plate, a strain with no colony in a sample, D < 1, or a
- * reference that did not grow (m_ref ≤ 0, so W is undefined). A declining test strain
+ * cannot give a fitness: no plates, a bad plate, no colony of a strain in more than one sample,
+ * D < 1, or a reference that did not grow (m_ref ≤ 0, so W is undefined). A declining test strain
  * (m_test ≤ 0) is a result, flagged 'test-declined'.
  */
 export function computeAssay(input: AssayInput, options: AssayOptions = {}): AssayResult {
@@ -175,20 +211,26 @@ export function computeAssay(input: AssayInput, options: AssayOptions = {}): Ass
   }
   const start = sampleDensity(input.start, `${name}, start sample`, options);
   const end = sampleDensity(input.end, `${name}, end sample`, options);
-  const mTest = malthusian(
-    start.test.colonies,
-    start.cultureMl,
-    end.test.colonies,
-    end.cultureMl,
-    D,
+  const samples = { start, end };
+  const zeros = (['test', 'reference'] as const).flatMap((strain) =>
+    (['start', 'end'] as const)
+      .filter((sample) => samples[sample][strain].colonies === 0)
+      .map((sample) => ({ strain, sample })),
   );
-  const mRef = malthusian(
-    start.reference.colonies,
-    start.cultureMl,
-    end.reference.colonies,
-    end.cultureMl,
-    D,
+  const zeroText = zeros.map(
+    (z) => `no ${z.strain} colony in the ${z.sample} sample (${usedPlates(samples[z.sample])})`,
   );
+  if (zeros.length > 1) {
+    throw new FitnessError(
+      `${name}: ${zeroText.join(' and ')}; with more than one zero count there is neither a fitness nor a bound (plate lower dilutions)`,
+    );
+  }
+  const count = (sample: Sample, strain: Strain) =>
+    samples[sample][strain].colonies || ZERO_COUNT_UPPER_95;
+  const mOf = (strain: Strain) =>
+    malthusian(count('start', strain), start.cultureMl, count('end', strain), end.cultureMl, D);
+  const mTest = mOf('test');
+  const mRef = mOf('reference');
   if (!(mRef > 0)) {
     const plates = [...start.plates, ...end.plates].map((p) => p.label).join(', ');
     throw new FitnessError(
@@ -197,6 +239,11 @@ export function computeAssay(input: AssayInput, options: AssayOptions = {}): Ass
   }
   const W = mTest / mRef;
   const r = mTest - mRef;
+  if (!Number.isFinite(W) || !Number.isFinite(r)) {
+    throw new FitnessError(
+      `${name}: the counts, volumes and dilutions give no finite fitness (m_test = ${mTest}, m_ref = ${mRef})`,
+    );
+  }
   const varMTest = start.test.logVariance + end.test.logVariance;
   const varMRef = start.reference.logVariance + end.reference.logVariance;
   // Var(W) ≈ (Var(m_test) + W²·Var(m_ref)) / m_ref², the delta method for a ratio.
@@ -208,7 +255,15 @@ export function computeAssay(input: AssayInput, options: AssayOptions = {}): Ass
       message: `the test strain declined (m_test = ${mTest.toFixed(4)} ≤ 0)`,
     });
   }
-  const draws = options.bootstrapDraws ?? DEFAULT_BOOTSTRAP_DRAWS;
+  const zero = zeros[0];
+  const bound = zero ? boundOf(zero.strain, zero.sample, mTest) : null;
+  if (bound) {
+    flags.push({
+      code: 'bounded',
+      message: `${zeroText[0]}: W is ${bound === 'at-most' ? 'at most' : 'at least'} ${W.toFixed(4)}, counting the zero as its one-sided 95 % Poisson limit (${ZERO_COUNT_UPPER_95.toFixed(2)} colonies); left out of means and tests`,
+    });
+  }
+  const draws = bound ? 0 : (options.bootstrapDraws ?? DEFAULT_BOOTSTRAP_DRAWS);
   let W_ci: [number, number] | null = null;
   if (draws > 0) {
     const boot = bootstrapW(start, end, D, draws, hashSeed(input.assay, options.seed ?? 0));
@@ -226,6 +281,8 @@ export function computeAssay(input: AssayInput, options: AssayOptions = {}): Ass
     }
   }
   const generationsRef = mRef / Math.LN2;
+  const implausible = generationsWarning(generationsRef, input.days, D);
+  if (implausible) flags.push({ code: 'generations-implausible', message: implausible });
   return {
     assay: input.assay,
     group: input.group,
@@ -234,6 +291,7 @@ export function computeAssay(input: AssayInput, options: AssayOptions = {}): Ass
     replicate: input.replicate,
     days: input.days,
     ...(input.testMarker ? { testMarker: input.testMarker } : {}),
+    ...(input.block ? { block: input.block } : {}),
     D,
     start,
     end,
@@ -254,6 +312,7 @@ export function computeAssay(input: AssayInput, options: AssayOptions = {}): Ass
       sPerGeneration: Math.LN2 * seW,
     },
     W_ci,
+    bound,
     flags,
   };
 }

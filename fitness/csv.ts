@@ -1,7 +1,7 @@
 /**
- * A small RFC 4180 CSV reader: comma-separated, fields may be quoted with "…" (a doubled quote
- * inside stands for one) and may then hold commas and line breaks. CRLF or LF line ends; a
- * leading byte-order mark is ignored; blank lines are skipped.
+ * A small RFC 4180 CSV reader: comma-separated (or another one-character separator), fields may be
+ * quoted with "…" (a doubled quote inside stands for one) and may then hold separators and line
+ * breaks. CRLF or LF line ends; a leading byte-order mark is ignored; blank lines are skipped.
  */
 import { FitnessError } from './errors.ts';
 
@@ -11,7 +11,27 @@ export interface CsvRecord {
   fields: string[];
 }
 
-export function parseCsv(text: string): CsvRecord[] {
+export type Separator = ',' | ';' | '\t';
+
+export const SEPARATOR_NAMES: Record<Separator, string> = {
+  ',': 'comma',
+  ';': 'semicolon',
+  '\t': 'tab',
+};
+
+/**
+ * The separator of a file, judged from its first line: the comma when it has one, else a
+ * semicolon (spreadsheets set to a decimal-comma language write these) or a tab when it has one.
+ */
+export function detectSeparator(text: string): Separator {
+  const first = text.replace(/^\ufeff/, '').split(/\r?\n/, 1)[0] ?? '';
+  if (first.includes(',')) return ',';
+  if (first.includes(';')) return ';';
+  if (first.includes('\t')) return '\t';
+  return ',';
+}
+
+export function parseCsv(text: string, separator: Separator = ','): CsvRecord[] {
   const records: CsvRecord[] = [];
   let i = text.charCodeAt(0) === 0xfeff ? 1 : 0;
   let line = 1;
@@ -41,11 +61,11 @@ export function parseCsv(text: string): CsvRecord[] {
           i += 1;
         }
         const next = text[i];
-        if (next !== undefined && next !== ',' && next !== '\n' && next !== '\r') {
+        if (next !== undefined && next !== separator && next !== '\n' && next !== '\r') {
           throw new FitnessError(`line ${line}: text after a closing quote`);
         }
       }
-      while (i < text.length && text[i] !== ',' && text[i] !== '\n' && text[i] !== '\r') {
+      while (i < text.length && text[i] !== separator && text[i] !== '\n' && text[i] !== '\r') {
         if (text[i] === '"')
           throw new FitnessError(`line ${line}: a quote inside an unquoted field`);
         field += text[i];
@@ -53,7 +73,7 @@ export function parseCsv(text: string): CsvRecord[] {
       }
       fields.push(field);
       field = '';
-      if (text[i] === ',') {
+      if (text[i] === separator) {
         i += 1;
       } else {
         if (text[i] === '\r') i += 1;

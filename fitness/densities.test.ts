@@ -107,13 +107,16 @@ describe('sampleDensity', () => {
     expect(iso.plates[1]!.status).toBe('countable');
   });
 
+  it('gives a strain with no colony density 0 and the upper limit of a zero count', () => {
+    const s = sampleDensity([plate('row 7', 100, 0, 50)], 'assay A3, end sample');
+    expect(s.test.cfuPerMl).toBe(0);
+    // R 4.2.2: poisson.test(0, alternative = "less")$conf.int[2] = 2.99573227355399
+    expect(s.test.atMostCfuPerMl! * s.cultureMl).toBeCloseTo(2.99573227355399, 12);
+    expect(s.reference.atMostCfuPerMl).toBeNull();
+    expect(Number.isFinite(s.test.logVariance)).toBe(true);
+  });
+
   it('names the assay and the plate when the numbers are unusable', () => {
-    expect(() => sampleDensity([plate('row 7', 100, 0, 50)], 'assay A3, end sample')).toThrow(
-      /assay A3, end sample: no test colony on row 7/,
-    );
-    expect(() => sampleDensity([plate('row 8', 100, 50, 0)], 'assay A3, start sample')).toThrow(
-      /no reference colony on row 8/,
-    );
     expect(() =>
       sampleDensity([plate('row 9', 100, 5, 5, -0.1)], 'assay A4, start sample'),
     ).toThrow(/assay A4, start sample, row 9: plated volume must be > 0/);

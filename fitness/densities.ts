@@ -8,7 +8,9 @@
  * successive ten-fold dilutions this is the standard plate-count weighted mean
  * N = ΣC / (V·(n1 + 0.1·n2)·d) of FDA BAM ch. 3 and ISO 7218.
  * Counting noise: ΣC is Poisson, so Var(ln N) = 1/ΣC (delta method), and N has the exact
- * Garwood interval of ΣC scaled by 1/Σ(V_i/f_i).
+ * Garwood interval of ΣC scaled by 1/Σ(V_i/f_i). A strain with no colony at all has density 0 and
+ * an upper limit: the exact one-sided 95 % Poisson limit of a zero count, −ln 0.05 ≈ 3.0 colonies
+ * (poisson.ts), over the same culture volume.
  */
 import {
   type CountableRange,
@@ -18,7 +20,7 @@ import {
   validateCountableRange,
 } from './countable-range.ts';
 import { FitnessError } from './errors.ts';
-import { poissonExactInterval } from './poisson.ts';
+import { poissonExactInterval, ZERO_COUNT_UPPER_95 } from './poisson.ts';
 
 export interface Plate {
   /** Names the plate in messages, e.g. 'row 12'. */
@@ -46,8 +48,13 @@ export interface StrainDensity {
   cfuPerMl: number;
   /** Exact Poisson 95 % interval of the density from counting noise alone. */
   ci95: [number, number];
-  /** Var(ln density) from Poisson counting noise: 1 / colonies. */
+  /** Var(ln density) from Poisson counting noise: 1 / colonies (1 / 3.0 for no colony). */
   logVariance: number;
+  /**
+   * No colony seen: the density is at most this (one-sided 95 % limit of a zero count over the
+   * culture volume plated); null when colonies were seen.
+   */
+  atMostCfuPerMl: number | null;
 }
 
 export interface SampleDensity {
@@ -111,21 +118,21 @@ export function pooledCfuPerMl(
   return colonies / cultureMl;
 }
 
-/** Called only with colonies > 0 (sampleDensity checks). */
 function strainDensity(colonies: number, cultureMl: number): StrainDensity {
   const [lo, hi] = poissonExactInterval(colonies);
   return {
     colonies,
     cfuPerMl: colonies / cultureMl,
     ci95: [lo / cultureMl, hi / cultureMl],
-    logVariance: 1 / colonies,
+    logVariance: 1 / (colonies > 0 ? colonies : ZERO_COUNT_UPPER_95),
+    atMostCfuPerMl: colonies > 0 ? null : ZERO_COUNT_UPPER_95 / cultureMl,
   };
 }
 
 /**
  * Pools the plates of one sample into densities of the two strains. `context` names the sample
- * in errors (e.g. 'assay A3, end sample'). Throws a FitnessError when there is no plate, a plate
- * is invalid, or a strain has no colony at all (its density would be 0 and its logarithm −∞).
+ * in errors (e.g. 'assay A3, end sample'). Throws a FitnessError when there is no plate or a plate
+ * is invalid. A strain with no colony gets density 0 and its upper limit (atMostCfuPerMl).
  */
 export function sampleDensity(
   plates: readonly Plate[],
@@ -152,17 +159,6 @@ export function sampleDensity(
     test += p.testColonies;
     reference += p.referenceColonies;
   });
-  const used = checks.filter((c) => !c.dropped).map((c) => c.label);
-  for (const [name, n] of [
-    ['test', test],
-    ['reference', reference],
-  ] as const) {
-    if (n === 0) {
-      throw new FitnessError(
-        `${context}: no ${name} colony on ${used.join(', ')}; its density cannot be estimated (plate a lower dilution)`,
-      );
-    }
-  }
   return {
     plates: checks,
     cultureMl,

@@ -21,6 +21,12 @@ export function poissonExactInterval(count: number, level = 0.95): [number, numb
   return [lower, upper];
 }
 
+/**
+ * Exact one-sided 95 % upper limit of a Poisson mean when the count is 0: P(0 | μ) = e^(−μ) = 0.05,
+ * so μ = −ln 0.05 ≈ 2.9957 (= ½·χ²(0.95; 2); R: poisson.test(0, alternative = "less")).
+ */
+export const ZERO_COUNT_UPPER_95 = -Math.log(0.05);
+
 /** A uniform generator on [0, 1). */
 export type Uniform = () => number;
 

@@ -58,3 +58,11 @@ describe('t-tests and ANOVA', () => {
     expect(oneWayAnova([[1], [2]])).toBeNull();
   });
 });
+
+describe('identical replicates', () => {
+  it('are handled one way: no SD, SE, interval or test, as for one value', () => {
+    expect(summarise([1.1, 1.1, 1.1])).toEqual({ n: 3, mean: 1.1, sd: null, se: null, ci: null });
+    expect(oneSampleTTest([1.1, 1.1, 1.1], 1)).toBeNull();
+    expect(welchTTest([1.1, 1.1], [1.1, 1.1])).toBeNull();
+  });
+});

@@ -3,13 +3,15 @@
  * two-sample t-test and one-way ANOVA. Textbook formulas (e.g. Zar, Biostatistical Analysis,
  * 5th ed., ch. 7, 8, 10); the t and F distributions come from stdlib (distributions.ts).
  * Nothing here returns NaN or Infinity: a statistic that does not exist (n < 2, no spread) is null.
+ * Identical replicates are handled one way throughout: no spread (noSpread below) makes the SD,
+ * SE, interval and every test null, as one value does.
  */
 import { fUpperP, studentTQuantile, studentTTwoSidedP } from './distributions.ts';
 
 export interface Summary {
   n: number;
   mean: number;
-  /** Sample SD (n − 1 in the denominator); null when n < 2. */
+  /** Sample SD (n − 1 in the denominator); null when n < 2 or the values are all equal. */
   sd: number | null;
   se: number | null;
   /** Student-t interval for the mean at `level`; null when n < 2. */
@@ -46,9 +48,11 @@ export function summarise(values: readonly number[], level = 0.95): Summary {
   const n = values.length;
   const m = mean(values);
   const variance = sampleVariance(values);
-  if (variance === null) return { n, mean: m, sd: null, se: null, ci: null };
-  const sd = Math.sqrt(variance);
+  const sd = variance === null ? 0 : Math.sqrt(variance);
   const se = sd / Math.sqrt(n);
+  if (variance === null || noSpread(se, Math.abs(m))) {
+    return { n, mean: m, sd: null, se: null, ci: null };
+  }
   const half = studentTQuantile(1 - (1 - level) / 2, n - 1) * se;
   return { n, mean: m, sd, se, ci: [m - half, m + half] };
 }
@@ -61,7 +65,7 @@ function noSpread(se: number, scale: number): boolean {
 /** Two-sided one-sample t-test of mean = mu0; null when n < 2 or all values are equal. */
 export function oneSampleTTest(values: readonly number[], mu0: number): TTest | null {
   const s = summarise(values);
-  if (s.se === null || noSpread(s.se, Math.abs(s.mean))) return null;
+  if (s.se === null) return null;
   const t = (s.mean - mu0) / s.se;
   const df = s.n - 1;
   return { t, df, p: studentTTwoSidedP(t, df) };

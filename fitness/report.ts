@@ -3,9 +3,12 @@
  * exist). This is the `rivalplate fitness --json` output; README "Fitness from a CSV" lists it.
  */
 import type { Analysis, Comparison, LineTrajectory } from './analysis.ts';
+import type { AnovaRow, BlockedComparison } from './blocks.ts';
+import type { Adjusted, LabComparisons } from './lab-comparisons.ts';
+import type { FTest, SharedCurveTest } from './nested-models.ts';
 import type { ReplicatesPlan } from './planning.ts';
 import type { Anova, Summary, TTest } from './replicate-stats.ts';
-import type { CurveFit, ModelFailure, StepFit } from './trajectories.ts';
+import type { CurveFit, ModelFailure, NullFit, StepFit } from './trajectories.ts';
 
 const summaryFields = (prefix: string, s: Summary, test: TTest | null, mu0: number) => ({
   [`mean_${prefix}`]: s.mean,
@@ -19,9 +22,98 @@ const summaryFields = (prefix: string, s: Summary, test: TTest | null, mu0: numb
 
 function testJson(test: TTest | Anova | null) {
   if (test === null) return null;
-  if ('f' in test)
-    return { F: test.f, df_between: test.dfBetween, df_within: test.dfWithin, p: test.p };
+  if ('f' in test) {
+    return {
+      F: test.f,
+      df_between: test.dfBetween,
+      df_within: test.dfWithin,
+      p: test.p,
+      ss_between: test.ssBetween,
+      ss_within: test.ssWithin,
+    };
+  }
   return { t: test.t, df: test.df, p: test.p };
+}
+
+const adjustedJson = (x: Adjusted) => ({
+  t: x.test?.t ?? null,
+  df: x.test?.df ?? null,
+  p: x.test?.p ?? null,
+  p_holm: x.pHolm,
+  p_BH: x.pBH,
+});
+
+const anovaRowJson = (r: AnovaRow) => ({ df: r.df, ss: r.ss, ms: r.ms, F: r.f, p: r.p });
+
+function blockedJson(b: BlockedComparison | null) {
+  if (b === null) return null;
+  return {
+    blocks: b.blocks,
+    anova:
+      'reason' in b.anova
+        ? { fitted: false, reason: b.anova.reason }
+        : {
+            fitted: true,
+            block: anovaRowJson(b.anova.block),
+            line: anovaRowJson(b.anova.line),
+            residual: b.anova.residual,
+          },
+    mixed_model:
+      'reason' in b.mixed
+        ? { fitted: false, reason: b.mixed.reason }
+        : {
+            fitted: true,
+            fixed_effects: b.mixed.fixed.map((f) => ({
+              term: f.name,
+              estimate: f.estimate,
+              se: f.se,
+              df: f.df,
+              t: f.t,
+              p: f.p,
+            })),
+            sd_block: b.mixed.sdBlock,
+            sd_residual: b.mixed.sdResidual,
+          },
+  };
+}
+
+function comparisonsJson(c: LabComparisons) {
+  return {
+    by_generation: c.byGeneration.map((g) => ({
+      generation: g.generation,
+      lines: g.lines.map((l) => ({ line: l.line, n: l.n, mean_W: l.meanW })),
+      anova: testJson(g.anova),
+      welch_anova: g.welch && {
+        F: g.welch.f,
+        df_between: g.welch.dfBetween,
+        df_within: g.welch.dfWithin,
+        p: g.welch.p,
+      },
+      tukey_hsd:
+        g.tukey?.map((t) => ({
+          pair: `${t.first}-${t.second}`,
+          diff: t.diff,
+          lwr: t.ci[0],
+          upr: t.ci[1],
+          p_adjusted: t.pAdjusted,
+        })) ?? null,
+      blocked: blockedJson(g.blocked),
+    })),
+    vs_ancestor: c.vsAncestor.map((x) => ({
+      line: x.line,
+      generation: x.generation,
+      n: x.n,
+      mean_W: x.meanW,
+      ...adjustedJson(x),
+    })),
+    changes: c.changes.map((x) => ({
+      line: x.line,
+      from: x.from,
+      to: x.to,
+      diff_W: x.diff,
+      ...adjustedJson(x),
+    })),
+  };
 }
 
 function planJson(p: ReplicatesPlan | null) {
@@ -39,7 +131,22 @@ function comparisonJson(c: Comparison | null) {
   return { groups: c.groups, test: c.test, W: testJson(c.W), r: testJson(c.r) };
 }
 
-function fitJson(m: CurveFit | StepFit | ModelFailure) {
+const fTestJson = (t: FTest | null) => t && { F: t.f, df_between: t.df1, df_within: t.df2, p: t.p };
+
+function sharedCurveJson(s: SharedCurveTest | ModelFailure) {
+  if ('reason' in s) return { model: s.model.replace('-', '_'), tested: false, reason: s.reason };
+  return {
+    model: s.model.replace('-', '_'),
+    tested: true,
+    lines: s.lines,
+    rss_shared: s.shared.rss,
+    rss_separate: s.rssSeparate,
+    shared_parameters: Object.fromEntries(s.shared.parameters.map((p) => [p.name, p.estimate])),
+    test: fTestJson(s.test),
+  };
+}
+
+function fitJson(m: NullFit | CurveFit | StepFit | ModelFailure) {
   if ('reason' in m) return { fitted: false, reason: m.reason };
   const common = {
     fitted: true,
@@ -49,9 +156,11 @@ function fitJson(m: CurveFit | StepFit | ModelFailure) {
     residual_se: m.residualSe,
     log_lik: m.logLik,
     AIC: m.aic,
+    AICc: m.aicc,
     BIC: m.bic,
     residuals: m.residuals,
   };
+  if (m.model === 'null') return common;
   if (m.model === 'step') {
     return {
       ...common,
@@ -70,6 +179,7 @@ function fitJson(m: CurveFit | StepFit | ModelFailure) {
     converged: m.converged,
     parameters: Object.fromEntries(m.parameters.map((p) => [p.name, p.estimate])),
     standard_errors: Object.fromEntries(m.parameters.map((p) => [p.name, p.se])),
+    confidence_intervals: Object.fromEntries(m.parameters.map((p) => [p.name, p.ci])),
     poorly_determined: m.parameters.filter((p) => p.poorlyDetermined).map((p) => p.name),
   };
 }
@@ -79,13 +189,20 @@ function trajectoryJson(t: LineTrajectory) {
     line: t.line,
     points: t.points,
     models: {
+      null: fitJson(t.null),
       hyperbolic: fitJson(t.hyperbolic),
       power_law: fitJson(t.powerLaw),
       step: fitJson(t.step),
     },
+    vs_null: {
+      hyperbolic: fTestJson(t.vsNull.hyperbolic),
+      power_law: fTestJson(t.vsNull.powerLaw),
+    },
+    bands: { hyperbolic: t.bands.hyperbolic, power_law: t.bands.powerLaw },
     ranking: t.ranking.map((r) => ({
       model: r.model.replace('-', '_'),
       AIC: r.aic,
+      AICc: r.aicc,
       BIC: r.bic,
       delta_AIC: r.deltaAic,
       delta_BIC: r.deltaBic,
@@ -102,7 +219,9 @@ export function analysisJson(analysis: Analysis) {
       generation: a.generation,
       replicate: a.replicate,
       ...(a.testMarker ? { test_marker: a.testMarker } : {}),
+      ...(a.block ? { block: a.block } : {}),
       W: a.W,
+      bound: a.bound,
       r: a.r,
       r_per_day: a.rPerDay,
       m_test: a.mTest,
@@ -138,9 +257,12 @@ export function analysisJson(analysis: Analysis) {
       flags: a.flags,
     })),
     errors: analysis.errors,
+    left_out: analysis.leftOut,
     groups: analysis.groups.map((g) => ({
       group: g.group,
       n: g.W.n,
+      bounded: g.bounded,
+      dropped: g.dropped,
       ...summaryFields('W', g.W, g.W_vs_1, 1),
       ...summaryFields('r', g.r, g.r_vs_0, 0),
       ...(g.replicatesNeeded !== undefined
@@ -167,7 +289,9 @@ export function analysisJson(analysis: Analysis) {
       mean_r: r.meanR,
     })),
     comparison: comparisonJson(analysis.comparison),
+    comparisons: comparisonsJson(analysis.comparisons),
     trajectories: analysis.trajectories.map(trajectoryJson),
+    shared_curves: analysis.sharedCurves.map(sharedCurveJson),
     ...(analysis.pooledReplicatesNeeded !== undefined
       ? { replicates_needed_pooled: planJson(analysis.pooledReplicatesNeeded) }
       : {}),

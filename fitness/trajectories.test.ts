@@ -2,10 +2,13 @@ import { describe, expect, it } from 'vitest';
 import {
   type CurveFit,
   curveAt,
+  curveBand,
   fitHyperbolic,
+  fitNull,
   fitPowerLaw,
   fitStep,
   leastSquaresLogLik,
+  type NullFit,
   type StepFit,
   type TrajectoryPoint,
 } from './trajectories.ts';
@@ -178,5 +181,90 @@ describe('step model', () => {
     const fit = fitStep(data) as StepFit;
     expect(fit.rss).toBeCloseTo(bruteForceRss(data, fit.changePoints), 12);
     for (const s of fit.steps) expect(s.after).toBeLessThan(s.before);
+  });
+});
+
+// Reference values computed once with R 4.2.2 (Debian r-base-core) on the 14 points above:
+//   h <- nls(w ~ 1 + a*t/(t+b)); p <- nls(w ~ (b*t+1)^a) (tol 1e-7, started at the estimates);
+//   Wald: coef ± qt(0.975, df.residual) · SE from summary(); AICc = AIC(fit) + 2k(k+1)/(n−k−1),
+//   k = 3; null model w = 1: RSS = sum((w − 1)^2), logLik = −n/2·(log(2π) + 1 + log(RSS/n)), k = 1;
+//   band: g = c(t/(t+b), −a·t/(t+b)^2), fit ± qt(0.975, n − 2)·sqrt(t(g) %*% vcov(h) %*% g).
+const rel = (x: number, ref: number) => Math.abs(x - ref) / Math.abs(ref);
+
+describe('intervals, AICc, the null model and the band, against R', () => {
+  it('Wald 95 % intervals and AICc of both curves', () => {
+    const h = fitted(fitHyperbolic(points));
+    expect(rel(h.parameters[0]!.ci[0], 0.37990793611480511)).toBeLessThan(1e-6);
+    expect(rel(h.parameters[0]!.ci[1], 0.46048599115547706)).toBeLessThan(1e-6);
+    expect(rel(h.parameters[1]!.ci[0], 1385.627630400995)).toBeLessThan(1e-6);
+    expect(rel(h.parameters[1]!.ci[1], 2347.1427523885377)).toBeLessThan(1e-6);
+    expect(rel(h.aicc!, -67.512847319163527)).toBeLessThan(1e-6);
+    const p = fitted(fitPowerLaw(points));
+    expect(rel(p.parameters[0]!.ci[0], 0.064524439249026427)).toBeLessThan(1e-6);
+    expect(rel(p.parameters[1]!.ci[1], 0.0075764660443948945)).toBeLessThan(1e-6);
+    expect(rel(p.aicc!, -62.693497552699093)).toBeLessThan(1e-6);
+  });
+
+  it('the null model w = 1', () => {
+    const n = fitNull(points) as NullFit;
+    expect(rel(n.rss, 0.66500000000000015)).toBeLessThan(1e-12);
+    expect(n.k).toBe(1);
+    expect(rel(n.aic, -0.9280790214507455)).toBeLessThan(1e-9);
+    expect(rel(n.aicc!, -0.59474568811741224)).toBeLessThan(1e-9);
+    expect(rel(n.bic, -0.28902169183548709)).toBeLessThan(1e-9);
+    expect(
+      fitNull([
+        { generation: 0, w: 1 },
+        { generation: 5, w: 1 },
+      ]),
+    ).toMatchObject({
+      reason: 'every value is exactly 1',
+    });
+  });
+
+  it('the 95 % confidence band of the hyperbolic curve (delta method)', () => {
+    const band = curveBand(fitted(fitHyperbolic(points)), [0, 250, 3000, 7500]);
+    const R = [
+      [1, 1, 1],
+      [1.0496361632730733, 1.0421563046772926, 1.057116021868854],
+      [1.2590405077539952, 1.246378353469707, 1.2717026620382834],
+      [1.3364667545553148, 1.3173679898463877, 1.355565519264242],
+    ];
+    band.forEach((b, i) => {
+      const [w, low, high] = R[i]!;
+      expect(rel(b.w, w!)).toBeLessThan(1e-6);
+      expect(rel(b.low, low!)).toBeLessThan(1e-6);
+      expect(rel(b.high, high!)).toBeLessThan(1e-6);
+    });
+  });
+
+  it('marks a parameter poorly determined when its 95 % interval contains 0', () => {
+    for (const q of fitted(fitHyperbolic(points)).parameters) {
+      expect(q.poorlyDetermined).toBe(q.ci[0] <= 0 && q.ci[1] >= 0);
+    }
+  });
+
+  it('fits nothing that would leave fewer than two residual degrees of freedom', () => {
+    const three = points.slice(0, 3);
+    expect(fitHyperbolic(three)).toMatchObject({
+      reason: 'needs ≥ 4 values at ≥ 2 generations (two residual degrees of freedom), has 3 at 3',
+    });
+    // Step: with 4 values, k = 1 would leave 4 − 3 = 1 residual df, so only k = 0 is tried.
+    const step = fitStep(points.slice(0, 4), 3) as StepFit;
+    expect(step.bicByChangePoints.map((b) => b.changePoints)).toEqual([0]);
+  });
+});
+
+describe('step model cost', () => {
+  it('chooses the segmentation on the RSS it reports, even far from zero', () => {
+    // Values near 1000 with steps of 1e-5: Σw² − (Σw)²/m would lose these digits.
+    const data: TrajectoryPoint[] = [0, 0, 0, 500, 500, 500, 1000, 1000, 1000].map((t, i) => ({
+      generation: t,
+      w: 1000 + (t >= 500 ? 1e-5 : 0) + [1, -2, 1.5][i % 3]! * 1e-7,
+    }));
+    const fit = fitStep(data, 2) as StepFit;
+    expect(fit.changePoints).toBe(1);
+    expect(fit.steps).toEqual([{ after: 0, before: 500 }]);
+    expect(fit.rss / bruteForceRss(data, 1)).toBeCloseTo(1, 9);
   });
 });

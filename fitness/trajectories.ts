@@ -15,9 +15,20 @@
  * are √diag(σ̂²·(JᵀJ)⁻¹) with σ̂² = RSS/(n − p), as R's nls and SciPy's curve_fit report them.
  * Log-likelihood, AIC and BIC follow R's logLik.nls for a Gaussian least-squares fit:
  * logLik = −n/2·(ln 2π + 1 + ln(RSS/n)), AIC = −2·logLik + 2k, BIC = −2·logLik + k·ln n, with
- * k = model parameters + 1 (the residual variance counts as a parameter).
+ * k = model parameters + 1 (the residual variance counts as a parameter). AICc = AIC +
+ * 2k(k + 1)/(n − k − 1) (Hurvich & Tsai 1989, Biometrika 76:297), null when n ≤ k + 1.
+ *
+ * The null model is w = 1 at every generation (no change from the ancestor; no parameter but the
+ * residual variance). Every model needs two residual degrees of freedom or more (n − parameters
+ * ≥ 2); with fewer, the residual variance, and so every SE and test, rests on one value or none.
+ * Wald 95 % intervals are estimate ± t₀.₉₇₅(n − 2)·SE, and the 95 % band of a fitted curve is
+ * f(t) ± t₀.₉₇₅(n − 2)·√(gᵀ V g), g = ∂f/∂θ at t and V = σ̂²(JᵀJ)⁻¹ (delta method; e.g. Bates &
+ * Watts 1988, Nonlinear Regression Analysis and Its Applications, §2.3, from memory). A parameter
+ * is "poorly determined" when its 95 % interval contains 0: the data cannot tell it from zero, so
+ * its value says nothing (common practice; equivalently its Wald t-test has p ≥ 0.05).
  */
 import { levenbergMarquardt } from 'ml-levenberg-marquardt';
+import { studentTQuantile } from './distributions.ts';
 
 export interface TrajectoryPoint {
   generation: number;
@@ -34,6 +45,8 @@ export interface FitStatistics {
   residualSe: number;
   logLik: number;
   aic: number;
+  /** Small-sample AIC; null when n ≤ k + 1. */
+  aicc: number | null;
   bic: number;
   /** Observed minus fitted, in the order of the points given. */
   residuals: number[];
@@ -43,7 +56,9 @@ export interface Parameter {
   name: string;
   estimate: number;
   se: number;
-  /** True when the standard error exceeds the estimate's magnitude: do not read it as a result. */
+  /** Wald 95 % interval: estimate ± t₀.₉₇₅(n − 2)·SE. */
+  ci: [number, number];
+  /** True when the 95 % interval contains 0: do not read the estimate as a result. */
   poorlyDetermined: boolean;
 }
 
@@ -51,7 +66,13 @@ export interface CurveFit extends FitStatistics {
   model: 'hyperbolic' | 'power-law';
   formula: string;
   parameters: Parameter[];
+  /** Covariance of the two parameters, σ̂²(JᵀJ)⁻¹, for the confidence band. */
+  covariance: [[number, number], [number, number]];
   converged: boolean;
+}
+
+export interface NullFit extends FitStatistics {
+  model: 'null';
 }
 
 export interface Step {
@@ -72,7 +93,7 @@ export interface StepFit extends FitStatistics {
 }
 
 export interface ModelFailure {
-  model: 'hyperbolic' | 'power-law' | 'step';
+  model: 'null' | 'hyperbolic' | 'power-law' | 'step';
   reason: string;
 }
 
@@ -158,22 +179,50 @@ export function leastSquaresLogLik(rss: number, n: number): number {
   return (-n / 2) * (Math.log(2 * Math.PI) + 1 + Math.log(rss / n));
 }
 
+/** AICc from AIC (Hurvich & Tsai 1989); null when n ≤ k + 1. */
+export function aicc(aic: number, k: number, n: number): number | null {
+  return n - k - 1 > 0 ? aic + (2 * k * (k + 1)) / (n - k - 1) : null;
+}
+
 function statistics(residuals: number[], modelParameters: number): FitStatistics {
   const n = residuals.length;
   let rss = 0;
   for (const r of residuals) rss += r * r;
   const logLik = leastSquaresLogLik(rss, n);
   const k = modelParameters + 1;
+  const aic = -2 * logLik + 2 * k;
   return {
     n,
     k,
     rss,
     residualSe: Math.sqrt(rss / (n - modelParameters)),
     logLik,
-    aic: -2 * logLik + 2 * k,
+    aic,
+    aicc: aicc(aic, k, n),
     bic: -2 * logLik + k * Math.log(n),
     residuals,
   };
+}
+
+/** Fewest residual degrees of freedom a fit may leave (see the file comment). */
+export const MIN_RESIDUAL_DF = 2;
+
+/** The null model w = 1; a failure when the values are all exactly 1. */
+export function fitNull(points: readonly TrajectoryPoint[]): NullFit | ModelFailure {
+  const residuals = points.map((p) => p.w - 1);
+  if (points.length < MIN_RESIDUAL_DF) {
+    return { model: 'null', reason: `needs ≥ ${MIN_RESIDUAL_DF} values, has ${points.length}` };
+  }
+  const stats = statistics(residuals, 0);
+  if (
+    tooExact(
+      stats.rss,
+      points.map((p) => p.w),
+    )
+  ) {
+    return { model: 'null', reason: 'every value is exactly 1' };
+  }
+  return { model: 'null', ...stats };
 }
 
 /** A fit this close to exact has no usable residual variance (log of zero). */
@@ -251,10 +300,10 @@ function fitCurve(model: Model, points: readonly TrajectoryPoint[]): CurveFit | 
   const w = points.map((p) => p.w);
   const n = points.length;
   const distinct = new Set(t).size;
-  if (n < 3 || distinct < 2) {
+  if (n < 2 + MIN_RESIDUAL_DF || distinct < 2) {
     return {
       model: model.name,
-      reason: `needs ≥ 3 values at ≥ 2 generations, has ${n} at ${distinct}`,
+      reason: `needs ≥ ${2 + MIN_RESIDUAL_DF} values at ≥ 2 generations (two residual degrees of freedom), has ${n} at ${distinct}`,
     };
   }
   const tMax = Math.max(...t.map(Math.abs));
@@ -305,7 +354,12 @@ function fitCurve(model: Model, points: readonly TrajectoryPoint[]): CurveFit | 
     2,
   );
   const sigma2 = rss / (n - 2);
-  const se = [Math.sqrt((sigma2 * s11) / det), Math.sqrt((sigma2 * s00) / det)];
+  const covariance: CurveFit['covariance'] = [
+    [(sigma2 * s11) / det, (-sigma2 * s01) / det],
+    [(-sigma2 * s01) / det, (sigma2 * s00) / det],
+  ];
+  const se = [Math.sqrt(covariance[0][0]), Math.sqrt(covariance[1][1])];
+  const tq = studentTQuantile(0.975, n - 2);
   // Converged when the gradient Jᵀr is negligible against the scale of the problem.
   const converged =
     Math.abs(g0) <= 1e-6 * Math.sqrt(s00 * rss) + 1e-15 &&
@@ -313,12 +367,17 @@ function fitCurve(model: Model, points: readonly TrajectoryPoint[]): CurveFit | 
   return {
     model: model.name,
     formula: model.formula,
-    parameters: model.names.map((name, i) => ({
-      name,
-      estimate: params[i]!,
-      se: se[i]!,
-      poorlyDetermined: !(se[i]! <= Math.abs(params[i]!)),
-    })),
+    parameters: model.names.map((name, i) => {
+      const ci: [number, number] = [params[i]! - tq * se[i]!, params[i]! + tq * se[i]!];
+      return {
+        name,
+        estimate: params[i]!,
+        se: se[i]!,
+        ci,
+        poorlyDetermined: !(ci[0] > 0 || ci[1] < 0),
+      };
+    }),
+    covariance,
     converged,
     ...stats,
   };
@@ -331,6 +390,28 @@ export function curveAt(fit: CurveFit): (generation: number) => number {
   return MODELS[fit.model].f(fit.parameters.map((p) => p.estimate));
 }
 
+/**
+ * The fitted curve with its 95 % confidence band (delta method, see the file comment) at the
+ * generations asked for.
+ */
+export function curveBand(
+  fit: CurveFit,
+  generations: readonly number[],
+): { generation: number; w: number; low: number; high: number }[] {
+  const model = MODELS[fit.model];
+  const params = fit.parameters.map((p) => p.estimate);
+  const f = model.f(params);
+  const jac = model.jac(params);
+  const [[v00, v01], [, v11]] = fit.covariance;
+  const tq = studentTQuantile(0.975, fit.n - 2);
+  return generations.map((t) => {
+    const [g0, g1] = jac(t) as [number, number];
+    const se = Math.sqrt(Math.max(0, g0 * g0 * v00 + 2 * g0 * g1 * v01 + g1 * g1 * v11));
+    const w = f(t);
+    return { generation: t, w, low: w - tq * se, high: w + tq * se };
+  });
+}
+
 export function fitHyperbolic(points: readonly TrajectoryPoint[]): CurveFit | ModelFailure {
   return fitCurve(HYPERBOLIC, points);
 }
@@ -341,7 +422,7 @@ export function fitPowerLaw(points: readonly TrajectoryPoint[]): CurveFit | Mode
 
 /**
  * Step model. Points at the same generation always share a segment. For each k from 0 to
- * maxChangePoints (and while n > 2k + 2) the optimal k-change segmentation minimises the residual
+ * maxChangePoints (and while n − (2k + 1) ≥ 2) the optimal k-change segmentation minimises the residual
  * sum of squares exactly; k with the lowest BIC wins, counting k + 1 heights, k positions and the
  * residual variance (2k + 2 parameters).
  */
@@ -361,17 +442,24 @@ export function fitStep(
   });
   const n = sorted.length;
   if (n < 3) return { model: 'step', reason: `needs ≥ 3 values, has ${n}` };
-  const s1 = [0];
-  const s2 = [0];
-  for (const p of sorted) {
-    s1.push(s1[s1.length - 1]! + p.w);
-    s2.push(s2[s2.length - 1]! + p.w * p.w);
-  }
-  // Within-segment SS of points [a, b): Σw² − (Σw)²/m, clamped at 0 against rounding.
+  // Within-segment SS of points [a, b), two-pass (mean, then squared deviations), so the
+  // segmentation is chosen on the same RSS that is reported (Σw² − (Σw)²/m loses the digits that
+  // tell close segmentations apart). Memoised: O(n) per segment, n is small.
+  const costs = new Map<number, number>();
+  const heightOf = (a: number, b: number) => {
+    let sum = 0;
+    for (let q = a; q < b; q++) sum += sorted[q]!.w;
+    return sum / (b - a);
+  };
   const cost = (a: number, b: number) => {
-    const m = b - a;
-    const sum = s1[b]! - s1[a]!;
-    return Math.max(0, s2[b]! - s2[a]! - (sum * sum) / m);
+    const key = a * (n + 1) + b;
+    const known = costs.get(key);
+    if (known !== undefined) return known;
+    const m = heightOf(a, b);
+    let ss = 0;
+    for (let q = a; q < b; q++) ss += (sorted[q]!.w - m) ** 2;
+    costs.set(key, ss);
+    return ss;
   };
   const B = blocks.length;
   const kMax = Math.min(maxChangePoints, B - 1);
@@ -404,7 +492,7 @@ export function fitStep(
     const rss = dp[k]![B - 1]!;
     const p = 2 * k + 1;
     if (
-      n <= p + 1 ||
+      n - p < MIN_RESIDUAL_DF ||
       tooExact(
         rss,
         sorted.map((s) => s.w),
@@ -434,14 +522,15 @@ export function fitStep(
     const endBlock = s + 1 < starts.length ? starts[s + 1]! - 1 : B - 1;
     const a = blocks[bi]!.start;
     const b = blocks[endBlock]!.end;
-    const height = (s1[b]! - s1[a]!) / (b - a);
+    const height = heightOf(a, b);
     for (let q = a; q < b; q++) fitted[sorted[q]!.i] = height;
     return { from: blocks[bi]!.generation, to: blocks[endBlock]!.generation, n: b - a, w: height };
   });
   const residuals = points.map((p, i) => p.w - fitted[i]!);
   const stats = statistics(residuals, 2 * k + 1);
-  // Heights' SE from the pooled within-segment variance, df = n − (k + 1).
-  const sigma = Math.sqrt(stats.rss / (n - (k + 1)));
+  // Heights' SE from the residual variance with the same df as the residual SE, n − (2k + 1):
+  // the change positions are estimated too.
+  const sigma = stats.residualSe;
   return {
     model: 'step',
     changePoints: k,

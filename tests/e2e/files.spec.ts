@@ -7,6 +7,23 @@ import { createExperiment, openApp, ROOT, shot } from './helpers.ts';
 
 const EXAMPLE = resolve(ROOT, 'fixtures/example-competition.csv');
 
+/** The files of a zip whose entries are stored uncompressed (local headers read in order). */
+function storedZipEntries(zip: Buffer): Map<string, string> {
+  const files = new Map<string, string>();
+  let at = 0;
+  while (zip.readUInt32LE(at) === 0x04034b50) {
+    expect(zip.readUInt16LE(at + 8)).toBe(0); // stored
+    const size = zip.readUInt32LE(at + 18);
+    const nameLength = zip.readUInt16LE(at + 26);
+    const extra = zip.readUInt16LE(at + 28);
+    const name = zip.toString('utf8', at + 30, at + 30 + nameLength);
+    const start = at + 30 + nameLength + extra;
+    files.set(name, zip.toString('utf8', start, start + size));
+    at = start + size;
+  }
+  return files;
+}
+
 test('a plate CSV is imported into an experiment and its fitness computed; a bad file is named', async ({
   page,
 }) => {
@@ -41,6 +58,25 @@ test('a plate CSV is imported into an experiment and its fitness computed; a bad
   await expect(bothRow).toContainText(`L1${both!.generation}colour 1 (n = 3)colour 2 (n = 3)`);
   await expect(bothRow).toContainText(both!.meanW.toFixed(3));
   await shot(page, '50-imported-fitness');
+
+  // The tidy tables as a zip: each file read back from the stored entries.
+  await page.getByRole('link', { name: 'Files' }).tap();
+  const download = page.waitForEvent('download');
+  await page.getByTestId('export-tables').tap();
+  const zip = readFileSync(await (await download).path());
+  const files = storedZipEntries(zip);
+  expect([...files.keys()]).toEqual([
+    'assays.csv',
+    'groups.csv',
+    'comparisons.csv',
+    'models.csv',
+    'model_parameters.csv',
+    'curve_points.csv',
+  ]);
+  const models = files.get('models.csv')!.trim().split(/\r\n/);
+  expect(models[0]).toMatch(/^line,model,fitted,reason,n,k,rss/);
+  // Six lines (L1–L6), four models each: null, hyperbolic, power law, step.
+  expect(models).toHaveLength(1 + 6 * 4);
 
   // Deleting the experiment takes two taps and leaves the start screen empty.
   await page.getByRole('link', { name: 'Files' }).tap();

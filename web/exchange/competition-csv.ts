@@ -1,7 +1,7 @@
 import type { AnalysedAssay, Analysis } from '../../fitness/analysis.ts';
 import type { AssayInput } from '../../fitness/competition.ts';
 import { REQUIRED_COLUMNS } from '../../fitness/competition-csv.ts';
-import { toCsv } from './csv-write.ts';
+import { toCsv } from '../../fitness/csv-write.ts';
 
 /** The fitness engine's tidy CSV (README "Fitness from a CSV"): one row per counted plate. */
 const PLATE_COLUMNS = [...REQUIRED_COLUMNS, 'days', 'test_marker'] as const;

@@ -18,7 +18,9 @@ export function AssayResults({
       </summary>
       <p className="muted">
         W = m_test / m_ref (realised Malthusian parameters), interval from counting noise
-        (bootstrap, 95%); r per day = (m_test − m_ref) / days, ± its counting SE.
+        (bootstrap, 95%); r per day = (m_test − m_ref) / days, ± its counting SE. ≤ or ≥ marks a
+        bound: a strain had no colony, counted as 3.0 (its 95% Poisson limit); bounds are left out
+        of means and tests.
       </p>
       <div className="table-wrap">
         <table className="results num" data-testid="assay-results">
@@ -35,7 +37,9 @@ export function AssayResults({
             {analysis.assays.map((x) => (
               <tr key={x.assay} data-testid={`result-${x.assay}`}>
                 <td>{x.assay}</td>
-                <td data-testid="W">{fixed3(x.W)}</td>
+                <td data-testid="W" title={x.bound ? 'a bound: a strain had no colony' : undefined}>
+                  {x.bound ? `${x.bound === 'at-most' ? '≤' : '≥'} ${fixed3(x.W)}` : fixed3(x.W)}
+                </td>
                 <td>{interval(x.W_ci)}</td>
                 <td>
                   {fixed3(x.rPerDay)} ± {fixed3(x.countingSe.r / x.days)}

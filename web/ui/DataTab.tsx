@@ -1,4 +1,5 @@
 import { useState } from 'react';
+import { tidyCsv, tidyTables } from '../../fitness/tidy-tables.ts';
 import { go } from '../app/route.ts';
 import { useServices } from '../app/services.ts';
 import { experimentRecordIds } from '../bench/delete.ts';
@@ -7,6 +8,7 @@ import { backupJson, newerOnly, readBackup } from '../exchange/backup.ts';
 import { platesCsv, resultsCsv } from '../exchange/competition-csv.ts';
 import { saveBlob } from '../exchange/download.ts';
 import { assaysFromCsv } from '../exchange/import-csv.ts';
+import { zipStore } from '../exchange/zip.ts';
 import { fitnessInputs } from '../results/assay-inputs.ts';
 import { experimentFitness } from '../results/experiment-fitness.ts';
 import { ConfirmButton } from './ConfirmButton.tsx';
@@ -97,6 +99,29 @@ export function DataTab({ data }: { data: ExperimentData }) {
             }
           >
             Fitness results (CSV)
+          </button>
+          <button
+            type="button"
+            className="btn"
+            data-testid="export-tables"
+            onClick={() =>
+              experimentFitness(fitness, data)
+                .then((fit) => {
+                  if (!fit.analysis)
+                    return say(false, 'No assay has counted start and end plates yet.');
+                  const files = tidyTables(fit.analysis).map((t) => ({
+                    name: `${t.name}.csv`,
+                    text: tidyCsv(t),
+                  }));
+                  saveBlob(
+                    new Blob([zipStore(files)], { type: 'application/zip' }),
+                    `${name}-tables.zip`,
+                  );
+                })
+                .catch(failed)
+            }
+          >
+            Tables for R or a spreadsheet (zip)
           </button>
           <button
             type="button"

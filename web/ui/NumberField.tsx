@@ -1,5 +1,5 @@
 import { useEffect, useState } from 'react';
-import { parseFold } from '../bench/numbers.ts';
+import { parseFold } from '../../fitness/fold-text.ts';
 
 /**
  * A number typed on a phone keypad. Accepts "1e5", "10^5", "100000" and "1:100000" for folds;

@@ -32,6 +32,7 @@ export function TrajectoryCard({
             <tr>
               <th>Model</th>
               <th>AIC</th>
+              <th>AICc</th>
               <th>BIC</th>
               <th>ΔAIC</th>
             </tr>
@@ -41,6 +42,7 @@ export function TrajectoryCard({
               <tr key={r.model}>
                 <td>{r.model}</td>
                 <td>{r.aic.toFixed(1)}</td>
+                <td>{r.aicc === null ? '—' : r.aicc.toFixed(1)}</td>
                 <td>{r.bic.toFixed(1)}</td>
                 <td>{r.deltaAic.toFixed(1)}</td>
               </tr>
@@ -59,9 +61,15 @@ export function TrajectoryCard({
             {m.parameters
               .map(
                 (q) =>
-                  `${q.name} = ${q.estimate.toPrecision(3)} ± ${q.se.toPrecision(2)}${q.poorlyDetermined ? ' (poorly determined)' : ''}`,
+                  `${q.name} = ${q.estimate.toPrecision(3)} (95% ${q.ci[0].toPrecision(3)} to ${q.ci[1].toPrecision(3)})${q.poorlyDetermined ? ' (poorly determined: the interval contains 0)' : ''}`,
               )
               .join(', ')}
+            {(() => {
+              const vs = m.model === 'hyperbolic' ? t.vsNull.hyperbolic : t.vsNull.powerLaw;
+              return vs
+                ? `; against W = 1: F(${vs.df1}, ${vs.df2}) = ${vs.f.toFixed(2)}, p ${vs.p < 0.001 ? '< 0.001' : `= ${vs.p.toFixed(3)}`}`
+                : '';
+            })()}
           </p>
         ) : (
           <p key={m.model} className="muted">

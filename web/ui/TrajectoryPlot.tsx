@@ -1,5 +1,5 @@
 import type { Ref } from 'react';
-import type { AnalysedAssay, LineTrajectory } from '../../fitness/analysis.ts';
+import type { AnalysedAssay, BandPoint, LineTrajectory } from '../../fitness/analysis.ts';
 import { type CurveFit, curveAt, type ModelFailure } from '../../fitness/trajectories.ts';
 import { niceTicks } from '../results/axis.ts';
 
@@ -19,8 +19,9 @@ function curvePoints(fit: CurveFit | ModelFailure, gMax: number): { g: number; w
 }
 
 /**
- * Relative fitness of one line over generations: each assay with its counting-noise interval,
- * the fitted hyperbolic and power-law curves, and the step model.
+ * Relative fitness of one line over generations: each assay with its counting-noise interval
+ * (an assay whose W is only a bound as an open triangle pointing the way the true W lies), the
+ * fitted hyperbolic and power-law curves with their 95 % bands, and the step model.
  */
 export function TrajectoryPlot({
   trajectory,
@@ -41,6 +42,13 @@ export function TrajectoryPlot({
   const y = (w: number) => H - M.bottom - ((w - yLo) / (yHi - yLo)) * (H - M.top - M.bottom);
   const line = (pts: { g: number; w: number }[]) =>
     pts.map((p, i) => `${i ? 'L' : 'M'}${x(p.g)},${y(p.w)}`).join(' ');
+  const clamp = (w: number) => Math.min(yHi, Math.max(yLo, w));
+  const band = (pts: BandPoint[] | null) =>
+    pts
+      ? `${line(pts.map((p) => ({ g: p.generation, w: clamp(p.high) })))} ${line(
+          [...pts].reverse().map((p) => ({ g: p.generation, w: clamp(p.low) })),
+        ).replace(/^M/, 'L')} Z`
+      : '';
   const step = 'reason' in trajectory.step ? null : trajectory.step;
   return (
     <svg
@@ -95,6 +103,8 @@ export function TrajectoryPlot({
           opacity={0.7}
         />
       ))}
+      <path d={band(trajectory.bands.hyperbolic)} fill="#1f3b36" opacity={0.12} />
+      <path d={band(trajectory.bands.powerLaw)} fill="#c98f0c" opacity={0.12} />
       <path
         d={line(curvePoints(trajectory.hyperbolic, gMax))}
         fill="none"
@@ -110,6 +120,21 @@ export function TrajectoryPlot({
       />
       {own.map((a, i) => {
         const gx = x(a.generation) + ((i % 3) - 1) * 4;
+        if (a.bound) {
+          // ▼ the true W is at most this; ▲ at least.
+          const d = a.bound === 'at-most' ? 5 : -5;
+          const cy = y(a.W);
+          return (
+            <path
+              key={a.assay}
+              d={`M${gx - 4},${cy - d / 2} L${gx + 4},${cy - d / 2} L${gx},${cy + d / 2} Z`}
+              fill="none"
+              stroke="#2e5a52"
+            >
+              <title>{`assay ${a.assay}: W ${a.bound === 'at-most' ? '≤' : '≥'} ${a.W.toFixed(3)} (a strain had no colony)`}</title>
+            </path>
+          );
+        }
         return (
           <g key={a.assay}>
             {a.W_ci && (

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { parseFold } from './numbers.ts';
+import { parseFold } from './fold-text.ts';
 
 describe('parseFold: dilutions as written at the bench', () => {
   it.each([
