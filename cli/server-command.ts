@@ -8,8 +8,8 @@
  *   server list-tokens LAB
  *   server revoke-token LAB ID
  */
-import { readFileSync } from 'node:fs';
-import { resolve } from 'node:path';
+import { existsSync, readFileSync } from 'node:fs';
+import { join, resolve } from 'node:path';
 import { parseArgs } from 'node:util';
 import { buildSyncServer } from '../server/app.ts';
 import { DataFolderError, openDataFolder } from '../server/data-folder.ts';
@@ -70,14 +70,19 @@ async function start(args: string[], io: CommandIo): Promise<number> {
     : undefined;
   const dataDir = resolve(io.cwd, values.data);
   const { store, file } = openDataFolder(dataDir, maxMb ? maxMb * MB : undefined);
+  const appDir = resolve(io.cwd, values.app);
   const app = await buildSyncServer({
     store,
-    appDir: resolve(io.cwd, values.app),
+    appDir,
     log: true,
     ...(tls ? { tls } : {}),
   });
   const url = await app.listen({ port, host: values.host });
   io.out(`Sync server on ${url} (data in ${file})`);
+  if (!existsSync(join(appDir, 'index.html')))
+    io.err(
+      `No built app in ${appDir}: phones get only the sync routes until "npx vite build" is run`,
+    );
 
   // Stops on Ctrl-C or a service manager's TERM, closing the database cleanly.
   await new Promise<void>((done) => {

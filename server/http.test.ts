@@ -328,9 +328,12 @@ describe('storage full', () => {
     const small = await startTestServer({ maxBytes: 256 * 1024 });
     try {
       const token = await small.lab('full');
-      // Long ids make each plate a few kilobytes: 60 of them cannot fit in 256 KiB.
-      const bulky = benchSession(60).map((c) =>
-        c.kind === 'plates' ? relabel(c, `${c.id}-${'y'.repeat(6000)}`) : c,
+      // A long note makes each analysis a few kilobytes: 60 of them cannot fit in 256 KiB.
+      const bulky = Array.from({ length: 60 }, (_, i) =>
+        changeOf('analyses', {
+          ...analysis(`mf-an-full-${i}`, `mf-plate-${i}`, 1),
+          flags: [{ kind: 'note', detail: 'y'.repeat(6000) }],
+        }),
       );
       const refused = await call<SyncErrorBody>(`${small.sync}/push`, token, {
         body: { device: 'a', changes: bulky },
@@ -348,7 +351,3 @@ describe('storage full', () => {
     }
   });
 });
-
-function relabel<C extends { id: string; body: unknown }>(change: C, id: string): C {
-  return { ...change, id, body: { ...(change.body as object), id } };
-}

@@ -3,8 +3,17 @@
  * are synchronous, which makes each transaction run start to end without another request
  * interleaving; the async interface is kept for engines that cannot do that.
  */
+import { createHash } from 'node:crypto';
 import Database from 'better-sqlite3';
-import type { PulledRecord, PushResponse, Receipt, Revision } from '../../schema/sync-protocol.ts';
+import {
+  type Cursor,
+  formatCursor,
+  type PulledRecord,
+  type PullResponse,
+  type PushResponse,
+  type Receipt,
+  type Revision,
+} from '../../schema/sync-protocol.ts';
 import { headsAfter } from '../heads.ts';
 import { SyncRefusal } from '../refusal.ts';
 import { tokenId } from '../tokens.ts';
@@ -276,6 +285,12 @@ export function openSqliteStore(options: SqliteOptions): SyncStore {
     chunks: db.prepare<[number, string], { data: Buffer }>(
       'SELECT data FROM chunks WHERE lab_id = ? AND photo_id = ? ORDER BY start',
     ),
+    chunkAt: db.prepare<[number, string, number], { data: Buffer }>(
+      'SELECT data FROM chunks WHERE lab_id = ? AND photo_id = ? AND start = ?',
+    ),
+    revisionAt: db.prepare<[number, number], { hash: string }>(
+      'SELECT hash FROM revisions WHERE lab_id = ? AND seq = ?',
+    ),
     dropChunks: db.prepare('DELETE FROM chunks WHERE lab_id = ? AND photo_id = ?'),
   };
 
@@ -321,7 +336,7 @@ export function openSqliteStore(options: SqliteOptions): SyncStore {
           device,
           now(),
         );
-        heads = headsAfter(current, change.replaces, hash);
+        heads = headsAfter(change, current, change.replaces, hash);
         q.upsertRecord.run(labId, kind, id, Number(info.lastInsertRowid), JSON.stringify(heads));
       }
       const receipt: Receipt = { kind, id, revision, hash, repeat };
@@ -330,6 +345,30 @@ export function openSqliteStore(options: SqliteOptions): SyncStore {
       else answer.accepted.push(receipt);
     }
     return answer;
+  });
+
+  /**
+   * An upload whose bytes are all in is checked against its SHA-256 here, inside the caller's
+   * transaction: marked complete, or its chunks dropped so it starts over. Done in the same
+   * transaction as the last chunk, no crash can leave all the bytes in and the photo unfinished;
+   * a file an older server left that way is finished by the next request about the photo.
+   */
+  function settleWhole(labId: number, row: UploadRow): Upload {
+    if (row.complete === 1 || row.received < row.bytes) return uploadFromRow(row);
+    const hash = createHash('sha256');
+    for (const c of q.chunks.iterate(labId, row.photo_id)) hash.update(c.data);
+    const verified = hash.digest('hex') === row.sha256;
+    if (!verified) q.dropChunks.run(labId, row.photo_id);
+    q.setReceived.run(verified ? row.bytes : 0, verified ? 1 : 0, labId, row.photo_id);
+    return {
+      ...uploadFromRow(q.upload.get(labId, row.photo_id)!),
+      ...(verified ? {} : { mismatch: true }),
+    };
+  }
+
+  const settled = db.transaction((labId: number, photoId: string): Upload | undefined => {
+    const row = q.upload.get(labId, photoId);
+    return row && settleWhole(labId, row);
   });
 
   const appendAll = db.transaction(
@@ -348,20 +387,35 @@ export function openSqliteStore(options: SqliteOptions): SyncStore {
         );
       q.insertChunk.run(labId, photoId, offset, bytes);
       q.setReceived.run(offset + bytes.length, 0, labId, photoId);
-      return uploadFromRow({ ...row, received: offset + bytes.length });
+      return settleWhole(labId, { ...row, received: offset + bytes.length });
     },
   );
 
-  const finishAll = db.transaction((labId: number, photoId: string, verified: boolean) => {
-    if (!verified) q.dropChunks.run(labId, photoId);
-    q.setReceived.run(
-      verified ? q.upload.get(labId, photoId)!.received : 0,
-      verified ? 1 : 0,
-      labId,
-      photoId,
-    );
-    return uploadFromRow(q.upload.get(labId, photoId)!);
-  });
+  /** The cursor's point in this lab's history must be a revision this database holds. */
+  function checkHistory(labId: number, since: Cursor): void {
+    if (since.seq === 0) return;
+    const at = q.revisionAt.get(labId, since.seq);
+    if (!at || (since.mark !== null && !at.hash.startsWith(since.mark)))
+      throw new SyncRefusal(
+        'cursor-unknown',
+        'this cursor is from another copy of the server database (it was restored or replaced): pull from the start and push again what the server lacks',
+      );
+  }
+
+  const cursorAt = (labId: number, seq: number): string =>
+    formatCursor({ seq, mark: seq === 0 ? null : q.revisionAt.get(labId, seq)!.hash.slice(0, 16) });
+
+  /**
+   * Bytes the answer takes as sent: the page's fixed part plus each record with its comma, all in
+   * UTF-8, so device ids and text in any script count at their real size.
+   */
+  const PAGE_OVERHEAD = Buffer.byteLength(
+    JSON.stringify({
+      records: [],
+      cursor: formatCursor({ seq: 1e15 - 1, mark: 'f'.repeat(16) }),
+      more: false,
+    }),
+  );
 
   return {
     async addLab(name: string, settings: LabSettings) {
@@ -398,26 +452,31 @@ export function openSqliteStore(options: SqliteOptions): SyncStore {
     },
     async pull(labId, since, limit, maxBytes) {
       // One read transaction, so the records and their heads are from the same moment.
-      return db.transaction(() => {
-        const rows = q.changedSince.all(labId, since, limit + 1);
+      return db.transaction((): PullResponse => {
+        checkHistory(labId, since);
+        const rows = q.changedSince.all(labId, since.seq, limit + 1);
         const records: PulledRecord[] = [];
-        let bytes = 0;
-        let last = since;
+        let bytes = PAGE_OVERHEAD;
+        let last = since.seq;
         for (const r of rows.slice(0, limit)) {
-          const heads = (JSON.parse(r.heads) as string[]).map(
-            (h) => q.revisionByHash.get(labId, r.kind, r.record_id, h)!,
-          );
-          bytes += heads.reduce((sum, h) => sum + (h.body?.length ?? 0), 0);
-          // Always at least one record, so a record larger than the budget still gets through.
-          if (records.length > 0 && bytes > maxBytes) break;
-          records.push({
+          const record: PulledRecord = {
             kind: r.kind as PulledRecord['kind'],
             id: r.record_id,
-            heads: heads.map(revisionFromRow),
-          });
+            heads: (JSON.parse(r.heads) as string[]).map((h) =>
+              revisionFromRow(q.revisionByHash.get(labId, r.kind, r.record_id, h)!),
+            ),
+          };
+          bytes += Buffer.byteLength(JSON.stringify(record)) + 1;
+          // Always at least one record, so a record larger than the budget still gets through.
+          if (records.length > 0 && bytes > maxBytes) break;
+          records.push(record);
           last = r.last_seq;
         }
-        return { records, cursor: String(last), more: rows.length > records.length };
+        return {
+          records,
+          cursor: cursorAt(labId, last),
+          more: rows.length > records.length,
+        };
       })();
     },
     async beginUpload(labId, request) {
@@ -428,7 +487,7 @@ export function openSqliteStore(options: SqliteOptions): SyncStore {
             'upload-mismatch',
             `photo ${request.photoId} was announced with other bytes; a photo id names one photo`,
           );
-        return uploadFromRow(row);
+        return guarded(() => settled(labId, request.photoId)!);
       }
       guarded(() =>
         q.insertUpload.run(
@@ -443,17 +502,21 @@ export function openSqliteStore(options: SqliteOptions): SyncStore {
       return uploadFromRow(q.upload.get(labId, request.photoId)!);
     },
     async upload(labId, photoId) {
-      const row = q.upload.get(labId, photoId);
-      return row && uploadFromRow(row);
+      return guarded(() => settled(labId, photoId));
     },
     async appendChunk(labId, photoId, offset, bytes) {
       return guarded(() => appendAll(labId, photoId, offset, bytes));
     },
-    async uploadedBytes(labId, photoId) {
-      return Buffer.concat(q.chunks.all(labId, photoId).map((c) => c.data));
-    },
-    async finishUpload(labId, photoId, verified) {
-      return finishAll(labId, photoId, verified);
+    async *photoChunks(labId, photoId) {
+      // One chunk read at a time by its offset, so a photo is never held whole in memory and no
+      // statement stays open between reads while other requests use the connection.
+      let start = 0;
+      for (;;) {
+        const chunk = q.chunkAt.get(labId, photoId, start);
+        if (!chunk) return;
+        yield chunk.data;
+        start += chunk.data.length;
+      }
     },
     async close() {
       db.close();

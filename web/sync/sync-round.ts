@@ -81,6 +81,7 @@ async function bringIn(deps: RoundDeps, pulled: PulledRecord, counts: RoundCount
 const ABOUT_THE_CHANGE: ReadonlySet<SyncFailure['code']> = new Set([
   'invalid-request',
   'too-large',
+  'too-many-heads',
 ]);
 
 /**
