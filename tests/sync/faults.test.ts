@@ -7,7 +7,6 @@
 import { createHash, randomBytes } from 'node:crypto';
 import { rmSync } from 'node:fs';
 import { request } from 'node:http';
-import { createServer } from 'node:net';
 import { join } from 'node:path';
 import Database from 'better-sqlite3';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -19,7 +18,7 @@ import type {
 } from '../../schema/sync-protocol.ts';
 import { DATABASE_FILE } from '../../server/data-folder.ts';
 import { pushArrives, pushStarted, startChildServer } from './child-server.ts';
-import { call, startTestServer, type TestServer, tempDir } from './harness.ts';
+import { call, freePort, startTestServer, type TestServer, tempDir } from './harness.ts';
 import { analysis, benchSession, changeOf } from './marrowfield.ts';
 import { makePhone } from './phone.ts';
 
@@ -367,18 +366,6 @@ describe('server process killed as a photo completes', () => {
     rmSync(dir, { recursive: true, force: true });
   });
 });
-
-/** A port free right now on 127.0.0.1, so a restarted server can come back at the same address. */
-function freePort(): Promise<number> {
-  return new Promise((done, fail) => {
-    const probe = createServer();
-    probe.once('error', fail);
-    probe.listen(0, '127.0.0.1', () => {
-      const { port } = probe.address() as { port: number };
-      probe.close(() => done(port));
-    });
-  });
-}
 
 describe('the sync client when the server dies under it', () => {
   it('keeps its outbox through the crash, and its own next round completes the push', async () => {
