@@ -1,0 +1,46 @@
+/**
+ * The README's test command, read from package.json, against the tree: every source folder is
+ * typechecked with a tsconfig of its own (a missing one fails the command instead of being
+ * skipped), and the browser is found or installed before the first test that drives it.
+ */
+import { existsSync, readdirSync, readFileSync } from 'node:fs';
+import { join, resolve } from 'node:path';
+import { describe, expect, it } from 'vitest';
+
+const ROOT = resolve(import.meta.dirname, '..');
+const scripts = (
+  JSON.parse(readFileSync(join(ROOT, 'package.json'), 'utf8')) as {
+    scripts: Record<string, string>;
+  }
+).scripts;
+
+/** Folders holding TypeScript outside the tests' own tsconfig (tests/, configs at the root). */
+function sourceFolders(): string[] {
+  const skip = new Set(['node_modules', 'dist', 'tests', '.git']);
+  return readdirSync(ROOT, { withFileTypes: true })
+    .filter((d) => d.isDirectory() && !skip.has(d.name))
+    .map((d) => d.name)
+    .filter((name) =>
+      readdirSync(join(ROOT, name), { recursive: true }).some((f) => /\.tsx?$/.test(String(f))),
+    );
+}
+
+describe('the test command', () => {
+  const realms = /for p in ([^;]+); do/.exec(scripts.typecheck ?? '')?.[1]?.split(' ') ?? [];
+
+  it('typechecks every source folder, each with its own tsconfig, failing when one is missing', () => {
+    for (const folder of sourceFolders()) expect(realms, folder).toContain(folder);
+    for (const realm of realms)
+      expect(existsSync(join(ROOT, realm, 'tsconfig.json')), realm).toBe(true);
+    // The tsconfig is named, so `tsc` itself fails on a missing one; no test of the file skips it.
+    expect(scripts.typecheck).toContain('tsc -p $p/tsconfig.json || exit 1');
+    expect(scripts.typecheck).not.toMatch(/if \[ -f/);
+  });
+
+  it('finds or installs the browser before the unit tests, which drive it too', () => {
+    const unit = scripts['test:unit'] ?? '';
+    expect(unit.indexOf('tests/e2e/ensure-chromium.sh')).toBe(0);
+    expect(unit.indexOf('vitest run')).toBeGreaterThan(0);
+    expect(scripts.test).toMatch(/npm run test:unit && npm run test:e2e$/);
+  });
+});
