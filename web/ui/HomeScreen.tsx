@@ -12,6 +12,7 @@ import { NewExperimentForm } from './NewExperimentForm.tsx';
 import { StorageCard } from './StorageCard.tsx';
 import { SyncCard } from './SyncCard.tsx';
 import { TopBar } from './TopBar.tsx';
+import { UnreadableCard } from './UnreadableCard.tsx';
 
 export function HomeScreen() {
   const services = useServices();
@@ -132,6 +133,7 @@ export function HomeScreen() {
         </section>
         <SyncCard />
         <StorageCard />
+        <UnreadableCard />
       </main>
     </>
   );
