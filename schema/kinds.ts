@@ -24,6 +24,7 @@ import {
   textOf,
   triple,
 } from './check.ts';
+import { RECORD_FORMAT } from './record-format.ts';
 import type {
   Analysis,
   Assay,
@@ -48,7 +49,14 @@ const stamp = {
     return n;
   },
   updatedAt: isoTime,
-} satisfies { [K in keyof Stamp]: Check<Stamp[K]> };
+  // Absent on records written before formats (and sent so by older phones); never another value.
+  format: (v: unknown, f: string) => {
+    if (v === undefined) return undefined;
+    if (v !== RECORD_FORMAT)
+      throw new SchemaError(f, `expected record format ${RECORD_FORMAT}, got ${String(v)}`);
+    return v;
+  },
+} satisfies { [K in keyof Stamp]-?: Check<Stamp[K]> };
 
 const classIndex = oneOf(0, 1);
 
