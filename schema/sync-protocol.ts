@@ -59,6 +59,13 @@ export const SYNC_LIMITS = {
   headsPerRecord: 64,
   /** Bytes of one photo chunk. */
   chunkBytes: 1024 * 1024,
+  /**
+   * Unfinished photo uploads one lab may have at once (`too-many-uploads` past it); one untouched
+   * for a day is dropped to make room for a new one.
+   */
+  openUploads: 16,
+  /** The largest photo size a lab may be set to take (`add-lab --photo-max-mb`). */
+  photoBytes: 100 * 1024 * 1024,
   idBytes: TEXT_BYTES.id,
   nameBytes: TEXT_BYTES.name,
   textBytes: TEXT_BYTES.text,
@@ -172,6 +179,8 @@ export const SYNC_ERRORS = {
    * a copy or replaced. The phone pulls from the start and pushes again what the server lacks.
    */
   'cursor-unknown': 410,
+  /** The lab has `SYNC_LIMITS.openUploads` unfinished photo uploads: finish one first. */
+  'too-many-uploads': 429,
   'photos-off': 403,
   'too-large': 413,
   'unsupported-type': 415,

@@ -351,3 +351,56 @@ describe('storage full', () => {
     }
   });
 });
+
+describe('per-lab quotas', () => {
+  it("one lab filling its share refuses that lab's pushes and photos, and no other lab's", async () => {
+    const full = await server.lab('quota-full', { maxBytes: 256 * 1024 });
+    const other = await server.lab('quota-other', { maxBytes: 256 * 1024 });
+    const bulky = (from: number) =>
+      Array.from({ length: 20 }, (_, i) =>
+        changeOf('analyses', {
+          ...analysis(`mf-an-q-${from + i}`, `mf-plate-${i}`, 1),
+          flags: [{ kind: 'note', detail: 'q'.repeat(8000) }],
+        }),
+      );
+    // 20 records of about 8 KB fit; the next 20 would pass 256 KiB and are refused whole.
+    expect((await push(full, { device: 'a', changes: bulky(0) })).status).toBe(200);
+    const refused = await push(full, { device: 'a', changes: bulky(20) });
+    expect(refused.status).toBe(507);
+    expect(refused.json).toMatchObject({ error: 'storage-full' });
+    expect(refused.json.message).toMatch(/lab "quota-full" holds .* of the 0\.3 MB it may use/);
+    expect(revisionCount('quota-full')).toBe(20);
+    const photo = await call<SyncErrorBody>(`${server.sync}/photos`, full, {
+      body: {
+        photoId: 'q-photo',
+        plateId: 'p',
+        bytes: 200_000,
+        type: 'image/jpeg',
+        sha256: 'a'.repeat(64),
+      },
+    });
+    expect(photo.json.error).toBe('storage-full');
+    // The other lab is untouched by it.
+    expect((await push(other, { device: 'b', changes: bulky(0) })).status).toBe(200);
+  });
+
+  it('holds at most 16 unfinished uploads per lab', async () => {
+    const token = await server.lab('open-uploads');
+    const announce = (i: number) =>
+      call<SyncErrorBody>(`${server.sync}/photos`, token, {
+        body: {
+          photoId: `open-${i}`,
+          plateId: 'p',
+          bytes: 10,
+          type: 'image/jpeg',
+          sha256: 'b'.repeat(64),
+        },
+      });
+    for (let i = 0; i < SYNC_LIMITS.openUploads; i++) expect((await announce(i)).status).toBe(200);
+    const more = await announce(99);
+    expect(more.status).toBe(429);
+    expect(more.json.error).toBe('too-many-uploads');
+    // Announcing one already open again is not a new upload.
+    expect((await announce(3)).status).toBe(200);
+  });
+});

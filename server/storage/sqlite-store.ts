@@ -8,11 +8,13 @@ import Database from 'better-sqlite3';
 import {
   type Cursor,
   formatCursor,
+  type PhotoUploadRequest,
   type PulledRecord,
   type PullResponse,
   type PushResponse,
   type Receipt,
   type Revision,
+  SYNC_LIMITS,
 } from '../../schema/sync-protocol.ts';
 import { headsAfter } from '../heads.ts';
 import { SyncRefusal } from '../refusal.ts';
@@ -98,7 +100,31 @@ const MIGRATIONS = [
   `ALTER TABLE tokens ADD COLUMN label TEXT;
    ALTER TABLE tokens ADD COLUMN last_used_on TEXT;
    ALTER TABLE tokens ADD COLUMN revoked_at TEXT;`,
+  // Labs get a storage cap of their own (none for existing labs) and a count of the bytes they
+  // hold, reckoned as STORED_BYTES reckons them; uploads note when they were last touched, so
+  // one abandoned long ago can make room for a new one.
+  `ALTER TABLE labs ADD COLUMN max_bytes INTEGER;
+   ALTER TABLE labs ADD COLUMN used_bytes INTEGER NOT NULL DEFAULT 0;
+   ALTER TABLE uploads ADD COLUMN touched_at TEXT;
+   UPDATE labs SET used_bytes =
+     coalesce((SELECT sum(length(CAST(coalesce(body, '') AS BLOB)) + length(CAST(device AS BLOB))
+                          + length(CAST(record_id AS BLOB)) + 100)
+               FROM revisions WHERE revisions.lab_id = labs.id), 0)
+     + coalesce((SELECT sum(length(data)) FROM chunks WHERE chunks.lab_id = labs.id), 0);`,
 ];
+
+/**
+ * The bytes a stored revision counts against its lab: its body, device and id as UTF-8, and a
+ * fixed part for the hash, times and row (the migration above reckons the same in SQL).
+ */
+function storedBytes(body: string | null, device: string, id: string): number {
+  return Buffer.byteLength(body ?? '') + Buffer.byteLength(device) + Buffer.byteLength(id) + 100;
+}
+
+const mb = (bytes: number) => `${(bytes / (1024 * 1024)).toFixed(1)} MB`;
+
+/** An unfinished upload untouched this long may be dropped to make room for a new one. */
+const ABANDONED_MS = 24 * 60 * 60 * 1000;
 
 /** A file from a newer server than this one is refused on open. */
 const SCHEMA_VERSION = MIGRATIONS.length;
@@ -108,6 +134,8 @@ interface LabRow {
   name: string;
   photos_enabled: number;
   photo_max_bytes: number;
+  max_bytes: number | null;
+  used_bytes: number;
 }
 
 interface TokenRow {
@@ -148,6 +176,7 @@ const labFromRow = (r: LabRow): Lab => ({
   name: r.name,
   photosEnabled: r.photos_enabled === 1,
   photoMaxBytes: r.photo_max_bytes,
+  maxBytes: r.max_bytes,
 });
 
 const tokenFromRow = (r: TokenRow): TokenInfo => ({
@@ -228,8 +257,17 @@ export function openSqliteStore(options: SqliteOptions): SyncStore {
     labByName: db.prepare<[string], LabRow>('SELECT * FROM labs WHERE name = ?'),
     labById: db.prepare<[number], LabRow>('SELECT * FROM labs WHERE id = ?'),
     insertLab: db.prepare(
-      'INSERT INTO labs (name, photos_enabled, photo_max_bytes, created_at) VALUES (?, ?, ?, ?)',
+      'INSERT INTO labs (name, photos_enabled, photo_max_bytes, max_bytes, created_at) VALUES (?, ?, ?, ?, ?)',
     ),
+    addUsed: db.prepare('UPDATE labs SET used_bytes = used_bytes + ? WHERE id = ?'),
+    openUploads: db.prepare<
+      [number],
+      { photo_id: string; bytes: number; received: number; touched_at: string | null }
+    >(
+      'SELECT photo_id, bytes, received, touched_at FROM uploads WHERE lab_id = ? AND complete = 0 ORDER BY touched_at',
+    ),
+    dropUpload: db.prepare('DELETE FROM uploads WHERE lab_id = ? AND photo_id = ?'),
+    touchUpload: db.prepare('UPDATE uploads SET touched_at = ? WHERE lab_id = ? AND photo_id = ?'),
     insertToken: db.prepare(
       'INSERT INTO tokens (hash, lab_id, created_at, label) VALUES (?, ?, ?, ?)',
     ),
@@ -315,8 +353,26 @@ export function openSqliteStore(options: SqliteOptions): SyncStore {
     return matching.map(tokenFromRow);
   });
 
+  /**
+   * Refuses, inside the caller's transaction, `bytes` more for a lab past its cap. Bytes announced
+   * by its unfinished uploads and not yet received are held for them, as if already used.
+   */
+  function mustFit(labId: number, bytes: number): void {
+    const lab = q.labById.get(labId)!;
+    const held = q.openUploads.all(labId).reduce((sum, u) => sum + u.bytes - u.received, 0);
+    if (lab.max_bytes !== null && lab.used_bytes + held + bytes > lab.max_bytes)
+      throw new SyncRefusal(
+        'storage-full',
+        `lab "${lab.name}" holds ${mb(lab.used_bytes + held)} of the ${mb(lab.max_bytes)} it may use on this server, and this needs ${mb(bytes)}: nothing was stored`,
+      );
+  }
+
+  /** Counts bytes stored (or dropped, when negative) against the lab. */
+  const charge = (labId: number, bytes: number) => q.addUsed.run(bytes, labId);
+
   const pushAll = db.transaction((labId: number, device: string, changes: HashedChange[]) => {
     const answer: PushResponse = { accepted: [], conflicts: [] };
+    let added = 0;
     for (const { change, hash } of changes) {
       const { kind, id, revision } = change;
       const row = q.recordHeads.get(labId, kind, id);
@@ -324,6 +380,7 @@ export function openSqliteStore(options: SqliteOptions): SyncStore {
       const repeat = q.revisionExists.get(labId, kind, id, hash) !== undefined;
       let heads = current;
       if (!repeat) {
+        const body = change.body === null ? null : JSON.stringify(change.body);
         const info = q.insertRevision.run(
           labId,
           kind,
@@ -332,10 +389,11 @@ export function openSqliteStore(options: SqliteOptions): SyncStore {
           revision,
           change.updatedAt,
           change.deleted ? 1 : 0,
-          change.body === null ? null : JSON.stringify(change.body),
+          body,
           device,
           now(),
         );
+        added += storedBytes(body, device, id);
         heads = headsAfter(change, current, change.replaces, hash);
         q.upsertRecord.run(labId, kind, id, Number(info.lastInsertRowid), JSON.stringify(heads));
       }
@@ -344,6 +402,8 @@ export function openSqliteStore(options: SqliteOptions): SyncStore {
       if (heads.length > 1 && heads.includes(hash)) answer.conflicts.push(receipt);
       else answer.accepted.push(receipt);
     }
+    mustFit(labId, added);
+    charge(labId, added);
     return answer;
   });
 
@@ -358,7 +418,10 @@ export function openSqliteStore(options: SqliteOptions): SyncStore {
     const hash = createHash('sha256');
     for (const c of q.chunks.iterate(labId, row.photo_id)) hash.update(c.data);
     const verified = hash.digest('hex') === row.sha256;
-    if (!verified) q.dropChunks.run(labId, row.photo_id);
+    if (!verified) {
+      q.dropChunks.run(labId, row.photo_id);
+      charge(labId, -row.received);
+    }
     q.setReceived.run(verified ? row.bytes : 0, verified ? 1 : 0, labId, row.photo_id);
     return {
       ...uploadFromRow(q.upload.get(labId, row.photo_id)!),
@@ -387,9 +450,51 @@ export function openSqliteStore(options: SqliteOptions): SyncStore {
         );
       q.insertChunk.run(labId, photoId, offset, bytes);
       q.setReceived.run(offset + bytes.length, 0, labId, photoId);
+      q.touchUpload.run(now(), labId, photoId);
+      // The announced bytes were held for this upload already: the chunk only turns them into use.
+      charge(labId, bytes.length);
       return settleWhole(labId, { ...row, received: offset + bytes.length });
     },
   );
+
+  const begin = db.transaction((labId: number, request: PhotoUploadRequest): Upload => {
+    const row = q.upload.get(labId, request.photoId);
+    if (row) {
+      if (row.sha256 !== request.sha256 || row.bytes !== request.bytes)
+        throw new SyncRefusal(
+          'upload-mismatch',
+          `photo ${request.photoId} was announced with other bytes; a photo id names one photo`,
+        );
+      q.touchUpload.run(now(), labId, request.photoId);
+      return settleWhole(labId, row);
+    }
+    const open = q.openUploads.all(labId);
+    if (open.length >= SYNC_LIMITS.openUploads) {
+      // Untouched for a day: its phone has given up on it (a phone resumes within its rounds).
+      const oldest = open[0]!;
+      const touched = oldest.touched_at === null ? 0 : Date.parse(oldest.touched_at);
+      if (Date.now() - touched < ABANDONED_MS)
+        throw new SyncRefusal(
+          'too-many-uploads',
+          `${open.length} photo uploads of this lab are unfinished; finish them before starting another`,
+        );
+      q.dropChunks.run(labId, oldest.photo_id);
+      q.dropUpload.run(labId, oldest.photo_id);
+      charge(labId, -oldest.received);
+    }
+    // The announced bytes are held against the lab's cap before any arrive.
+    mustFit(labId, request.bytes);
+    q.insertUpload.run(
+      labId,
+      request.photoId,
+      request.plateId,
+      request.bytes,
+      request.type,
+      request.sha256,
+    );
+    q.touchUpload.run(now(), labId, request.photoId);
+    return uploadFromRow(q.upload.get(labId, request.photoId)!);
+  });
 
   /** The cursor's point in this lab's history must be a revision this database holds. */
   function checkHistory(labId: number, since: Cursor): void {
@@ -422,7 +527,13 @@ export function openSqliteStore(options: SqliteOptions): SyncStore {
       if (q.labByName.get(name))
         throw new SyncRefusal('invalid-request', `a lab named "${name}" exists already`);
       const info = guarded(() =>
-        q.insertLab.run(name, settings.photosEnabled ? 1 : 0, settings.photoMaxBytes, now()),
+        q.insertLab.run(
+          name,
+          settings.photosEnabled ? 1 : 0,
+          settings.photoMaxBytes,
+          settings.maxBytes ?? null,
+          now(),
+        ),
       );
       return labFromRow(q.labById.get(Number(info.lastInsertRowid))!);
     },
@@ -480,26 +591,7 @@ export function openSqliteStore(options: SqliteOptions): SyncStore {
       })();
     },
     async beginUpload(labId, request) {
-      const row = q.upload.get(labId, request.photoId);
-      if (row) {
-        if (row.sha256 !== request.sha256 || row.bytes !== request.bytes)
-          throw new SyncRefusal(
-            'upload-mismatch',
-            `photo ${request.photoId} was announced with other bytes; a photo id names one photo`,
-          );
-        return guarded(() => settled(labId, request.photoId)!);
-      }
-      guarded(() =>
-        q.insertUpload.run(
-          labId,
-          request.photoId,
-          request.plateId,
-          request.bytes,
-          request.type,
-          request.sha256,
-        ),
-      );
-      return uploadFromRow(q.upload.get(labId, request.photoId)!);
+      return guarded(() => begin(labId, request));
     },
     async upload(labId, photoId) {
       return guarded(() => settled(labId, photoId));

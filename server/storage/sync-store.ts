@@ -18,9 +18,16 @@ export interface Lab {
   name: string;
   photosEnabled: boolean;
   photoMaxBytes: number;
+  /**
+   * The most bytes the lab's records and photos may take on the server, so one lab cannot fill
+   * it for every other; null for no cap of its own (labs made before caps existed).
+   */
+  maxBytes: number | null;
 }
 
-export type LabSettings = Pick<Lab, 'photosEnabled' | 'photoMaxBytes'>;
+export type LabSettings = Pick<Lab, 'photosEnabled' | 'photoMaxBytes'> & {
+  maxBytes?: number | null;
+};
 
 /** A lab token as its operator sees it: never the token itself, never its whole hash. */
 export interface TokenInfo {
@@ -71,7 +78,10 @@ export interface SyncStore {
    */
   tokenAccess(tokenHash: string): Promise<TokenAccess | undefined>;
 
-  /** Applies a whole push in one transaction; a repeat of a stored revision writes nothing. */
+  /**
+   * Applies a whole push in one transaction; a repeat of a stored revision writes nothing. A push
+   * that would take the lab past its `maxBytes` is refused whole (`storage-full`).
+   */
   push(labId: number, device: string, changes: HashedChange[]): Promise<PushResponse>;
   /**
    * Records whose heads changed after `since`, oldest change first: at most `limit` of them, and
@@ -81,7 +91,10 @@ export interface SyncStore {
   pull(labId: number, since: Cursor, limit: number, maxBytes: number): Promise<PullResponse>;
 
   /**
-   * Starts an upload, or returns the one already started for the same photo. This and `upload`
+   * Starts an upload, or returns the one already started for the same photo. Refuses a lab that
+   * has `SYNC_LIMITS.openUploads` unfinished uploads touched within a day (`too-many-uploads`;
+   * an older one is dropped to make room), and one whose announced bytes would not fit its
+   * `maxBytes` (`storage-full`). This and `upload`
    * finish an upload whose bytes are all in but which is not yet complete (left by a crash of an
    * older server), as `appendChunk` would have.
    */

@@ -93,6 +93,7 @@ export function describeFailure(failure: SyncFailure): SyncProblem {
     case 'upload-mismatch':
     case 'photos-off':
     case 'too-many-heads':
+    case 'too-many-uploads':
       return say(`The lab server refused a change: ${failure.message}`);
   }
 }
