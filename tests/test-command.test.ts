@@ -3,6 +3,7 @@
  * typechecked with a tsconfig of its own (a missing one fails the command instead of being
  * skipped), and the browser is found or installed before the first test that drives it.
  */
+import { spawnSync } from 'node:child_process';
 import { existsSync, readdirSync, readFileSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import { describe, expect, it } from 'vitest';
@@ -42,5 +43,20 @@ describe('the test command', () => {
     expect(unit.indexOf('tests/e2e/ensure-chromium.sh')).toBe(0);
     expect(unit.indexOf('vitest run')).toBeGreaterThan(0);
     expect(scripts.test).toMatch(/npm run test:unit && npm run test:e2e$/);
+  });
+
+  it('says clearly when the browser it is pointed at is not there, and goes on when it is', () => {
+    const ensure = (path: string) =>
+      spawnSync('bash', [join(ROOT, 'tests/e2e/ensure-chromium.sh')], {
+        env: { ...process.env, RIVALPLATE_CHROMIUM: path },
+        encoding: 'utf8',
+      });
+    const missing = ensure('/nonexistent/chromium');
+    expect(missing.status).toBe(1);
+    expect(missing.stderr).toContain(
+      'RIVALPLATE_CHROMIUM=/nonexistent/chromium is not an executable file',
+    );
+    // Any executable stands in for the browser here: the script checks that it can run it.
+    expect(ensure(process.execPath).status).toBe(0);
   });
 });
