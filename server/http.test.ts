@@ -15,6 +15,7 @@ import {
   revised,
   tombstoneOf,
 } from '../tests/sync/marrowfield.ts';
+import { REVISIONS_KEPT } from './storage/sync-store.ts';
 
 let server: TestServer;
 beforeAll(async () => {
@@ -402,5 +403,34 @@ describe('per-lab quotas', () => {
     expect(more.json.error).toBe('too-many-uploads');
     // Announcing one already open again is not a new upload.
     expect((await announce(3)).status).toBe(200);
+  });
+});
+
+describe('revisions kept', () => {
+  it(`keeps the newest ${REVISIONS_KEPT} revisions of a record and its heads, and counts what it dropped`, async () => {
+    const token = await server.lab('kept');
+    // A second head, pushed first on no base, stays however old it gets among the revisions.
+    const side = revised(plate('mf-plate-kept'), { reviewed: true }, 0);
+    await push(token, { device: 'b', changes: [changeOf('plates', side, [])] });
+    let current = plate('mf-plate-kept');
+    let replaces: string[] = [];
+    for (let i = 0; i < REVISIONS_KEPT + 30; i++) {
+      if (i > 0) current = revised(current, { volumeUl: 100 + i }, i);
+      const answer = await push(token, {
+        device: 'a',
+        changes: [changeOf('plates', current, replaces)],
+      });
+      replaces = [...answer.json.accepted, ...answer.json.conflicts].map((r) => r.hash);
+    }
+    expect(revisionCount('kept')).toBe(REVISIONS_KEPT + 1);
+    const { json } = await pull(token);
+    expect(json.records[0]!.heads.map((h) => h.revision).sort((x, y) => x - y)).toEqual([2, 130]);
+    expect(server.rows("SELECT used_bytes AS n FROM labs WHERE name = 'kept'")).toEqual(
+      server.rows(
+        `SELECT sum(length(CAST(coalesce(body, '') AS BLOB)) + length(CAST(device AS BLOB))
+                    + length(CAST(record_id AS BLOB)) + 100) AS n
+         FROM revisions JOIN labs ON labs.id = lab_id WHERE labs.name = 'kept'`,
+      ),
+    );
   });
 });

@@ -28,6 +28,7 @@ import type {
   TokenInfo,
   Upload,
 } from './sync-store.ts';
+import { REVISIONS_KEPT } from './sync-store.ts';
 
 /** The tables of the first version; later versions change them by the steps in MIGRATIONS. */
 const TABLES = `
@@ -286,6 +287,15 @@ export function openSqliteStore(options: SqliteOptions): SyncStore {
     revokeToken: db.prepare(
       'UPDATE tokens SET revoked_at = ? WHERE hash = ? AND revoked_at IS NULL',
     ),
+    /** A record's revisions past the newest REVISIONS_KEPT, as the rows to drop. */
+    beyondKept: db.prepare<
+      [number, string, string, number],
+      { seq: number; hash: string; body: string | null; device: string }
+    >(
+      `SELECT seq, hash, body, device FROM revisions WHERE lab_id = ? AND kind = ? AND record_id = ?
+       ORDER BY seq DESC LIMIT -1 OFFSET ?`,
+    ),
+    dropRevision: db.prepare('DELETE FROM revisions WHERE seq = ?'),
     revisionExists: db.prepare<[number, string, string, string], { seq: number }>(
       'SELECT seq FROM revisions WHERE lab_id = ? AND kind = ? AND record_id = ? AND hash = ?',
     ),
@@ -396,6 +406,11 @@ export function openSqliteStore(options: SqliteOptions): SyncStore {
         added += storedBytes(body, device, id);
         heads = headsAfter(change, current, change.replaces, hash);
         q.upsertRecord.run(labId, kind, id, Number(info.lastInsertRowid), JSON.stringify(heads));
+        for (const old of q.beyondKept.all(labId, kind, id, REVISIONS_KEPT)) {
+          if (heads.includes(old.hash)) continue;
+          q.dropRevision.run(old.seq);
+          added -= storedBytes(old.body, old.device, id);
+        }
       }
       const receipt: Receipt = { kind, id, revision, hash, repeat };
       // A repeat whose revision was later replaced was accepted back then: say so again.

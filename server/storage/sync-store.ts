@@ -29,6 +29,14 @@ export type LabSettings = Pick<Lab, 'photosEnabled' | 'photoMaxBytes'> & {
   maxBytes?: number | null;
 };
 
+/**
+ * Revisions kept of one record. Older ones that are no longer heads are dropped as new ones
+ * arrive: a pull only ever sends heads, so they serve nothing but the repeat check of a push
+ * retried very late (which then stores it again, as a head beside the others: a conflict, not a
+ * loss), and without a limit one record edited for years would grow without end.
+ */
+export const REVISIONS_KEPT = 100;
+
 /** A lab token as its operator sees it: never the token itself, never its whole hash. */
 export interface TokenInfo {
   /** Names the token in `list-tokens` and `revoke-token` (tokens.ts, `tokenId`). */
