@@ -86,6 +86,10 @@ describe('rivalplate server add-lab / add-token', () => {
     expect(io.errors()).toContain('no lab named "Pond B"');
     expect(await run(['add-lab', 'X', '--photo-max-mb', 'lots'], io)).toBe(2);
     expect(io.errors()).toContain('--photo-max-mb expects a whole number above 0, got "lots"');
+    expect(await run(['add-lab', 'X', '--photo-max-mb', '5000'], io)).toBe(2);
+    expect(io.errors()).toContain('--photo-max-mb is at most 100, got 5000');
+    expect(await run(['add-lab', 'X', '--max-mb', '0'], io)).toBe(2);
+    expect(io.errors()).toContain('--max-mb expects a whole number above 0, got "0"');
     expect(await run(['start', '--colour', 'blue'], io)).toBe(2);
     expect(io.errors()).toContain("Unknown option '--colour'");
     expect(await run(['nothing'], io)).toBe(2);

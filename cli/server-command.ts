@@ -3,14 +3,15 @@
  *
  *   server start [--port N] [--host H] [--data DIR] [--app DIR] [--tls-cert F --tls-key F]
  *                [--max-db-mb N]
- *   server add-lab NAME [--no-photos] [--photo-max-mb N]
+ *   server add-lab NAME [--no-photos] [--photo-max-mb N] [--max-mb N]
  *   server add-token LAB [--label TEXT]
  *   server list-tokens LAB
  *   server revoke-token LAB ID
  */
-import { readFileSync } from 'node:fs';
-import { resolve } from 'node:path';
+import { existsSync, readFileSync } from 'node:fs';
+import { join, resolve } from 'node:path';
 import { parseArgs } from 'node:util';
+import { SYNC_LIMITS } from '../schema/sync-protocol.ts';
 import { buildSyncServer } from '../server/app.ts';
 import { DataFolderError, openDataFolder } from '../server/data-folder.ts';
 import { SyncRefusal } from '../server/refusal.ts';
@@ -22,7 +23,7 @@ import { addToken, listTokens, revokeToken } from './token-commands.ts';
 const USAGE = `Usage:
   rivalplate server start [--port 8640] [--host 127.0.0.1] [--data DIR] [--app DIR]
                           [--tls-cert FILE --tls-key FILE] [--max-db-mb N]
-  rivalplate server add-lab NAME [--no-photos] [--photo-max-mb 20] [--data DIR]
+  rivalplate server add-lab NAME [--no-photos] [--photo-max-mb 20] [--max-mb 2048] [--data DIR]
   rivalplate server add-token LAB [--label TEXT] [--data DIR]
   rivalplate server list-tokens LAB [--data DIR]
   rivalplate server revoke-token LAB ID [--data DIR]
@@ -30,6 +31,8 @@ const USAGE = `Usage:
 add-token prints the token once, on its last line; list-tokens shows each token's id, label,
 dates and whether it is revoked; revoke-token takes an id from that list.`;
 const DEFAULT_PORT = 8640;
+/** A lab's share of the server unless `add-lab --max-mb` says otherwise. */
+const DEFAULT_LAB_MB = 2048;
 const MB = 1024 * 1024;
 
 /** A whole number option, or an error message naming it. */
@@ -70,14 +73,19 @@ async function start(args: string[], io: CommandIo): Promise<number> {
     : undefined;
   const dataDir = resolve(io.cwd, values.data);
   const { store, file } = openDataFolder(dataDir, maxMb ? maxMb * MB : undefined);
+  const appDir = resolve(io.cwd, values.app);
   const app = await buildSyncServer({
     store,
-    appDir: resolve(io.cwd, values.app),
+    appDir,
     log: true,
     ...(tls ? { tls } : {}),
   });
   const url = await app.listen({ port, host: values.host });
   io.out(`Sync server on ${url} (data in ${file})`);
+  if (!existsSync(join(appDir, 'index.html')))
+    io.err(
+      `No built app in ${appDir}: phones get only the sync routes until "npx vite build" is run`,
+    );
 
   // Stops on Ctrl-C or a service manager's TERM, closing the database cleanly.
   await new Promise<void>((done) => {
@@ -102,19 +110,34 @@ async function addLab(args: string[], io: CommandIo): Promise<number> {
       ...DATA_OPTION,
       'no-photos': { type: 'boolean', default: false },
       'photo-max-mb': { type: 'string' },
+      'max-mb': { type: 'string' },
     },
   });
   const name = positionals[0]?.trim();
-  const maxMb = wholeNumber('photo-max-mb', values['photo-max-mb'], 20);
-  if (!name || positionals.length > 1 || typeof maxMb === 'string') {
-    io.err(typeof maxMb === 'string' ? `rivalplate server: ${maxMb}` : USAGE);
+  const photoCap = SYNC_LIMITS.photoBytes / MB;
+  const photoMb = wholeNumber('photo-max-mb', values['photo-max-mb'], 20);
+  const labMb = wholeNumber('max-mb', values['max-mb'], DEFAULT_LAB_MB);
+  const wrong =
+    typeof photoMb === 'string'
+      ? photoMb
+      : typeof labMb === 'string'
+        ? labMb
+        : photoMb > photoCap
+          ? `--photo-max-mb is at most ${photoCap}, got ${photoMb}`
+          : null;
+  if (!name || positionals.length > 1 || wrong !== null) {
+    io.err(wrong !== null ? `rivalplate server: ${wrong}` : USAGE);
     return 2;
   }
   const { store } = openDataFolder(resolve(io.cwd, values.data));
   try {
-    await store.addLab(name, { photosEnabled: !values['no-photos'], photoMaxBytes: maxMb * MB });
+    await store.addLab(name, {
+      photosEnabled: !values['no-photos'],
+      photoMaxBytes: (photoMb as number) * MB,
+      maxBytes: (labMb as number) * MB,
+    });
     io.out(
-      `Lab "${name}" added (photos ${values['no-photos'] ? 'stay on the phones' : `up to ${maxMb} MB each`}).`,
+      `Lab "${name}" added (photos ${values['no-photos'] ? 'stay on the phones' : `up to ${photoMb} MB each`}; up to ${labMb} MB on this server).`,
     );
     return 0;
   } finally {

@@ -25,9 +25,9 @@ function assay(start: Plate[], end: Plate[], D: number, days = 1): AssayInput {
 }
 
 describe('computeAssay', () => {
-  it('reproduces the worked example of shared/check-values.md §3', () => {
+  it('reproduces a worked example computed by hand', () => {
     // Start 50 test and 50 reference colonies, end 60 and 40, same dilution, D = 100 (values
-    // computed there by arithmetic, not published): W = ln 120 / ln 80 = 1.092529,
+    // computed by arithmetic from W = m_test / m_ref, not published): W = ln 120 / ln 80 = 1.092529,
     // r = ln 1.5 = 0.405465, s = 0.064136 per generation of the reference.
     const a = computeAssay(
       assay([plate('row 2', 1e4, 50, 50)], [plate('row 3', 1e4, 60, 40)], 100),

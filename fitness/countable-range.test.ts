@@ -7,10 +7,10 @@ import {
 } from './countable-range.ts';
 
 describe('COUNTABLE_RANGES', () => {
-  it('carries the published ranges (shared/check-values.md §1.1)', () => {
+  it('carries the published ranges', () => {
     // FDA BAM ch. 3, Aerobic Plate Count: 25–250 CFU per plate.
     expect(COUNTABLE_RANGES.bam).toMatchObject({ min: 25, max: 250 });
-    // Standard Methods 9215 (heterotrophic plate count): 30–300, from memory in check-values.md.
+    // Standard Methods 9215 (heterotrophic plate count): 30–300, from memory.
     expect(COUNTABLE_RANGES.sm9215).toMatchObject({ min: 30, max: 300 });
     // ISO 7218:2007, 90 mm dishes: 10–300.
     expect(COUNTABLE_RANGES.iso7218).toMatchObject({ min: 10, max: 300 });

@@ -2,7 +2,7 @@
  * Countable range of a plate: how many colonies (both marker colours together) a plate may carry
  * for its count to be used as is. Fewer and the Poisson noise dominates; more and colonies merge
  * or inhibit each other. The range is a lab setting; the defaults below are the published ones
- * (see shared/check-values.md §1.1 for the sources).
+ * (each checked against its source, named there, in countable-range.test.ts).
  */
 
 export interface CountableRange {

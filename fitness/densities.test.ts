@@ -19,7 +19,7 @@ describe('plate densities', () => {
       pooledCfuPerMl([38, 42].map((c) => ({ colonies: c, dilutionFold: 10, volumeMl: 1 }))),
     ).toBe(400);
     expect(plateDensity(60, 10, 1)).toBe(600);
-    // 0.1 mL of 10⁻³ with 68 colonies: 6.8×10⁵ CFU/mL (arithmetic, check-values §2).
+    // 0.1 mL of 10⁻³ with 68 colonies: 6.8×10⁵ CFU/mL (arithmetic).
     expect(plateDensity(68, 1000, 0.1)).toBeCloseTo(6.8e5, 6);
   });
 

@@ -8,7 +8,8 @@ import {
 
 describe('Student t from stdlib', () => {
   it('matches the handbook t table, t(0.975, df)', () => {
-    // NIST/SEMATECH e-Handbook t table (shared/check-values.md §6), 3 decimals.
+    // NIST/SEMATECH e-Handbook of Statistical Methods, table of critical values of Student's t,
+    // 3 decimals.
     const table: [number, number][] = [
       [1, 12.706],
       [2, 4.303],
@@ -24,7 +25,7 @@ describe('Student t from stdlib', () => {
       [30, 2.042],
     ];
     for (const [df, t] of table) expect(studentTQuantile(0.975, df)).toBeCloseTo(t, 3);
-    // df → ∞: the normal quantile 1.959964 (scipy.stats.norm.ppf(0.975), check-values §6).
+    // df → ∞: the normal quantile 1.959964 (computed with scipy.stats.norm.ppf(0.975)).
     expect(studentTQuantile(0.975, 1e7)).toBeCloseTo(1.959964, 5);
   });
 

@@ -2,9 +2,10 @@ import { describe, expect, it } from 'vitest';
 import { hashSeed, poissonDraw, poissonExactInterval, seededUniform } from './poisson.ts';
 
 describe('poissonExactInterval (Garwood)', () => {
-  it('matches the exact 95 % limits in shared/check-values.md §5', () => {
-    // Computed there with scipy.stats.chi2.ppf (scipy 1.10.1); N = 0, 10 and 25 also verified in
-    // the stored sources named there (epitools pois.exact, calculatorhub, GraphPad FAQ).
+  it('matches the exact (Garwood 1936) 95 % limits', () => {
+    // Computed with scipy.stats.chi2.ppf (scipy 1.10.1) as ½χ²(α/2; 2N) and ½χ²(1−α/2; 2N+2);
+    // N = 0, 10 and 25 agree with the documentation of epitools' pois.exact and GraphPad's
+    // QuickCalcs FAQ on the confidence interval of a count.
     const table: [number, number, number][] = [
       [0, 0, 3.6888794541139354],
       [1, 0.025317807984289876, 5.571643390938898],

@@ -3,7 +3,8 @@ import { formatForReport, roundForReport } from './rounding.ts';
 
 describe('roundForReport', () => {
   it('follows the FDA BAM ch. 3 examples', () => {
-    // BAM "Calculated Count / APC" table (shared/check-values.md §1.3).
+    // FDA Bacteriological Analytical Manual, ch. 3 (Aerobic Plate Count), table "Calculated Count /
+    // APC".
     expect(roundForReport(12_700, 'bam')).toBe(13_000);
     expect(roundForReport(12_400, 'bam')).toBe(12_000);
     expect(roundForReport(15_500, 'bam')).toBe(16_000);

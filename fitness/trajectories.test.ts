@@ -78,7 +78,7 @@ describe('curve fits against SciPy curve_fit', () => {
   });
 
   it('recovers known parameters from exact-model data with small noise', () => {
-    // Point checks (check-values §4): hyp(1000; a = 0.5, b = 1000) = 1.25,
+    // Point checks, by arithmetic from the two formulas: hyp(1000; a = 0.5, b = 1000) = 1.25,
     // pow(1000; a = 0.1, b = 0.01) = 11^0.1 = 1.270982.
     const noise = [0.002, -0.001, 0.0015, -0.002, 0.001, -0.0005, 0.0008, -0.0012];
     const ts = [0, 250, 500, 1000, 2000, 3000, 5000, 8000];

@@ -23,15 +23,69 @@ function shown(value: unknown): string {
   return Array.isArray(value) ? 'a list' : 'an object';
 }
 
-export const str: Check<string> = (v, f) => {
-  if (typeof v !== 'string') throw new SchemaError(f, `expected text, got ${shown(v)}`);
-  return v;
-};
+/**
+ * The most bytes (UTF-8) a text field may take. Without a cap, one record could make a server
+ * store megabytes of a name once per revision; the caps are far above anything typed at a bench.
+ */
+export const TEXT_BYTES = {
+  /** Record, photo and colony ids (the app makes 36-character UUIDs). */
+  id: 128,
+  /** Names: experiments, lines, colours, a phone's device id. */
+  name: 512,
+  /** Any other text field. */
+  text: 16 * 1024,
+} as const;
 
-export const nonEmpty: Check<string> = (v, f) => {
-  if (str(v, f).trim() === '') throw new SchemaError(f, 'must not be empty');
-  return v as string;
-};
+/**
+ * The length of `s` in UTF-8, or -1 when it holds a lone UTF-16 surrogate: such text has no UTF-8
+ * form, so a database would store it altered and never find it again under its own id.
+ */
+export function utf8Bytes(s: string): number {
+  let bytes = 0;
+  for (let i = 0; i < s.length; i++) {
+    const c = s.charCodeAt(i);
+    if (c < 0x80) bytes += 1;
+    else if (c < 0x800) bytes += 2;
+    else if (c < 0xd800 || c > 0xdfff) bytes += 3;
+    else {
+      const next = s.charCodeAt(i + 1);
+      if (c > 0xdbff || !(next >= 0xdc00 && next <= 0xdfff)) return -1;
+      bytes += 4;
+      i += 1;
+    }
+  }
+  return bytes;
+}
+
+/** Text of valid Unicode, at most `maxBytes` in UTF-8. */
+export function textOf(maxBytes: number): Check<string> {
+  return (v, f) => {
+    if (typeof v !== 'string') throw new SchemaError(f, `expected text, got ${shown(v)}`);
+    const bytes = utf8Bytes(v);
+    if (bytes < 0)
+      throw new SchemaError(f, 'is not valid Unicode text (it holds a lone surrogate)');
+    if (bytes > maxBytes)
+      throw new SchemaError(f, `is ${bytes} bytes long in UTF-8; at most ${maxBytes} are allowed`);
+    return v;
+  };
+}
+
+function filled(check: Check<string>): Check<string> {
+  return (v, f) => {
+    if (check(v, f).trim() === '') throw new SchemaError(f, 'must not be empty');
+    return v as string;
+  };
+}
+
+export const str: Check<string> = textOf(TEXT_BYTES.text);
+
+export const nonEmpty: Check<string> = filled(str);
+
+/** An id: not empty, at most `TEXT_BYTES.id` bytes. */
+export const idText: Check<string> = filled(textOf(TEXT_BYTES.id));
+
+/** A name: not empty, at most `TEXT_BYTES.name` bytes. */
+export const nameText: Check<string> = filled(textOf(TEXT_BYTES.name));
 
 export const bool: Check<boolean> = (v, f) => {
   if (typeof v !== 'boolean') throw new SchemaError(f, `expected true or false, got ${shown(v)}`);
@@ -56,10 +110,18 @@ export const count: Check<number> = (v, f) => {
   return n;
 };
 
+const ISO_UTC = /^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}:\d{2}\.\d{3}Z$/;
+
+/**
+ * A time in the one form `Date.prototype.toISOString` writes (RFC 3339, UTC, milliseconds):
+ * times are compared as text to find the latest edit, which is right only when all share it.
+ * The round trip also turns away dates that do not exist, such as February 30.
+ */
 export const isoTime: Check<string> = (v, f) => {
-  if (Number.isNaN(Date.parse(str(v, f))))
-    throw new SchemaError(f, `expected an ISO 8601 time, got ${shown(v)}`);
-  return v as string;
+  const text = str(v, f);
+  if (!ISO_UTC.test(text) || new Date(text).toISOString() !== text)
+    throw new SchemaError(f, `expected a UTC time as YYYY-MM-DDTHH:MM:SS.sssZ, got ${shown(v)}`);
+  return text;
 };
 
 export function oneOf<const T extends readonly (string | number)[]>(

@@ -8,9 +8,10 @@ import {
   bool,
   type Check,
   count,
+  idText,
   isoTime,
   list,
-  nonEmpty,
+  nameText,
   nullable,
   num,
   object,
@@ -19,8 +20,11 @@ import {
   positive,
   SchemaError,
   str,
+  TEXT_BYTES,
+  textOf,
   triple,
 } from './check.ts';
+import { RECORD_FORMAT } from './record-format.ts';
 import type {
   Analysis,
   Assay,
@@ -38,19 +42,26 @@ import type {
 } from './records.ts';
 
 const stamp = {
-  id: nonEmpty,
+  id: idText,
   revision: (v: unknown, f: string) => {
     const n = count(v, f);
     if (n < 1) throw new SchemaError(f, `must be 1 or more, got ${n}`);
     return n;
   },
   updatedAt: isoTime,
-} satisfies { [K in keyof Stamp]: Check<Stamp[K]> };
+  // Absent on records written before formats (and sent so by older phones); never another value.
+  format: (v: unknown, f: string) => {
+    if (v === undefined) return undefined;
+    if (v !== RECORD_FORMAT)
+      throw new SchemaError(f, `expected record format ${RECORD_FORMAT}, got ${String(v)}`);
+    return v;
+  },
+} satisfies { [K in keyof Stamp]-?: Check<Stamp[K]> };
 
 const classIndex = oneOf(0, 1);
 
 const colony = object<ColonyRecord>({
-  id: nonEmpty,
+  id: idText,
   x: num,
   y: num,
   r: positive,
@@ -71,27 +82,27 @@ const edit: Check<Edit> = (v, f) => {
   const op = oneOf('add', 'remove', 'reclass')((v as { op?: unknown } | null)?.op, `${f}.op`);
   if (op === 'add') return object<Edit & { op: 'add' }>({ op: oneOf('add'), colony })(v, f);
   if (op === 'remove')
-    return object<Edit & { op: 'remove' }>({ op: oneOf('remove'), colonyId: nonEmpty })(v, f);
+    return object<Edit & { op: 'remove' }>({ op: oneOf('remove'), colonyId: idText })(v, f);
   return object<Edit & { op: 'reclass' }>({
     op: oneOf('reclass'),
-    colonyId: nonEmpty,
+    colonyId: idText,
     cls: classIndex,
   })(v, f);
 };
 
 const experiment = object<Experiment>({
   ...stamp,
-  name: nonEmpty,
+  name: nameText,
   demo: bool,
-  lines: list(nonEmpty),
-  referenceName: nonEmpty,
+  lines: list(nameText),
+  referenceName: nameText,
   transferDilution: positive,
   defaultDilutionFold: positive,
   defaultVolumeUl: positive,
   palette: nullable(
     object({
       version: oneOf(1),
-      colours: pair(object({ name: str, hex: str, deltaLab: triple, spread: num })),
+      colours: pair(object({ name: nameText, hex: nameText, deltaLab: triple, spread: num })),
       source: oneOf('taught', 'learned'),
     }),
   ),
@@ -99,11 +110,11 @@ const experiment = object<Experiment>({
 
 const assay = object<Assay>({
   ...stamp,
-  experimentId: nonEmpty,
-  line: nonEmpty,
+  experimentId: idText,
+  line: nameText,
   generation: num,
   replicate: count,
-  group: str,
+  group: textOf(TEXT_BYTES.name),
   testClass: classIndex,
   foldDilutionSinceStart: positive,
   days: positive,
@@ -111,27 +122,27 @@ const assay = object<Assay>({
 
 const sample = object<Sample>({
   ...stamp,
-  experimentId: nonEmpty,
-  assayId: nonEmpty,
+  experimentId: idText,
+  assayId: idText,
   timepoint: oneOf('start', 'end'),
 });
 
 const plate = object<Plate>({
   ...stamp,
-  experimentId: nonEmpty,
-  assayId: nonEmpty,
-  sampleId: nonEmpty,
+  experimentId: idText,
+  assayId: idText,
+  sampleId: idText,
   dilutionFold: positive,
   volumeUl: positive,
-  photoId: nullable(nonEmpty),
+  photoId: nullable(idText),
   typedCounts: nullable(object({ test: count, reference: count })),
   reviewed: bool,
 });
 
 const photo = object<Photo>({
   ...stamp,
-  plateId: nonEmpty,
-  name: str,
+  plateId: idText,
+  name: textOf(TEXT_BYTES.name),
   blob: blob<BinaryData>,
   preview: nullable(blob<BinaryData>),
   width: nullable(positive),
@@ -140,23 +151,23 @@ const photo = object<Photo>({
 
 const analysis = object<Analysis>({
   ...stamp,
-  plateId: nonEmpty,
-  photoId: nonEmpty,
+  plateId: idText,
+  photoId: idText,
   width: positive,
   height: positive,
   agarLab: triple,
   dish: nullable(object({ cx: num, cy: num, rx: positive, ry: positive, angleDeg: num })),
   colonies: list(colony),
-  classes: pair(object({ cls: classIndex, name: str, hex: str, deltaLab: triple })),
-  flags: list(object({ kind: nonEmpty, detail: str })),
+  classes: pair(object({ cls: classIndex, name: nameText, hex: nameText, deltaLab: triple })),
+  flags: list(object({ kind: nameText, detail: str })),
   paletteUsed: bool,
   ms: num,
 });
 
 const corrections = object<Corrections>({
   ...stamp,
-  plateId: nonEmpty,
-  analysisId: nonEmpty,
+  plateId: idText,
+  analysisId: idText,
   edits: list(edit),
   undone: list(edit),
 });

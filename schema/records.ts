@@ -15,6 +15,8 @@ export interface Stamp {
   revision: number;
   /** ISO 8601 time of the last change. */
   updatedAt: string;
+  /** The record's format (record-format.ts); absent on records from before formats. */
+  format?: number;
 }
 
 export interface PaletteColourRecord {

@@ -5,13 +5,15 @@
  */
 import { SchemaError } from './check.ts';
 import { KINDS } from './kinds.ts';
+import { upgradeRecord } from './record-format.ts';
 import type { RecordKind, RecordsByKind } from './records.ts';
 
 export type Restored<T> = { ok: true; record: T } | { ok: false; error: string };
 
 /**
  * `where` names the source for the message, e.g. "backup.json, assays[3]".
- * The returned record holds only the known fields; unknown ones are dropped.
+ * A record of an older format is upgraded first (record-format.ts). The returned record holds
+ * only the known fields; unknown ones are dropped.
  */
 export function restoreRecord<K extends RecordKind>(
   kind: K,
@@ -19,7 +21,7 @@ export function restoreRecord<K extends RecordKind>(
   where: string,
 ): Restored<RecordsByKind[K]> {
   try {
-    return { ok: true, record: KINDS[kind].check(raw, '') };
+    return { ok: true, record: KINDS[kind].check(upgradeRecord(kind, raw), '') };
   } catch (e) {
     if (e instanceof SchemaError) return { ok: false, error: `${where}: ${e.message}` };
     throw e;

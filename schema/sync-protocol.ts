@@ -13,13 +13,16 @@ import {
   bool,
   type Check,
   count,
+  idText,
   isoTime,
   list,
+  nameText,
   nonEmpty,
   object,
   oneOf,
   SchemaError,
   str,
+  TEXT_BYTES,
 } from './check.ts';
 import { KINDS, RECORD_KINDS } from './kinds.ts';
 import type { RecordKind, RecordsByKind } from './records.ts';
@@ -28,6 +31,13 @@ import type { RecordKind, RecordsByKind } from './records.ts';
 export const SYNC_PROTOCOL = 1;
 export const SYNC_BASE_PATH = `/sync/v${SYNC_PROTOCOL}`;
 
+/**
+ * Every limit the server keeps to, refused on the way in with a message naming the field. Text is
+ * counted in UTF-8 bytes, and must be valid Unicode (no lone UTF-16 surrogates, which have no
+ * UTF-8 form): record ids, photo ids and every id a record names at most `idBytes`; the device id
+ * and names (experiments, lines, colours) at most `nameBytes`; any other text field at most
+ * `textBytes`. Times are UTC in the one form `toISOString` writes.
+ */
 export const SYNC_LIMITS = {
   /** Changes in one push; a client sends a longer outbox as several pushes. */
   changesPerPush: 200,
@@ -35,10 +45,30 @@ export const SYNC_LIMITS = {
   pushBytes: 8 * 1024 * 1024,
   /** Records in one pull answer. */
   recordsPerPull: 500,
-  /** Bytes of record bodies in one pull answer, so a phone on a poor network gets it whole. */
+  /**
+   * Bytes of one pull answer as sent (UTF-8 JSON, everything counted: bodies, device ids, hashes),
+   * so a phone on a poor network gets it whole. A single record larger than this still comes,
+   * alone on its page, or it could never be pulled.
+   */
   pullBytes: 4 * 1024 * 1024,
+  /**
+   * Heads one record may have: that many unresolved versions at once. A push that would give a
+   * record one more is refused (`too-many-heads`) and stays on the phone; a resolution, which
+   * replaces the heads, is always taken.
+   */
+  headsPerRecord: 64,
   /** Bytes of one photo chunk. */
   chunkBytes: 1024 * 1024,
+  /**
+   * Unfinished photo uploads one lab may have at once (`too-many-uploads` past it); one untouched
+   * for a day is dropped to make room for a new one.
+   */
+  openUploads: 16,
+  /** The largest photo size a lab may be set to take (`add-lab --photo-max-mb`). */
+  photoBytes: 100 * 1024 * 1024,
+  idBytes: TEXT_BYTES.id,
+  nameBytes: TEXT_BYTES.name,
+  textBytes: TEXT_BYTES.text,
 } as const;
 
 /** Kinds exchanged as records; photos travel as separate chunked uploads. */
@@ -142,6 +172,15 @@ export const SYNC_ERRORS = {
   'not-found': 404,
   'wrong-offset': 409,
   'upload-mismatch': 409,
+  /** The record has `SYNC_LIMITS.headsPerRecord` unresolved versions: resolve them first. */
+  'too-many-heads': 409,
+  /**
+   * The pull's cursor is not a point in this database's history: the database was restored from
+   * a copy or replaced. The phone pulls from the start and pushes again what the server lacks.
+   */
+  'cursor-unknown': 410,
+  /** The lab has `SYNC_LIMITS.openUploads` unfinished photo uploads: finish one first. */
+  'too-many-uploads': 429,
   'photos-off': 403,
   'too-large': 413,
   'unsupported-type': 415,
@@ -191,11 +230,12 @@ function bounded<T>(check: Check<T[]>, min: number, max: number): Check<T[]> {
 
 const envelope = object<Omit<Change, 'body'>>({
   kind: syncedKind,
-  id: nonEmpty,
+  id: idText,
   revision: revisionNumber,
   updatedAt: isoTime,
   deleted: bool,
-  replaces: bounded(list(sha256Hex), 0, 16),
+  // A resolution names every head it settles, so it may name as many as a record can have.
+  replaces: bounded(list(sha256Hex), 0, SYNC_LIMITS.headsPerRecord),
 });
 
 /**
@@ -224,13 +264,13 @@ export const checkChange: Check<Change> = (v, f) => {
 };
 
 export const checkPushRequest = object<PushRequest>({
-  device: nonEmpty,
+  device: nameText,
   changes: bounded(list(checkChange), 1, SYNC_LIMITS.changesPerPush),
 });
 
 const receipt = object<Receipt>({
   kind: syncedKind,
-  id: nonEmpty,
+  id: idText,
   revision: revisionNumber,
   hash: sha256Hex,
   repeat: bool,
@@ -252,26 +292,56 @@ const revision = object<Revision>({
 
 export const checkPullResponse = object<PullResponse>({
   records: list(
-    object<PulledRecord>({ kind: syncedKind, id: nonEmpty, heads: bounded(list(revision), 1, 64) }),
+    object<PulledRecord>({
+      kind: syncedKind,
+      id: idText,
+      heads: bounded(list(revision), 1, SYNC_LIMITS.headsPerRecord),
+    }),
   ),
   cursor: str,
   more: bool,
 });
 
-/** A pull's cursor: the server's sequence number of the last revision delivered, as text. */
-export const checkCursor: Check<number> = (v, f) => {
-  const text = v === undefined ? '0' : str(v, f);
-  if (!/^\d{1,15}$/.test(text))
-    throw new SchemaError(f, `expected a cursor from an earlier pull, got ${JSON.stringify(text)}`);
+/** Text as it is quoted back in a refusal: short, so a refusal never echoes a long input. */
+const quoted = (text: string) => JSON.stringify(text.length > 24 ? `${text.slice(0, 24)}…` : text);
+
+/** A whole number written in decimal digits only (`Number` would also read "", "0x10", "1e3"). */
+function decimal(v: unknown, f: string, what: string): number {
+  const text = str(v, f);
+  if (!/^\d{1,15}$/.test(text)) throw new SchemaError(f, `expected ${what}, got ${quoted(text)}`);
   return Number(text);
+}
+
+/**
+ * Where a pull resumes: the sequence number of the last revision delivered and the start of that
+ * revision's hash, which names the point in this database's history. A database put back from an
+ * older copy numbers new revisions again from where the copy ended, so the same number then
+ * names another revision (or none), and the server can tell the cursor is not from its history.
+ */
+export interface Cursor {
+  seq: number;
+  /** 16 hex digits; null only for the start (seq 0) and for cursors of older servers. */
+  mark: string | null;
+}
+
+/** Written as `seq` alone at the start, `seq-mark` after it; opaque to the client. */
+export const formatCursor = (c: Cursor): string =>
+  c.mark === null ? String(c.seq) : `${c.seq}-${c.mark}`;
+
+export const checkCursor: Check<Cursor> = (v, f) => {
+  const text = v === undefined ? '0' : str(v, f);
+  const parts = /^(\d{1,15})(?:-([0-9a-f]{16}))?$/.exec(text);
+  if (!parts)
+    throw new SchemaError(f, `expected a cursor from an earlier pull, got ${quoted(text)}`);
+  return { seq: Number(parts[1]), mark: parts[2] ?? null };
 };
 
-export const checkPullQuery = object<{ since: number; limit: number }>({
+export const checkPullQuery = object<{ since: Cursor; limit: number }>({
   since: checkCursor,
   limit: (v, f) => {
     if (v === undefined) return SYNC_LIMITS.recordsPerPull;
-    const n = Number(str(v, f));
-    if (!Number.isInteger(n) || n < 1 || n > SYNC_LIMITS.recordsPerPull)
+    const n = decimal(v, f, `a whole number from 1 to ${SYNC_LIMITS.recordsPerPull}`);
+    if (n < 1 || n > SYNC_LIMITS.recordsPerPull)
       throw new SchemaError(f, `expected a whole number from 1 to ${SYNC_LIMITS.recordsPerPull}`);
     return n;
   },
@@ -284,8 +354,8 @@ export const checkLabInfo = object<LabInfo>({
 });
 
 export const checkPhotoUploadRequest = object<PhotoUploadRequest>({
-  photoId: nonEmpty,
-  plateId: nonEmpty,
+  photoId: idText,
+  plateId: idText,
   bytes: (v, f) => {
     const n = count(v, f);
     if (n < 1) throw new SchemaError(f, 'must be 1 or more');
@@ -296,18 +366,14 @@ export const checkPhotoUploadRequest = object<PhotoUploadRequest>({
 });
 
 export const checkPhotoUploadState = object<PhotoUploadState>({
-  photoId: nonEmpty,
+  photoId: idText,
   bytes: count,
   received: count,
   complete: bool,
 });
 
 export const checkChunkQuery = object<{ offset: number }>({
-  offset: (v, f) => {
-    const n = Number(str(v, f));
-    if (!Number.isInteger(n) || n < 0) throw new SchemaError(f, 'expected a byte offset ≥ 0');
-    return n;
-  },
+  offset: (v, f) => decimal(v, f, 'a byte offset in decimal digits'),
 });
 
 export const checkErrorBody = object<SyncErrorBody>({
@@ -315,4 +381,4 @@ export const checkErrorBody = object<SyncErrorBody>({
   message: str,
 });
 
-export const checkPhotoPath = object<{ photoId: string }>({ photoId: nonEmpty });
+export const checkPhotoPath = object<{ photoId: string }>({ photoId: idText });

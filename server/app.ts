@@ -6,8 +6,9 @@
 import Fastify, { type FastifyInstance } from 'fastify';
 import { SYNC_BASE_PATH, SYNC_PROTOCOL } from '../schema/sync-protocol.ts';
 import { requireLabToken } from './auth.ts';
-import { installErrorReply } from './error-reply.ts';
-import { SyncRefusal } from './refusal.ts';
+import { frameworkErrors, installErrorReply } from './error-reply.ts';
+import { installHeaders } from './headers.ts';
+import { quotedPath, SyncRefusal } from './refusal.ts';
 import { photoRoutes } from './routes/photo-routes.ts';
 import { recordRoutes } from './routes/record-routes.ts';
 import { serveApp } from './static-app.ts';
@@ -30,6 +31,7 @@ export async function buildSyncServer(options: SyncServerOptions): Promise<Fasti
     // A phone on a poor network may take a while over an 8 MiB push, but not forever: a request
     // that stalls longer than this is dropped, and the phone retries.
     requestTimeout: 120_000,
+    frameworkErrors,
     ...(options.tls ? { https: options.tls } : {}),
   }) as unknown as FastifyInstance;
   app.setValidatorCompiler(checkCompiler);
@@ -37,6 +39,7 @@ export async function buildSyncServer(options: SyncServerOptions): Promise<Fasti
   // type instead of being parsed into a string that then fails every check.
   app.removeContentTypeParser('text/plain');
   installErrorReply(app);
+  installHeaders(app);
 
   await app.register(
     async (scope) => {
@@ -58,7 +61,7 @@ export async function buildSyncServer(options: SyncServerOptions): Promise<Fasti
       );
     throw new SyncRefusal(
       'not-found',
-      `no sync route ${request.method} ${request.url.split('?')[0]}`,
+      `no sync route ${request.method} ${quotedPath(request.url)}`,
     );
   });
 

@@ -3,8 +3,9 @@
  * shape. Fastify's own refusals (bad JSON, body too large, wrong content type) are named in
  * plain words, so a person reading the app's sync status can tell what to fix.
  */
-import type { FastifyError, FastifyInstance } from 'fastify';
-import type { SyncErrorBody } from '../schema/sync-protocol.ts';
+import type { FastifyError, FastifyInstance, FastifyReply, FastifyRequest } from 'fastify';
+import { SYNC_LIMITS, type SyncErrorBody } from '../schema/sync-protocol.ts';
+import { drainBody } from './drain.ts';
 import { SyncRefusal } from './refusal.ts';
 
 function refusalFor(error: FastifyError): SyncRefusal {
@@ -35,10 +36,33 @@ function refusalFor(error: FastifyError): SyncRefusal {
 }
 
 export function installErrorReply(app: FastifyInstance): void {
-  app.setErrorHandler<FastifyError>((error, request, reply) => {
+  app.setErrorHandler<FastifyError>(async (error, request, reply) => {
     const refusal = refusalFor(error);
     if (refusal.code === 'server-fault') request.log.error(error);
+    // A body refused for its size is read to its end (up to twice the largest allowed), so the
+    // client gets the 413 instead of a reset connection.
+    if (refusal.code === 'too-large') await drainBody(request.raw, 2 * SYNC_LIMITS.pushBytes);
     const body: SyncErrorBody = refusal.body();
     return reply.code(refusal.status).send(body);
   });
+}
+
+/**
+ * Fastify answers a few malformed requests before any route or error handler sees them (an
+ * address with bad percent-encoding); this gives those answers the protocol's shape too.
+ */
+export function frameworkErrors(
+  error: FastifyError,
+  _request: FastifyRequest,
+  reply: FastifyReply,
+): void {
+  const refusal =
+    error.code === 'FST_ERR_BAD_URL'
+      ? new SyncRefusal(
+          'invalid-request',
+          'the address is not valid: a %-escape in it is malformed or is not UTF-8',
+        )
+      : refusalFor(error);
+  const body: SyncErrorBody = refusal.body();
+  reply.code(refusal.status).send(body);
 }

@@ -15,6 +15,7 @@ import {
   revised,
   tombstoneOf,
 } from '../tests/sync/marrowfield.ts';
+import { REVISIONS_KEPT } from './storage/sync-store.ts';
 
 let server: TestServer;
 beforeAll(async () => {
@@ -328,9 +329,12 @@ describe('storage full', () => {
     const small = await startTestServer({ maxBytes: 256 * 1024 });
     try {
       const token = await small.lab('full');
-      // Long ids make each plate a few kilobytes: 60 of them cannot fit in 256 KiB.
-      const bulky = benchSession(60).map((c) =>
-        c.kind === 'plates' ? relabel(c, `${c.id}-${'y'.repeat(6000)}`) : c,
+      // A long note makes each analysis a few kilobytes: 60 of them cannot fit in 256 KiB.
+      const bulky = Array.from({ length: 60 }, (_, i) =>
+        changeOf('analyses', {
+          ...analysis(`mf-an-full-${i}`, `mf-plate-${i}`, 1),
+          flags: [{ kind: 'note', detail: 'y'.repeat(6000) }],
+        }),
       );
       const refused = await call<SyncErrorBody>(`${small.sync}/push`, token, {
         body: { device: 'a', changes: bulky },
@@ -349,6 +353,84 @@ describe('storage full', () => {
   });
 });
 
-function relabel<C extends { id: string; body: unknown }>(change: C, id: string): C {
-  return { ...change, id, body: { ...(change.body as object), id } };
-}
+describe('per-lab quotas', () => {
+  it("one lab filling its share refuses that lab's pushes and photos, and no other lab's", async () => {
+    const full = await server.lab('quota-full', { maxBytes: 256 * 1024 });
+    const other = await server.lab('quota-other', { maxBytes: 256 * 1024 });
+    const bulky = (from: number) =>
+      Array.from({ length: 20 }, (_, i) =>
+        changeOf('analyses', {
+          ...analysis(`mf-an-q-${from + i}`, `mf-plate-${i}`, 1),
+          flags: [{ kind: 'note', detail: 'q'.repeat(8000) }],
+        }),
+      );
+    // 20 records of about 8 KB fit; the next 20 would pass 256 KiB and are refused whole.
+    expect((await push(full, { device: 'a', changes: bulky(0) })).status).toBe(200);
+    const refused = await push(full, { device: 'a', changes: bulky(20) });
+    expect(refused.status).toBe(507);
+    expect(refused.json).toMatchObject({ error: 'storage-full' });
+    expect(refused.json.message).toMatch(/lab "quota-full" holds .* of the 0\.3 MB it may use/);
+    expect(revisionCount('quota-full')).toBe(20);
+    const photo = await call<SyncErrorBody>(`${server.sync}/photos`, full, {
+      body: {
+        photoId: 'q-photo',
+        plateId: 'p',
+        bytes: 200_000,
+        type: 'image/jpeg',
+        sha256: 'a'.repeat(64),
+      },
+    });
+    expect(photo.json.error).toBe('storage-full');
+    // The other lab is untouched by it.
+    expect((await push(other, { device: 'b', changes: bulky(0) })).status).toBe(200);
+  });
+
+  it('holds at most 16 unfinished uploads per lab', async () => {
+    const token = await server.lab('open-uploads');
+    const announce = (i: number) =>
+      call<SyncErrorBody>(`${server.sync}/photos`, token, {
+        body: {
+          photoId: `open-${i}`,
+          plateId: 'p',
+          bytes: 10,
+          type: 'image/jpeg',
+          sha256: 'b'.repeat(64),
+        },
+      });
+    for (let i = 0; i < SYNC_LIMITS.openUploads; i++) expect((await announce(i)).status).toBe(200);
+    const more = await announce(99);
+    expect(more.status).toBe(429);
+    expect(more.json.error).toBe('too-many-uploads');
+    // Announcing one already open again is not a new upload.
+    expect((await announce(3)).status).toBe(200);
+  });
+});
+
+describe('revisions kept', () => {
+  it(`keeps the newest ${REVISIONS_KEPT} revisions of a record and its heads, and counts what it dropped`, async () => {
+    const token = await server.lab('kept');
+    // A second head, pushed first on no base, stays however old it gets among the revisions.
+    const side = revised(plate('mf-plate-kept'), { reviewed: true }, 0);
+    await push(token, { device: 'b', changes: [changeOf('plates', side, [])] });
+    let current = plate('mf-plate-kept');
+    let replaces: string[] = [];
+    for (let i = 0; i < REVISIONS_KEPT + 30; i++) {
+      if (i > 0) current = revised(current, { volumeUl: 100 + i }, i);
+      const answer = await push(token, {
+        device: 'a',
+        changes: [changeOf('plates', current, replaces)],
+      });
+      replaces = [...answer.json.accepted, ...answer.json.conflicts].map((r) => r.hash);
+    }
+    expect(revisionCount('kept')).toBe(REVISIONS_KEPT + 1);
+    const { json } = await pull(token);
+    expect(json.records[0]!.heads.map((h) => h.revision).sort((x, y) => x - y)).toEqual([2, 130]);
+    expect(server.rows("SELECT used_bytes AS n FROM labs WHERE name = 'kept'")).toEqual(
+      server.rows(
+        `SELECT sum(length(CAST(coalesce(body, '') AS BLOB)) + length(CAST(device AS BLOB))
+                    + length(CAST(record_id AS BLOB)) + 100) AS n
+         FROM revisions JOIN labs ON labs.id = lab_id WHERE labs.name = 'kept'`,
+      ),
+    );
+  });
+});

@@ -122,7 +122,7 @@ describe('photo uploads', () => {
     expect(json.status).toBe(400);
     expect((await chunk(token, 'nobody', 0, randomBytes(10))).status).toBe(404);
     expect((await chunk(token, 'mf-photo-6', -1, randomBytes(10))).json.message).toBe(
-      'query.offset: expected a byte offset ≥ 0',
+      'query.offset: expected a byte offset in decimal digits, got "-1"',
     );
   });
 });

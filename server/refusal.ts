@@ -21,3 +21,12 @@ export class SyncRefusal extends Error {
     return { error: this.code, message: this.message };
   }
 }
+
+/**
+ * A request's path as a refusal quotes it: without the query, and cut short, so an answer never
+ * echoes kilobytes of whatever a client put in its address.
+ */
+export function quotedPath(url: string): string {
+  const path = url.split('?')[0] ?? '';
+  return path.length > 64 ? `${path.slice(0, 64)}…` : path;
+}

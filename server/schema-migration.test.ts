@@ -93,6 +93,14 @@ describe('a database of schema version 1', () => {
   it('opens with its tokens still valid, lists them without labels, and can revoke one', async () => {
     const [kept, revoked] = [newToken(), newToken()];
     versionOneFolder([kept, revoked]);
+    const old = new Database(join(dir, DATABASE_FILE));
+    old
+      .prepare(
+        `INSERT INTO revisions (lab_id, kind, record_id, hash, revision, updated_at, deleted, body, device, received_at)
+         VALUES (1, 'plates', 'mf-old', ?, 1, '2024-03-01T09:10:00.000Z', 0, '{"note":"池塘"}', 'phone-ü', '2024-03-01T09:10:00.000Z')`,
+      )
+      .run('c'.repeat(64));
+    old.close();
 
     const server = await startTestServer({ dir });
     try {
@@ -108,7 +116,15 @@ describe('a database of schema version 1', () => {
       });
       expect(pushed.status).toBe(200);
       expect(pushed.json.accepted).toHaveLength(benchSession(1).length);
-      expect(server.rows('PRAGMA user_version')).toEqual([{ user_version: 2 }]);
+      expect(server.rows('PRAGMA user_version')).toEqual([{ user_version: 3 }]);
+      // The lab's count of stored bytes, begun by the migration over the old revision and kept
+      // by the server over the push, matches the bytes stored (UTF-8, as the server counts).
+      expect(server.rows('SELECT used_bytes AS n FROM labs')).toEqual(
+        server.rows(
+          `SELECT sum(length(CAST(coalesce(body, '') AS BLOB)) + length(CAST(device AS BLOB))
+                      + length(CAST(record_id AS BLOB)) + 100) AS n FROM revisions`,
+        ),
+      );
 
       // A second connection, as the command line opens one while the server runs.
       const { store } = openDataFolder(dir);
@@ -145,7 +161,7 @@ describe('a database of schema version 1', () => {
       db.pragma('user_version = 99');
       db.close();
       expect(() => openDataFolder(newer)).toThrow(
-        'the database was written by a newer server (schema 99, this one knows 2)',
+        'the database was written by a newer server (schema 99, this one knows 3)',
       );
       const after = new Database(join(newer, DATABASE_FILE), { readonly: true });
       expect(after.pragma('user_version', { simple: true })).toBe(99);

@@ -7,6 +7,7 @@ import { join } from 'node:path';
 import fastifyStatic from '@fastify/static';
 import type { FastifyInstance } from 'fastify';
 import type { SyncErrorBody } from '../schema/sync-protocol.ts';
+import { quotedPath } from './refusal.ts';
 
 /**
  * Vite names the files under assets/ by their content hash, so they never change and may be
@@ -35,8 +36,9 @@ export async function serveApp(app: FastifyInstance, appDir: string | null): Pro
     const body: SyncErrorBody = {
       error: 'not-found',
       message: request.url.startsWith('/sync/')
-        ? `no sync route ${request.method} ${request.url.split('?')[0]}`
-        : `the app is not built in ${appDir ?? '(no folder given)'}: run "npx vite build" first`,
+        ? `no sync route ${request.method} ${quotedPath(request.url)}`
+        : // The folder stays out of the answer: it would tell anyone the server's file layout.
+          'the app is not built on this server: whoever runs it should run "npx vite build" and start it again',
     };
     return reply.code(404).send(body);
   });

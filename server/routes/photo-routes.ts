@@ -4,7 +4,7 @@
  * lands. An interrupted upload resumes from what the server holds; a chunk is stored whole or
  * not at all.
  */
-import { createHash } from 'node:crypto';
+import { Readable } from 'node:stream';
 import type { FastifyInstance } from 'fastify';
 import {
   checkChunkQuery,
@@ -78,18 +78,12 @@ export function photoRoutes(scope: FastifyInstance, store: SyncStore): void {
           'a chunk is a non-empty application/octet-stream body',
         );
       const upload = await store.appendChunk(lab.id, params.photoId, query.offset, body);
-      if (upload.received < upload.bytes) return stateOf(upload);
-      const actual = createHash('sha256')
-        .update(await store.uploadedBytes(lab.id, params.photoId))
-        .digest('hex');
-      const verified = actual === upload.sha256;
-      const finished = await store.finishUpload(lab.id, params.photoId, verified);
-      if (!verified)
+      if (upload.mismatch)
         throw new SyncRefusal(
           'upload-mismatch',
           `the bytes of photo ${params.photoId} do not match its SHA-256; the upload starts over`,
         );
-      return stateOf(finished);
+      return stateOf(upload);
     },
   );
 
@@ -100,8 +94,10 @@ export function photoRoutes(scope: FastifyInstance, store: SyncStore): void {
       const upload = await existing(request.lab, request.params.photoId);
       if (!upload.complete)
         throw new SyncRefusal('not-found', `photo ${upload.photoId} is not fully uploaded yet`);
-      reply.type(upload.type);
-      return store.uploadedBytes(request.lab.id, upload.photoId);
+      return reply
+        .type(upload.type)
+        .header('content-length', upload.bytes)
+        .send(Readable.from(store.photoChunks(request.lab.id, upload.photoId)));
     },
   );
 }

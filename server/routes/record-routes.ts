@@ -1,6 +1,7 @@
 /** The record side of the protocol: the lab's settings, pushes and pulls. */
 import type { FastifyInstance } from 'fastify';
 import {
+  type Cursor,
   checkPullQuery,
   checkPushRequest,
   type LabInfo,
@@ -32,7 +33,7 @@ export function recordRoutes(scope: FastifyInstance, store: SyncStore): void {
     },
   );
 
-  scope.get<{ Querystring: { since: number; limit: number } }>(
+  scope.get<{ Querystring: { since: Cursor; limit: number } }>(
     '/changes',
     { schema: { querystring: checkPullQuery } },
     async (request) =>

@@ -7,6 +7,7 @@
  */
 import type {
   Change,
+  Cursor,
   PhotoUploadRequest,
   PullResponse,
   PushResponse,
@@ -17,9 +18,24 @@ export interface Lab {
   name: string;
   photosEnabled: boolean;
   photoMaxBytes: number;
+  /**
+   * The most bytes the lab's records and photos may take on the server, so one lab cannot fill
+   * it for every other; null for no cap of its own (labs made before caps existed).
+   */
+  maxBytes: number | null;
 }
 
-export type LabSettings = Pick<Lab, 'photosEnabled' | 'photoMaxBytes'>;
+export type LabSettings = Pick<Lab, 'photosEnabled' | 'photoMaxBytes'> & {
+  maxBytes?: number | null;
+};
+
+/**
+ * Revisions kept of one record. Older ones that are no longer heads are dropped as new ones
+ * arrive: a pull only ever sends heads, so they serve nothing but the repeat check of a push
+ * retried very late (which then stores it again, as a head beside the others: a conflict, not a
+ * loss), and without a limit one record edited for years would grow without end.
+ */
+export const REVISIONS_KEPT = 100;
 
 /** A lab token as its operator sees it: never the token itself, never its whole hash. */
 export interface TokenInfo {
@@ -48,6 +64,8 @@ export interface HashedChange {
 export interface Upload extends PhotoUploadRequest {
   received: number;
   complete: boolean;
+  /** Set when the bytes just completed did not match the SHA-256: they were dropped. */
+  mismatch?: true;
 }
 
 export interface SyncStore {
@@ -68,23 +86,36 @@ export interface SyncStore {
    */
   tokenAccess(tokenHash: string): Promise<TokenAccess | undefined>;
 
-  /** Applies a whole push in one transaction; a repeat of a stored revision writes nothing. */
+  /**
+   * Applies a whole push in one transaction; a repeat of a stored revision writes nothing. A push
+   * that would take the lab past its `maxBytes` is refused whole (`storage-full`).
+   */
   push(labId: number, device: string, changes: HashedChange[]): Promise<PushResponse>;
   /**
    * Records whose heads changed after `since`, oldest change first: at most `limit` of them, and
-   * no more than fill `maxBytes` of record bodies (but always one, however large).
+   * no more than fill `maxBytes` of answer (but always one, however large). Refuses
+   * (`cursor-unknown`) a cursor whose point is not in this database's history.
    */
-  pull(labId: number, since: number, limit: number, maxBytes: number): Promise<PullResponse>;
+  pull(labId: number, since: Cursor, limit: number, maxBytes: number): Promise<PullResponse>;
 
-  /** Starts an upload, or returns the one already started for the same photo. */
+  /**
+   * Starts an upload, or returns the one already started for the same photo. Refuses a lab that
+   * has `SYNC_LIMITS.openUploads` unfinished uploads touched within a day (`too-many-uploads`;
+   * an older one is dropped to make room), and one whose announced bytes would not fit its
+   * `maxBytes` (`storage-full`). This and `upload`
+   * finish an upload whose bytes are all in but which is not yet complete (left by a crash of an
+   * older server), as `appendChunk` would have.
+   */
   beginUpload(labId: number, request: PhotoUploadRequest): Promise<Upload>;
   upload(labId: number, photoId: string): Promise<Upload | undefined>;
-  /** Stores a chunk only if `offset` is where the upload stands (refuses `wrong-offset`). */
+  /**
+   * Stores a chunk only if `offset` is where the upload stands (refuses `wrong-offset`). The
+   * chunk that completes the photo is checked against the SHA-256 in the same transaction: the
+   * upload ends complete, or (`mismatch`) emptied to start over.
+   */
   appendChunk(labId: number, photoId: string, offset: number, bytes: Buffer): Promise<Upload>;
-  /** The bytes received so far, in order. */
-  uploadedBytes(labId: number, photoId: string): Promise<Buffer>;
-  /** Marks a fully received upload complete, or drops its chunks so it starts over. */
-  finishUpload(labId: number, photoId: string, verified: boolean): Promise<Upload>;
+  /** The stored bytes of a photo, chunk by chunk in order, never all in memory at once. */
+  photoChunks(labId: number, photoId: string): AsyncIterable<Buffer>;
 
   close(): Promise<void>;
 }

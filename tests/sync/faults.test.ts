@@ -7,7 +7,6 @@
 import { createHash, randomBytes } from 'node:crypto';
 import { rmSync } from 'node:fs';
 import { request } from 'node:http';
-import { createServer } from 'node:net';
 import { join } from 'node:path';
 import Database from 'better-sqlite3';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -19,7 +18,7 @@ import type {
 } from '../../schema/sync-protocol.ts';
 import { DATABASE_FILE } from '../../server/data-folder.ts';
 import { pushArrives, pushStarted, startChildServer } from './child-server.ts';
-import { call, startTestServer, type TestServer, tempDir } from './harness.ts';
+import { call, freePort, startTestServer, type TestServer, tempDir } from './harness.ts';
 import { analysis, benchSession, changeOf } from './marrowfield.ts';
 import { makePhone } from './phone.ts';
 
@@ -251,17 +250,122 @@ describe('server process killed during a batch', () => {
   });
 });
 
-/** A port free right now on 127.0.0.1, so a restarted server can come back at the same address. */
-function freePort(): Promise<number> {
-  return new Promise((done, fail) => {
-    const probe = createServer();
-    probe.once('error', fail);
-    probe.listen(0, '127.0.0.1', () => {
-      const { port } = probe.address() as { port: number };
-      probe.close(() => done(port));
+describe('server process killed as a photo completes', () => {
+  const CHUNK = 1024 * 1024;
+
+  /** Announces the photo and sends chunks from where the server stands, as the client does. */
+  async function sendFrom(sync: string, token: string, id: string, photo: Buffer, upTo: number) {
+    const sha256 = createHash('sha256').update(photo).digest('hex');
+    let state = (
+      await call<PhotoUploadState>(`${sync}/photos`, token, {
+        body: {
+          photoId: id,
+          plateId: 'mf-plate-1',
+          bytes: photo.length,
+          type: 'image/jpeg',
+          sha256,
+        },
+      })
+    ).json;
+    while (!state.complete && state.received < upTo) {
+      const r = await call<PhotoUploadState>(
+        `${sync}/photos/${id}?offset=${state.received}`,
+        token,
+        {
+          method: 'PUT',
+          raw: photo.subarray(state.received, state.received + CHUNK),
+          type: 'application/octet-stream',
+        },
+      );
+      expect(r.status, JSON.stringify(r.json)).toBe(200);
+      state = r.json;
+    }
+    return state;
+  }
+
+  async function fetched(sync: string, token: string, id: string): Promise<string> {
+    const res = await fetch(`${sync}/photos/${id}`, {
+      headers: { authorization: `Bearer ${token}` },
     });
+    expect(res.status).toBe(200);
+    return createHash('sha256')
+      .update(Buffer.from(await res.arrayBuffer()))
+      .digest('hex');
+  }
+
+  it('leaves the upload complete or resumable, never all bytes in and unfinished', async () => {
+    const dir = tempDir();
+    const setup = await startTestServer({ dir });
+    const token = await setup.lab('photo-kill', { photoMaxBytes: 64 * CHUNK });
+    await setup.close();
+    let child = await startChildServer(dir);
+    // Killed at moments spread over the last chunk's handling: its arrival, the write, the check.
+    const delays = [0, 3, 6, 10, 16, 30];
+    const outcomes = { complete: 0, resumed: 0 };
+    for (const [i, delay] of delays.entries()) {
+      const photo = randomBytes(16 * CHUNK);
+      const id = `mf-photo-kill-${i}`;
+      const last = photo.length - CHUNK;
+      await sendFrom(child.sync, token, id, photo, last);
+      const arrived = child.nextLog(
+        (line) =>
+          line.msg === 'incoming request' &&
+          line.req?.url === `/sync/v1/photos/${id}?offset=${last}`,
+      );
+      const sending = call(`${child.sync}/photos/${id}?offset=${last}`, token, {
+        method: 'PUT',
+        raw: photo.subarray(last),
+        type: 'application/octet-stream',
+      }).catch(() => null);
+      await arrived;
+      await new Promise((r) => setTimeout(r, delay));
+      await child.kill();
+      tally.faults += 1;
+      await sending;
+
+      child = await startChildServer(dir);
+      const state = (await call<PhotoUploadState>(`${child.sync}/photos/${id}/upload`, token)).json;
+      // The one state a client cannot get past: every byte in, and not complete.
+      expect(state.complete || state.received < state.bytes, JSON.stringify(state)).toBe(true);
+      if (state.complete) outcomes.complete += 1;
+      else outcomes.resumed += 1;
+      const done = await sendFrom(child.sync, token, id, photo, photo.length);
+      expect(done.complete).toBe(true);
+      expect(await fetched(child.sync, token, id)).toBe(
+        createHash('sha256').update(photo).digest('hex'),
+      );
+    }
+    await child.stop();
+    rmSync(dir, { recursive: true, force: true });
+    console.log(
+      `photo upload killed ${delays.length} times at its last chunk: ${outcomes.complete} complete, ${outcomes.resumed} resumed after the restart`,
+    );
   });
-}
+
+  it('finishes an upload an older server left with every byte in and not complete', async () => {
+    const dir = tempDir();
+    const first = await startTestServer({ dir });
+    const token = await first.lab('photo-stuck');
+    const photo = randomBytes(3 * CHUNK);
+    expect(
+      (await sendFrom(first.sync, token, 'mf-photo-stuck', photo, photo.length)).complete,
+    ).toBe(true);
+    await first.close();
+    // The state a crash between the last chunk and the check left behind.
+    const db = new Database(join(dir, DATABASE_FILE));
+    db.prepare("UPDATE uploads SET complete = 0 WHERE photo_id = 'mf-photo-stuck'").run();
+    db.close();
+
+    const again = await startTestServer({ dir });
+    const state = await sendFrom(again.sync, token, 'mf-photo-stuck', photo, photo.length);
+    expect(state).toMatchObject({ complete: true, received: photo.length });
+    expect(await fetched(again.sync, token, 'mf-photo-stuck')).toBe(
+      createHash('sha256').update(photo).digest('hex'),
+    );
+    await again.close();
+    rmSync(dir, { recursive: true, force: true });
+  });
+});
 
 describe('the sync client when the server dies under it', () => {
   it('keeps its outbox through the crash, and its own next round completes the push', async () => {

@@ -3,6 +3,7 @@
  * 127.0.0.1 on a free port, labs and tokens made through the same store the command line uses.
  */
 import { mkdtempSync, rmSync } from 'node:fs';
+import { createServer } from 'node:net';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import Database from 'better-sqlite3';
@@ -28,12 +29,13 @@ export function tempDir(): string {
 }
 
 export async function startTestServer(
-  options: { dir?: string; maxBytes?: number; appDir?: string } = {},
+  /** `port`: a fixed one lets a restarted server keep its address (see `freePort`). */
+  options: { dir?: string; maxBytes?: number; appDir?: string; port?: number } = {},
 ): Promise<TestServer> {
   const dir = options.dir ?? tempDir();
   const { store } = openDataFolder(dir, options.maxBytes);
   const app = await buildSyncServer({ store, appDir: options.appDir ?? null, log: false });
-  const origin = await app.listen({ port: 0, host: '127.0.0.1' });
+  const origin = await app.listen({ port: options.port ?? 0, host: '127.0.0.1' });
   const reader = new Database(join(dir, DATABASE_FILE), { readonly: true });
   return {
     sync: origin + SYNC_BASE_PATH,
@@ -79,4 +81,16 @@ export async function call<T = unknown>(
   const res = await fetch(url, { method: init.method ?? (body ? 'POST' : 'GET'), headers, body });
   const text = await res.text();
   return { status: res.status, json: (text ? JSON.parse(text) : null) as T };
+}
+
+/** A port free right now on 127.0.0.1, so a restarted server can come back at the same address. */
+export function freePort(): Promise<number> {
+  return new Promise((done, fail) => {
+    const probe = createServer();
+    probe.once('error', fail);
+    probe.listen(0, '127.0.0.1', () => {
+      const { port } = probe.address() as { port: number };
+      probe.close(() => done(port));
+    });
+  });
 }

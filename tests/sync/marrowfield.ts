@@ -2,6 +2,8 @@
  * Records of the Marrowfield pond project (an invented study: evolved lines L1–L6 of a pond
  * isolate competed against a marked ancestor), made deterministically for the sync tests.
  */
+
+import { RECORD_FORMAT } from '../../schema/record-format.ts';
 import type {
   Analysis,
   Assay,
@@ -24,6 +26,7 @@ export function experiment(id = 'mf-exp'): Experiment {
     id,
     revision: 1,
     updatedAt: at(0),
+    format: RECORD_FORMAT,
     name: 'Marrowfield pond: lines L1–L6 against the marked ancestor',
     demo: true,
     lines: ['L1', 'L2', 'L3', 'L4', 'L5', 'L6'],
@@ -40,6 +43,7 @@ export function assay(id: string, line = 'L1', replicate = 1): Assay {
     id,
     revision: 1,
     updatedAt: at(1),
+    format: RECORD_FORMAT,
     experimentId: 'mf-exp',
     line,
     generation: 500,
@@ -52,7 +56,15 @@ export function assay(id: string, line = 'L1', replicate = 1): Assay {
 }
 
 export function sample(id: string, assayId: string, timepoint: 'start' | 'end' = 'start'): Sample {
-  return { id, revision: 1, updatedAt: at(2), experimentId: 'mf-exp', assayId, timepoint };
+  return {
+    id,
+    revision: 1,
+    updatedAt: at(2),
+    format: RECORD_FORMAT,
+    experimentId: 'mf-exp',
+    assayId,
+    timepoint,
+  };
 }
 
 export function plate(id: string, extra: Partial<Plate> = {}): Plate {
@@ -60,6 +72,7 @@ export function plate(id: string, extra: Partial<Plate> = {}): Plate {
     id,
     revision: 1,
     updatedAt: at(3),
+    format: RECORD_FORMAT,
     experimentId: 'mf-exp',
     assayId: 'mf-L1-r1',
     sampleId: 'mf-L1-r1-start',
@@ -77,6 +90,7 @@ export function corrections(id: string, edits: Corrections['edits'] = []): Corre
     id,
     revision: 1,
     updatedAt: at(4),
+    format: RECORD_FORMAT,
     plateId: 'mf-plate-1',
     analysisId: 'mf-an-1',
     edits,
@@ -107,6 +121,7 @@ export function analysis(id: string, plateId: string, colonies: number): Analysi
     id,
     revision: 1,
     updatedAt: at(5),
+    format: RECORD_FORMAT,
     plateId,
     photoId: `${plateId}-photo`,
     width: 3000,

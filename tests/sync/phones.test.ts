@@ -240,6 +240,16 @@ describe('one phone', () => {
     again.client.stop();
   });
 
+  it('asked to merge taps where there is no conflict, says so', async () => {
+    const p = await phone();
+    await p.records.put('corrections', corrections('mf-corr-9'));
+    expect(await p.client.mergeCorrections('mf-corr-9')).toMatchObject({
+      ok: false,
+      problem: 'no-conflict',
+      message: 'corrections mf-corr-9 have no conflict to merge',
+    });
+  });
+
   it('works with sync off, keeping what it changed for when sync is turned on', async () => {
     const token = await server.lab('off-and-on');
     const p = await phone();

@@ -52,10 +52,14 @@ describe('sync protocol checks', () => {
     expect(problem(() => checkChange(null, 'c'))).toBe('c: expected an object, got null');
   });
 
-  it('reads a cursor only as the whole number a pull gave', () => {
-    expect(checkCursor(undefined, 'since')).toBe(0);
-    expect(checkCursor('42', 'since')).toBe(42);
-    for (const bad of ['-1', '1.5', '', '1e3', '9'.repeat(16)])
+  it('reads a cursor only in the form a pull gave', () => {
+    expect(checkCursor(undefined, 'since')).toEqual({ seq: 0, mark: null });
+    expect(checkCursor('42', 'since')).toEqual({ seq: 42, mark: null });
+    expect(checkCursor('42-0123456789abcdef', 'since')).toEqual({
+      seq: 42,
+      mark: '0123456789abcdef',
+    });
+    for (const bad of ['-1', '1.5', '', '1e3', '9'.repeat(16), '42-0123', '42-0123456789ABCDEF'])
       expect(problem(() => checkCursor(bad, 'since'))).toMatch(/^since: expected a cursor/);
   });
 
@@ -63,7 +67,7 @@ describe('sync protocol checks', () => {
     const head = {
       hash: 'f'.repeat(64),
       revision: 1,
-      updatedAt: '2026-03-02T09:00:00Z',
+      updatedAt: '2026-03-02T09:00:00.000Z',
       deleted: false,
       body: {},
       device: 'a',

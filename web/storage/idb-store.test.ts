@@ -100,7 +100,12 @@ describe('IndexedDB record store', () => {
     const bad = { ...assay('e1', 'L1'), foldDilutionSinceStart: -5 };
     await store.put('assays', bad);
     expect(await store.all('assays')).toEqual([]);
-    expect(store.problems[0]).toMatch(
+    // Listed once however often it is read, with the reason and the record as stored.
+    await store.all('assays');
+    const unreadable = await store.unreadable();
+    expect(unreadable).toHaveLength(1);
+    expect(unreadable[0]).toMatchObject({ kind: 'assays', id: bad.id, raw: bad });
+    expect(unreadable[0]!.reason).toMatch(
       /assays record .*foldDilutionSinceStart: must be greater than 0/,
     );
   });

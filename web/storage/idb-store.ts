@@ -2,7 +2,7 @@ import { type IDBPDatabase, openDB } from 'idb';
 import { KINDS, RECORD_KINDS } from '../../schema/kinds.ts';
 import type { RecordKind, RecordsByKind } from '../../schema/records.ts';
 import { restoreRecord } from '../../schema/restore.ts';
-import type { RecordBatch, RecordIds, RecordStore } from './record-store.ts';
+import type { RecordBatch, RecordIds, RecordStore, UnreadableRecord } from './record-store.ts';
 
 const DB_VERSION = 1;
 const PARENT_INDEX = 'byParent';
@@ -24,7 +24,6 @@ async function open(name: string): Promise<IDBPDatabase> {
 export async function openIdbStore(name = 'rivalplate'): Promise<RecordStore> {
   const db = await open(name);
   const listeners = new Set<() => void>();
-  const problems: string[] = [];
   const notify = () => {
     for (const l of listeners) l();
   };
@@ -41,13 +40,19 @@ export async function openIdbStore(name = 'rivalplate'): Promise<RecordStore> {
     channel?.postMessage('changed');
   };
 
+  const check = (kind: RecordKind, item: unknown) =>
+    restoreRecord(
+      kind,
+      item,
+      `stored ${kind} record ${String((item as { id?: unknown } | null)?.id)}`,
+    );
+
+  /** The records that pass the gate; the others are listed by `unreadable`. */
   function restored<K extends RecordKind>(kind: K, raw: unknown[]): RecordsByKind[K][] {
     const out: RecordsByKind[K][] = [];
     for (const item of raw) {
-      const id = (item as { id?: unknown } | null)?.id;
-      const r = restoreRecord(kind, item, `stored ${kind} record ${String(id)}`);
-      if (r.ok) out.push(r.record);
-      else problems.push(r.error);
+      const r = check(kind, item);
+      if (r.ok) out.push(r.record as RecordsByKind[K]);
     }
     return out;
   }
@@ -76,7 +81,16 @@ export async function openIdbStore(name = 'rivalplate'): Promise<RecordStore> {
   }
 
   return {
-    problems,
+    async unreadable() {
+      const out: UnreadableRecord[] = [];
+      for (const kind of RECORD_KINDS)
+        for (const raw of await db.getAll(kind)) {
+          const r = check(kind, raw);
+          if (!r.ok)
+            out.push({ kind, id: String((raw as { id?: unknown }).id), reason: r.error, raw });
+        }
+      return out;
+    },
     async put(kind, record) {
       const tx = db.transaction(kind, 'readwrite');
       await Promise.all([tx.store.put(record), tx.done]);

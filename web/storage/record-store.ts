@@ -6,10 +6,20 @@ export type RecordBatch = { [K in RecordKind]?: RecordsByKind[K][] };
 /** Ids of records to delete, per kind. */
 export type RecordIds = { [K in RecordKind]?: string[] };
 
+/** A stored record that fails the restore gate: which, why, and the record as it is stored. */
+export interface UnreadableRecord {
+  kind: RecordKind;
+  /** The stored id, as text (it may be the very field that is wrong). */
+  id: string;
+  reason: string;
+  raw: unknown;
+}
+
 /**
  * Where the app keeps its records. Every write resolves only once its transaction has
  * completed, so a record the UI shows as saved survives the tab being closed. Every read passes
- * the schema's restore gate; a record that fails it is reported through `problems`, not returned.
+ * the schema's restore gate; a record that fails it is left out of what reads return, and listed
+ * by `unreadable`, so a screen can say which records could not be read and why.
  */
 export interface RecordStore {
   put<K extends RecordKind>(kind: K, record: RecordsByKind[K]): Promise<void>;
@@ -23,6 +33,6 @@ export interface RecordStore {
   all<K extends RecordKind>(kind: K): Promise<RecordsByKind[K][]>;
   /** Calls `listener` after every completed write; returns the unsubscribe function. */
   subscribe(listener: () => void): () => void;
-  /** Records that failed the restore gate since the store opened, as messages. */
-  readonly problems: readonly string[];
+  /** Every stored record that fails the restore gate now, read afresh on each call. */
+  unreadable(): Promise<UnreadableRecord[]>;
 }

@@ -1,7 +1,7 @@
 /**
  * The corrections merge by a table of cases; every case is also merged the other way round
- * (commutativity) and merged again with its own result (idempotence), then a seeded random
- * property test over shuffled edit histories.
+ * (commutativity) and merged again with its own result (idempotence), then the same for three
+ * phones in every order, and seeded random property tests over shuffled edit histories.
  */
 import { describe, expect, it } from 'vitest';
 import type { Corrections, Edit } from '../../schema/records.ts';
@@ -140,6 +140,92 @@ describe('mergeCorrections', () => {
       const again = mergeCorrections({ ...a, edits: ab.edits, updatedAt: at(5) }, b);
       if (!again.ok) throw new Error('expected a merge');
       expect(again.edits).toEqual(ab.edits);
+    }
+  });
+
+  const permutations = <T>(items: T[]): T[][] =>
+    items.length <= 1
+      ? [items]
+      : items.flatMap((item, i) =>
+          permutations([...items.slice(0, i), ...items.slice(i + 1)]).map((rest) => [
+            item,
+            ...rest,
+          ]),
+        );
+
+  const threeWay: {
+    name: string;
+    versions: Corrections[];
+    edits: string[];
+    disagreements: string[];
+  }[] = [
+    {
+      name: 'three phones, different taps: all kept',
+      versions: [side([add(1)], 10), side([remove('c3')], 11), side([reclass('c4', 1)], 12)],
+      edits: ['+c101:0', '-c3', 'c4→1'],
+      disagreements: [],
+    },
+    {
+      name: 'three classes given one colony: the latest kept, one clash reported',
+      versions: [
+        side([reclass('c6', 0)], 10),
+        side([reclass('c6', 1)], 11),
+        side([reclass('c6', 0)], 12),
+      ],
+      edits: ['c6→0'],
+      disagreements: ['c6:0/1'],
+    },
+    {
+      name: 'a removal on one phone wins over the other two',
+      versions: [side([reclass('c5', 1)], 10), side([remove('c5')], 11), side([add(2)], 12)],
+      edits: ['+c102:0', '-c5'],
+      disagreements: [],
+    },
+    {
+      name: 'one time on all three: the order comes from their content, not their arrival',
+      versions: [side([reclass('c6', 1)], 10), side([reclass('c6', 0)], 10), side([], 10)],
+      edits: ['c6→1'],
+      disagreements: ['c6:1/0'],
+    },
+  ];
+
+  it.each(threeWay)('$name, in every order', ({ versions, edits, disagreements }) => {
+    const results = permutations(versions).map((order) => mergeCorrections(...order));
+    const first = results[0]!;
+    if (!first.ok) throw new Error('expected a merge');
+    expect(summary(first.edits)).toEqual(edits);
+    expect(first.disagreements.map((d) => `${d.colonyId}:${d.kept}/${d.dropped}`)).toEqual(
+      disagreements,
+    );
+    for (const r of results) expect(r).toEqual(first);
+    // Idempotent: the result merged again with any of the versions, as the latest, is unchanged.
+    const merged = { ...side(first.edits, 20) };
+    for (const v of [...versions, merged]) {
+      const again = mergeCorrections(merged, v);
+      if (!again.ok) throw new Error('expected a merge');
+      expect(again.edits).toEqual(first.edits);
+    }
+  });
+
+  it('is the same in every order for three and four phones over random histories (seeded)', () => {
+    let seed = 4021;
+    const random = () => {
+      seed = (seed * 1103515245 + 12345) % 2 ** 31;
+      return seed / 2 ** 31;
+    };
+    const randomEdits = (): Edit[] =>
+      Array.from({ length: Math.floor(random() * 6) }, () => {
+        const i = Math.floor(random() * 5);
+        const r = random();
+        const cls = (r > 0.5 ? 1 : 0) as 0 | 1;
+        return r < 0.33 ? add(i, cls) : r < 0.66 ? remove(`c${100 + i}`) : reclass(`c${i}`, cls);
+      });
+    for (let trial = 0; trial < 60; trial++) {
+      const versions = Array.from({ length: 3 + (trial % 2) }, () =>
+        side(randomEdits(), Math.floor(random() * 3)),
+      );
+      const [first, ...rest] = permutations(versions).map((order) => mergeCorrections(...order));
+      for (const r of rest) expect(r).toEqual(first);
     }
   });
 });

@@ -1,13 +1,14 @@
 /**
- * Merging two people's taps on the same plate: when two phones corrected one analysis offline,
- * both sets of corrections are kept. Each side's edit list is reduced to its net effect (colonies
- * added, removed, reclassified); the effects are joined; the result is written back as edits in a
- * fixed order. The merge is commutative and idempotent, so phones that merge the same conflict
- * get the same answer.
+ * Merging people's taps on the same plate: when phones corrected one analysis offline, every
+ * phone's corrections are kept. Each version's edit list is reduced to its net effect (colonies
+ * added, removed, reclassified); the effects are joined from the earliest version to the latest;
+ * the result is written back as edits in a fixed order. The versions are put in one order by their
+ * content before anything else, so the merge of any number of them is the same whatever order
+ * they come in, and merging a result again with any of them changes nothing.
  */
 import type { ClassIndex, ColonyRecord, Corrections, Edit } from '../../schema/records.ts';
 
-/** Both sides reclassified a colony, differently: the later edit's class was kept. */
+/** Two versions reclassified a colony, differently: the later edit's class was kept. */
 export interface Disagreement {
   colonyId: string;
   kept: ClassIndex;
@@ -16,7 +17,7 @@ export interface Disagreement {
 
 export type CorrectionsMerge =
   | { ok: true; edits: Edit[]; disagreements: Disagreement[] }
-  | { ok: false; problem: 'different-analyses'; message: string };
+  | { ok: false; problem: 'different-analyses' | 'no-conflict' | 'unreadable'; message: string };
 
 interface Effect {
   added: Map<string, ColonyRecord>;
@@ -44,51 +45,58 @@ function effectOf(edits: readonly Edit[]): Effect {
   return e;
 }
 
-/** True when `a` is the later of the two; ties broken by content, the same from either side. */
-function isLater(a: Corrections, b: Corrections): boolean {
-  if (a.updatedAt !== b.updatedAt) return a.updatedAt > b.updatedAt;
-  if (a.revision !== b.revision) return a.revision > b.revision;
-  return JSON.stringify(a.edits) > JSON.stringify(b.edits);
+/** Earlier first; ties broken by content, so every phone puts the same versions in one order. */
+function byTime(a: Corrections, b: Corrections): number {
+  if (a.updatedAt !== b.updatedAt) return a.updatedAt < b.updatedAt ? -1 : 1;
+  if (a.revision !== b.revision) return a.revision - b.revision;
+  const [x, y] = [JSON.stringify(a.edits), JSON.stringify(b.edits)];
+  return x < y ? -1 : x > y ? 1 : 0;
 }
 
 const byId = <T>(m: Map<string, T>) =>
   [...m.entries()].sort(([x], [y]) => (x < y ? -1 : x > y ? 1 : 0));
 
-export function mergeCorrections(a: Corrections, b: Corrections): CorrectionsMerge {
-  if (a.analysisId !== b.analysisId)
+/** Merges the corrections of one analysis made on any number of phones (at least one). */
+export function mergeCorrections(...versions: Corrections[]): CorrectionsMerge {
+  const analyses = [...new Set(versions.map((v) => v.analysisId))];
+  if (analyses.length > 1)
     return {
       ok: false,
       problem: 'different-analyses',
-      message: `the two corrections are of different analyses (${a.analysisId}, ${b.analysisId}): pick one`,
+      message: `the corrections are of different analyses (${analyses.sort().join(', ')}): pick one`,
     };
-  const [later, earlier] = isLater(a, b)
-    ? [effectOf(a.edits), effectOf(b.edits)]
-    : [effectOf(b.edits), effectOf(a.edits)];
-  const removed = new Set([...later.removed, ...earlier.removed]);
+  const effects = [...versions].sort(byTime).map((v) => effectOf(v.edits));
+  const removed = new Set(effects.flatMap((e) => [...e.removed]));
   const added = new Map<string, ColonyRecord>();
-  const disagreements: Disagreement[] = [];
-  for (const side of [earlier, later])
-    for (const [id, colony] of side.added) if (!removed.has(id)) added.set(id, colony);
-  // Both phones hold the same added colony (one saw the other's add) in different classes.
-  for (const [id, colony] of later.added) {
-    const other = earlier.added.get(id);
-    if (!removed.has(id) && other && other.cls !== colony.cls)
-      disagreements.push({ colonyId: id, kept: colony.cls, dropped: other.cls });
-  }
   const reclassed = new Map<string, ClassIndex>();
-  for (const [id, cls] of earlier.reclassed) if (!removed.has(id)) reclassed.set(id, cls);
-  for (const [id, cls] of later.reclassed) {
-    if (removed.has(id)) continue;
-    const other = reclassed.get(id);
-    if (other !== undefined && other !== cls)
-      disagreements.push({ colonyId: id, kept: cls, dropped: other });
-    reclassed.set(id, cls);
+  // Every class any version gave a colony: more than one is a clash, shown to the person.
+  const classes = new Map<string, Set<ClassIndex>>();
+  const saw = (id: string, cls: ClassIndex) =>
+    classes.set(id, (classes.get(id) ?? new Set<ClassIndex>()).add(cls));
+  for (const e of effects) {
+    for (const [id, colony] of e.added)
+      if (!removed.has(id)) {
+        added.set(id, colony);
+        saw(id, colony.cls);
+      }
+    for (const [id, cls] of e.reclassed)
+      if (!removed.has(id)) {
+        reclassed.set(id, cls);
+        saw(id, cls);
+      }
   }
+  // The edits apply reclassifications after additions, so a reclassification is what stays.
+  const disagreements: Disagreement[] = [...classes.entries()]
+    .filter(([, seen]) => seen.size > 1)
+    .map(([colonyId]) => {
+      const kept = reclassed.get(colonyId) ?? added.get(colonyId)!.cls;
+      return { colonyId, kept, dropped: (1 - kept) as ClassIndex };
+    })
+    .sort((x, y) => (x.colonyId < y.colonyId ? -1 : 1));
   const edits: Edit[] = [
     ...byId(added).map(([, colony]): Edit => ({ op: 'add', colony })),
     ...[...removed].sort().map((colonyId): Edit => ({ op: 'remove', colonyId })),
     ...byId(reclassed).map(([colonyId, cls]): Edit => ({ op: 'reclass', colonyId, cls })),
   ];
-  disagreements.sort((x, y) => (x.colonyId < y.colonyId ? -1 : 1));
   return { ok: true, edits, disagreements };
 }

@@ -16,7 +16,7 @@ const pulled = (...heads: Revision[]) => ({ kind: 'plates' as const, id: 'mf-pla
 describe('planPulled: what a phone does with a record a pull brought', () => {
   const a = head('a', 10);
   const b = head('b', 12);
-  const cases: [string, Revision[], boolean, string[], string][] = [
+  const cases: [string, Revision[], boolean, string[], string, number?][] = [
     ['a record new to the phone', [a], false, [], 'take'],
     ['a newer revision of a record the phone has', [b], false, [a.hash], 'take'],
     ['the phone’s own push coming back', [a], false, [a.hash], 'skip'],
@@ -30,9 +30,25 @@ describe('planPulled: what a phone does with a record a pull brought', () => {
       [a.hash, b.hash],
       'take',
     ],
+    [
+      'an older revision than the server had confirmed: sent again',
+      [b],
+      false,
+      ['c'.repeat(64)],
+      'resend',
+      3,
+    ],
+    [
+      'the same, while a local edit waits: the edit goes as it is',
+      [b],
+      true,
+      ['c'.repeat(64)],
+      'keep-local',
+      3,
+    ],
   ];
-  it.each(cases)('%s', (_name, heads, waiting, bases, action) => {
-    expect(planPulled(pulled(...heads), { waiting, bases }).action).toBe(action);
+  it.each(cases)('%s', (_name, heads, waiting, bases, action, knownRevision = 1) => {
+    expect(planPulled(pulled(...heads), { waiting, bases, knownRevision }).action).toBe(action);
   });
 
   it('shows the latest head of a conflict, the same on every phone whatever the order', () => {

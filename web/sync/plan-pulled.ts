@@ -11,6 +11,12 @@ export type PulledPlan =
   | { action: 'keep-local' }
   /** Take the server's revision (write it, or delete the record for a tombstone). */
   | { action: 'take'; head: Revision }
+  /**
+   * The server offers an older revision than one it had confirmed to this phone: it lost the
+   * later one (its database was put back from a copy). The phone's version is sent again, on
+   * top of the server's, instead of being overwritten by it.
+   */
+  | { action: 'resend'; head: Revision }
   /** Two or more heads: keep them all for the person; `latest` is the one to show meanwhile. */
   | { action: 'conflict'; heads: Revision[]; latest: Revision };
 
@@ -23,12 +29,15 @@ export function latestHead(heads: readonly Revision[]): Revision {
 
 export function planPulled(
   pulled: PulledRecord,
-  local: { waiting: boolean; bases: readonly string[] },
+  /** `knownRevision`: the revision the server last confirmed to this phone (0 if none). */
+  local: { waiting: boolean; bases: readonly string[]; knownRevision: number },
 ): PulledPlan {
   if (pulled.heads.length > 1)
     return { action: 'conflict', heads: pulled.heads, latest: latestHead(pulled.heads) };
   const head = pulled.heads[0]!;
   if (local.bases.length === 1 && local.bases[0] === head.hash) return { action: 'skip' };
   if (local.waiting) return { action: 'keep-local' };
+  // Revisions only grow along a record's history, so an older head means history was lost.
+  if (local.knownRevision > head.revision) return { action: 'resend', head };
   return { action: 'take', head };
 }

@@ -24,9 +24,7 @@ export function recordingStore(
   }
 
   return {
-    get problems() {
-      return inner.problems;
-    },
+    unreadable: () => inner.unreadable(),
     get: (kind, id) => inner.get(kind, id),
     children: (kind, parentId) => inner.children(kind, parentId),
     all: (kind) => inner.all(kind),

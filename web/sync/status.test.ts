@@ -22,7 +22,13 @@ describe('sync status wording', () => {
 
   it('retries by itself only where waiting can help; a bad token or an old app waits for the person', () => {
     const passing = codes.filter((code) => isPassing({ code, message: '' }));
-    expect(passing.sort()).toEqual(['bad-answer', 'server-fault', 'storage-full', 'unreachable']);
+    expect(passing.sort()).toEqual([
+      'bad-answer',
+      'cursor-unknown',
+      'server-fault',
+      'storage-full',
+      'unreachable',
+    ]);
   });
 });
 

@@ -51,6 +51,8 @@ const PASSING: ReadonlySet<SyncFailure['code']> = new Set([
   'server-fault',
   'storage-full',
   'bad-answer',
+  // Met by the round itself, which pulls from the start and sends again what the server lacks.
+  'cursor-unknown',
 ]);
 
 export function isPassing(failure: SyncFailure): boolean {
@@ -76,6 +78,10 @@ export function describeFailure(failure: SyncFailure): SyncProblem {
       );
     case 'unreachable':
       return say(`The lab server cannot be reached; trying again later. (${failure.message})`);
+    case 'cursor-unknown':
+      return say(
+        'The lab server was restored from a copy. This phone is sending it what the copy lacks; nothing on the phone is lost.',
+      );
     case 'server-fault':
     case 'bad-answer':
       return say(`The lab server had a problem; trying again later. (${failure.message})`);
@@ -86,6 +92,8 @@ export function describeFailure(failure: SyncFailure): SyncProblem {
     case 'wrong-offset':
     case 'upload-mismatch':
     case 'photos-off':
+    case 'too-many-heads':
+    case 'too-many-uploads':
       return say(`The lab server refused a change: ${failure.message}`);
   }
 }

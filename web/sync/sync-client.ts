@@ -263,24 +263,21 @@ export async function createSyncClient(options: SyncClientOptions): Promise<Sync
     },
     async mergeCorrections(id) {
       const conflict = await findConflict('corrections', id);
-      const versions = (conflict?.heads ?? [])
+      const restored = (conflict?.heads ?? [])
         .filter((h) => !h.deleted)
-        .map((h) => restoreRecord('corrections', h.body, `the server's corrections ${id}`))
-        .flatMap((r) => (r.ok ? [r.record] : []));
+        .map((h) => restoreRecord('corrections', h.body, `the server's corrections ${id}`));
+      // A version this phone cannot read is not merged away: the person chooses instead.
+      const unreadable = restored.find((r) => !r.ok);
+      if (unreadable && !unreadable.ok)
+        return { ok: false, problem: 'unreadable', message: unreadable.error };
+      const versions = restored.flatMap((r) => (r.ok ? [r.record] : []));
       if (!conflict || versions.length === 0)
         return {
           ok: false,
-          problem: 'different-analyses',
-          message: `no conflict of corrections ${id} to merge`,
+          problem: 'no-conflict',
+          message: `corrections ${id} have no conflict to merge`,
         };
-      let merged: CorrectionsMerge = { ok: true, edits: versions[0]!.edits, disagreements: [] };
-      for (const next of versions.slice(1)) {
-        if (!merged.ok) break;
-        const step = mergeCorrections({ ...versions[0]!, edits: merged.edits }, next);
-        merged = step.ok
-          ? { ...step, disagreements: [...merged.disagreements, ...step.disagreements] }
-          : step;
-      }
+      const merged = mergeCorrections(...versions);
       if (!merged.ok) return merged;
       const base =
         versions.find((v) => v.updatedAt === latestHead(conflict.heads).updatedAt) ?? versions[0]!;

@@ -1,6 +1,6 @@
 /**
- * One sync round: push the outbox in batches, then pull everything changed since the cursor and
- * bring it into the app's records. A round stops at the first failure and leaves everything as
+ * One sync round: pull what changed since the cursor, push the outbox in batches, then pull again
+ * what the push and other phones changed, bringing it into the app's records. A round stops at the first failure and leaves everything as
  * it was for the next round: the outbox keeps what the server did not confirm, the cursor stays
  * at the last page applied.
  */
@@ -8,12 +8,13 @@ import { restoreRecord } from '../../schema/restore.ts';
 import {
   type Change,
   type PulledRecord,
+  type Revision,
   SYNC_LIMITS,
   SYNCED_KINDS,
 } from '../../schema/sync-protocol.ts';
 import type { RecordStore } from '../storage/record-store.ts';
 import { planPulled } from './plan-pulled.ts';
-import { type SyncState, upsertEntry } from './sync-state.ts';
+import { type KnownEntry, type SyncState, upsertEntry } from './sync-state.ts';
 import type { SyncFailure, SyncTransport } from './transport.ts';
 
 export interface RoundCounts {
@@ -42,8 +43,10 @@ async function bringIn(deps: RoundDeps, pulled: PulledRecord, counts: RoundCount
   const plan = planPulled(pulled, {
     waiting: await state.isWaiting(kind, id),
     bases: known?.hashes ?? [],
+    knownRevision: known?.revision ?? 0,
   });
   if (plan.action === 'skip' || plan.action === 'keep-local') return;
+  if (plan.action === 'resend') return resend(deps, pulled, plan.head, known!);
 
   const head = plan.action === 'take' ? plan.head : plan.latest;
   if (plan.action === 'conflict') {
@@ -77,10 +80,92 @@ async function bringIn(deps: RoundDeps, pulled: PulledRecord, counts: RoundCount
   counts.pulled += 1;
 }
 
+/**
+ * Queues the phone's version of a record again, on top of the older head the server now has: the
+ * phone's record as it is, or its deletion at the revision the server had confirmed.
+ */
+async function resend(
+  deps: RoundDeps,
+  pulled: PulledRecord,
+  head: Revision,
+  known: KnownEntry,
+): Promise<void> {
+  const { records, state } = deps;
+  const { kind, id } = pulled;
+  const at = deps.now().toISOString();
+  const local = await records.get(kind, id);
+  await state.setKnown({
+    kind,
+    id,
+    hashes: [head.hash],
+    revision: head.revision,
+    deleted: head.deleted,
+  });
+  await state.queue(
+    local
+      ? upsertEntry(kind, local, at)
+      : {
+          kind,
+          id,
+          revision: known.revision,
+          updatedAt: at,
+          deleted: true,
+          body: null,
+          queuedAt: at,
+        },
+  );
+}
+
+/**
+ * After a pull from the start of a restored database has run to its end: what the phone knows the
+ * server held but the pull did not bring is gone from the server. Forgetting it lets `rescan`
+ * queue those records again (and the photo uploads start again), as new to the server.
+ */
+async function forgetLost(deps: RoundDeps, seen: ReadonlySet<string>): Promise<void> {
+  for (const known of await deps.state.allKnown())
+    if (!seen.has(`${known.kind}/${known.id}`)) await deps.state.dropKnown(known.kind, known.id);
+  await rescan(deps.records, deps.state, deps.now());
+}
+
+/**
+ * Pulls everything changed since the cursor and brings it in. A cursor the server does not know
+ * (its database was restored from a copy, or replaced) starts the pull over from the beginning;
+ * once that has run to the end, what the server lost is queued to be pushed again.
+ */
+async function pullAll(
+  deps: RoundDeps,
+  counts: RoundCounts,
+): Promise<SyncFailure | 'reconciled' | null> {
+  const { state, transport } = deps;
+  if (await state.meta('reconcile')) await state.setMeta('cursor', '0');
+  const seen = new Set<string>();
+  for (;;) {
+    const answer = await transport.pull(await state.meta('cursor'));
+    if (!answer.ok) {
+      if (answer.failure.code !== 'cursor-unknown' || (await state.meta('reconcile')))
+        return answer.failure;
+      await state.setMeta('reconcile', true);
+      await state.setMeta('cursor', '0');
+      continue;
+    }
+    for (const record of answer.value.records) {
+      seen.add(`${record.kind}/${record.id}`);
+      await bringIn(deps, record, counts);
+    }
+    await state.setMeta('cursor', answer.value.cursor);
+    if (!answer.value.more) break;
+  }
+  if (!(await state.meta('reconcile'))) return null;
+  await forgetLost(deps, seen);
+  await state.setMeta('reconcile', false);
+  return 'reconciled';
+}
+
 /** Refusals that are about the changes sent, not about the phone or the server. */
 const ABOUT_THE_CHANGE: ReadonlySet<SyncFailure['code']> = new Set([
   'invalid-request',
   'too-large',
+  'too-many-heads',
 ]);
 
 /**
@@ -115,12 +200,20 @@ async function pushBatch(
 }
 
 export async function syncRound(deps: RoundDeps): Promise<RoundResult> {
-  const { state, transport } = deps;
+  const { state } = deps;
   const counts: RoundCounts = { pushed: 0, pulled: 0, refused: 0, unreadable: [] };
   const device = await state.meta('device');
 
   // Bounded by what waited at the start: a person tapping on during the round adds to the next.
-  const batches = Math.ceil((await state.waiting()) / SYNC_LIMITS.changesPerPush);
+  const waiting = async () => Math.ceil((await state.waiting()) / SYNC_LIMITS.changesPerPush);
+  let batches = await waiting();
+
+  // A pull before the push: a restored server is found before anything is pushed on top of
+  // revisions it no longer has. Usually it brings nothing, or what other phones sent.
+  const before = await pullAll(deps, counts);
+  if (before === 'reconciled') batches = await waiting();
+  else if (before) return { ok: false, failure: before, ...counts };
+
   for (let i = 0; i < batches; i++) {
     const changes = await state.pending(SYNC_LIMITS.changesPerPush);
     if (changes.length === 0) break;
@@ -128,13 +221,8 @@ export async function syncRound(deps: RoundDeps): Promise<RoundResult> {
     if (failure) return { ok: false, failure, ...counts };
   }
 
-  for (;;) {
-    const answer = await transport.pull(await state.meta('cursor'));
-    if (!answer.ok) return { ok: false, failure: answer.failure, ...counts };
-    for (const record of answer.value.records) await bringIn(deps, record, counts);
-    await state.setMeta('cursor', answer.value.cursor);
-    if (!answer.value.more) break;
-  }
+  const after = await pullAll(deps, counts);
+  if (after && after !== 'reconciled') return { ok: false, failure: after, ...counts };
   await state.setMeta('lastSuccessAt', deps.now().toISOString());
   return { ok: true, ...counts };
 }

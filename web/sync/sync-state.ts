@@ -54,6 +54,12 @@ interface Meta {
   cursor: string;
   device: string;
   lastSuccessAt: string | null;
+  /**
+   * Set when the server refused the cursor as not from its history (a restored database): pulls
+   * start over from the beginning until one has run to the end, kept here so a round cut short
+   * starts over too.
+   */
+  reconcile: boolean;
 }
 
 interface SyncDb extends DBSchema {
@@ -79,6 +85,7 @@ export interface SyncState {
    */
   settle(receipts: Receipt[], pushed: Change[]): Promise<void>;
   setKnown(entry: KnownEntry): Promise<void>;
+  dropKnown(kind: RecordKind, id: string): Promise<void>;
   known(kind: RecordKind, id: string): Promise<KnownEntry | undefined>;
   allKnown(): Promise<KnownEntry[]>;
   putConflict(entry: ConflictEntry): Promise<void>;
@@ -94,6 +101,7 @@ const META_DEFAULTS: () => Meta = () => ({
   cursor: '0',
   device: crypto.randomUUID(),
   lastSuccessAt: null,
+  reconcile: false,
 });
 
 export async function openSyncState(name = 'rivalplate-sync'): Promise<SyncState> {
@@ -173,6 +181,9 @@ export async function openSyncState(name = 'rivalplate-sync'): Promise<SyncState
     },
     async setKnown(entry) {
       await db.put('known', entry);
+    },
+    async dropKnown(kind, id) {
+      await db.delete('known', [kind, id]);
     },
     known: (kind, id) => db.get('known', [kind, id]),
     allKnown: () => db.getAll('known'),

@@ -5,6 +5,7 @@ import { ExperimentScreen } from './ExperimentScreen.tsx';
 import { HomeScreen } from './HomeScreen.tsx';
 import { PlateScreen } from './PlateScreen.tsx';
 import { SafetyNote } from './SafetyNote.tsx';
+import { WriteFailureBanner } from './WriteFailureBanner.tsx';
 
 export function App() {
   const route = useRoute();
@@ -13,6 +14,7 @@ export function App() {
   return (
     <>
       <SafetyNote />
+      <WriteFailureBanner />
       {update && (
         <div className="banner offer" role="status">
           <span>A new version of Rivalplate is ready. Your work is saved either way.</span>

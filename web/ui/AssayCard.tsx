@@ -1,5 +1,6 @@
 import type { Assay } from '../../schema/records.ts';
 import { useServices } from '../app/services.ts';
+import { saving } from '../app/write-failure.ts';
 import { nextPlateOf } from '../bench/assays.ts';
 import { type ClassLook, otherClass } from '../bench/colours.ts';
 import { assayRecordIds } from '../bench/delete.ts';
@@ -68,7 +69,11 @@ export function AssayCard({
               <button
                 type="button"
                 className="btn quiet"
-                onClick={() => void store.put('plates', nextPlateOf(s, plates, data.experiment))}
+                onClick={() =>
+                  saving(`another ${s.timepoint} plate`, () =>
+                    store.put('plates', nextPlateOf(s, plates, data.experiment)),
+                  )
+                }
               >
                 + another {s.timepoint} plate
               </button>
@@ -80,7 +85,11 @@ export function AssayCard({
         <ConfirmButton
           label="Delete assay"
           armed="Tap again: the assay, its plates and photos go"
-          onConfirm={() => void assayRecordIds(store, assay).then((ids) => store.remove(ids))}
+          onConfirm={() =>
+            saving('the deletion of the assay', () =>
+              assayRecordIds(store, assay).then((ids) => store.remove(ids)),
+            )
+          }
         />
       </div>
     </article>

@@ -13,6 +13,7 @@ import { fitnessInputs } from '../results/assay-inputs.ts';
 import { experimentFitness } from '../results/experiment-fitness.ts';
 import { ConfirmButton } from './ConfirmButton.tsx';
 import { StorageCard } from './StorageCard.tsx';
+import { UnreadableCard } from './UnreadableCard.tsx';
 
 const slug = (s: string) =>
   s
@@ -175,6 +176,7 @@ export function DataTab({ data }: { data: ExperimentData }) {
         />
       </section>
       <StorageCard />
+      <UnreadableCard />
     </>
   );
 }

@@ -3,6 +3,7 @@ import { go } from '../app/route.ts';
 import { useServices } from '../app/services.ts';
 import { useDraft } from '../app/use-draft.ts';
 import { useLive } from '../app/use-live.ts';
+import { saving } from '../app/write-failure.ts';
 import { experimentRecordIds } from '../bench/delete.ts';
 import { installDemo } from '../demo/install-demo.ts';
 import { labAccuracy } from '../review/lab-accuracy.ts';
@@ -11,6 +12,7 @@ import { NewExperimentForm } from './NewExperimentForm.tsx';
 import { StorageCard } from './StorageCard.tsx';
 import { SyncCard } from './SyncCard.tsx';
 import { TopBar } from './TopBar.tsx';
+import { UnreadableCard } from './UnreadableCard.tsx';
 
 export function HomeScreen() {
   const services = useServices();
@@ -59,8 +61,10 @@ export function HomeScreen() {
               label="Remove the demo"
               armed="Tap again to remove the demo"
               onConfirm={() =>
-                void experimentRecordIds(services.store, demo.id).then((ids) =>
-                  services.store.remove(ids),
+                saving('the removal of the demo', () =>
+                  experimentRecordIds(services.store, demo.id).then((ids) =>
+                    services.store.remove(ids),
+                  ),
                 )
               }
             />
@@ -129,6 +133,7 @@ export function HomeScreen() {
         </section>
         <SyncCard />
         <StorageCard />
+        <UnreadableCard />
       </main>
     </>
   );

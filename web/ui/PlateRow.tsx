@@ -4,6 +4,7 @@ import type { Assay, Plate, Sample } from '../../schema/records.ts';
 import { hrefOf } from '../app/route.ts';
 import { useServices } from '../app/services.ts';
 import { useDraft } from '../app/use-draft.ts';
+import { saving } from '../app/write-failure.ts';
 import { plateRecordIds } from '../bench/delete.ts';
 import type { ExperimentData } from '../bench/experiment-data.ts';
 import { plateCount } from '../bench/plate-counts.ts';
@@ -94,7 +95,11 @@ export function PlateRow({
         <ConfirmButton
           label="Delete this plate"
           armed="Tap again: the plate and its photo go"
-          onConfirm={() => void plateRecordIds(store, plate).then((ids) => store.remove(ids))}
+          onConfirm={() =>
+            saving('the deletion of the plate', () =>
+              plateRecordIds(store, plate).then((ids) => store.remove(ids)),
+            )
+          }
         />
       )}
     </div>

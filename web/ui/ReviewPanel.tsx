@@ -3,6 +3,7 @@ import type { DishRecord } from '../../schema/records.ts';
 import { teachColours } from '../analysis/teach.ts';
 import { useServices } from '../app/services.ts';
 import { useObjectUrl } from '../app/use-object-url.ts';
+import { saving } from '../app/write-failure.ts';
 import { type ClassLook, classLooks, otherClass } from '../bench/colours.ts';
 import type { PlateData } from '../bench/plate-data.ts';
 import { saveBlob } from '../exchange/download.ts';
@@ -139,7 +140,11 @@ export function ReviewPanel({
           className="btn primary"
           data-testid="mark-checked"
           disabled={plate.reviewed}
-          onClick={() => void store.put('plates', revised(plate, { reviewed: true }))}
+          onClick={() =>
+            saving('the plate marked reviewed', () =>
+              store.put('plates', revised(plate, { reviewed: true })),
+            )
+          }
         >
           {plate.reviewed ? 'Checked ✓' : 'Mark checked'}
         </button>

@@ -1,0 +1,48 @@
+/**
+ * Records of an older format are upgraded on reading, from a backup file of the format the app
+ * wrote before records carried one (fixtures/backup-format-1.json) and from IndexedDB; a record
+ * from a newer app is refused by name and listed, never half-read.
+ */
+import 'fake-indexeddb/auto';
+import { readFileSync } from 'node:fs';
+import { resolve } from 'node:path';
+import { describe, expect, it } from 'vitest';
+import { RECORD_FORMAT } from '../../schema/record-format.ts';
+import type { Assay } from '../../schema/records.ts';
+import { readBackup } from '../exchange/backup.ts';
+import { openIdbStore } from './idb-store.ts';
+
+const FILE = resolve(import.meta.dirname, '../../fixtures/backup-format-1.json');
+let stores = 0;
+
+describe('record formats', () => {
+  it('reads a backup of format 1 whole, every record at the current format, times in one form', () => {
+    const { batch, count } = readBackup(readFileSync(FILE, 'utf8'), 'backup-format-1.json');
+    expect(count).toBe(5);
+    for (const records of Object.values(batch))
+      for (const r of records ?? []) expect(r.format).toBe(RECORD_FORMAT);
+    // Written as 10:01 at +01:00 by hand; now in the form times are compared in.
+    expect(batch.assays![0]!.updatedAt).toBe('2026-03-02T09:01:00.000Z');
+  });
+
+  it('upgrades a stored format-1 record on reading, and lists one from a newer app', async () => {
+    const store = await openIdbStore(`format-${++stores}`);
+    const doc = JSON.parse(readFileSync(FILE, 'utf8')) as { records: { assays: Assay[] } };
+    const old = doc.records.assays[0]!;
+    // Stored as the app of format 1 stored it: no format field.
+    await store.put('assays', old);
+    expect(await store.get('assays', old.id)).toEqual({
+      ...old,
+      updatedAt: '2026-03-02T09:01:00.000Z',
+      format: RECORD_FORMAT,
+    });
+    const newer = { ...old, id: 'mf-L1-r2', format: RECORD_FORMAT + 1 };
+    await store.put('assays', newer);
+    expect(await store.get('assays', 'mf-L1-r2')).toBeUndefined();
+    const [listed] = await store.unreadable();
+    expect(listed).toMatchObject({ kind: 'assays', id: 'mf-L1-r2', raw: newer });
+    expect(listed!.reason).toMatch(
+      /format: written by a newer version of the app \(record format 3/,
+    );
+  });
+});
