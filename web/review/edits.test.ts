@@ -70,3 +70,12 @@ describe('corrections on top of the automatic count', () => {
     expect(e).toEqual({ op: 'remove', colonyId: 'q' });
   });
 });
+
+describe('adding never stacks a colony on one already there', () => {
+  it('a tap with the add tool on a colony adds nothing; beside it, it adds', () => {
+    const on = editForTap(found, 'add', { x: 104, y: 100, cls: 1, slack: 4, newId: 'z' });
+    expect(on).toBeNull();
+    const beside = editForTap(found, 'add', { x: 130, y: 100, cls: 1, slack: 4, newId: 'z' });
+    expect(beside?.op).toBe('add');
+  });
+});

@@ -5,11 +5,14 @@ import { useReading } from '../analysis/use-reading.ts';
 import { hrefOf } from '../app/route.ts';
 import { useServices } from '../app/services.ts';
 import { useLive } from '../app/use-live.ts';
+import { loadExperiment } from '../bench/experiment-data.ts';
+import { nextPlateNeeded } from '../bench/next-plate.ts';
 import { attachPhoto } from '../bench/photos.ts';
 import { loadPlate } from '../bench/plate-data.ts';
 import { ensureRoomFor } from '../storage/quota.ts';
 import type { SyncClient } from '../sync/sync-client.ts';
 import { PhotoSource } from './PhotoSource.tsx';
+import { PlacePanel } from './PlacePanel.tsx';
 import { ReadingStatus } from './ReadingStatus.tsx';
 import { ReviewPanel } from './ReviewPanel.tsx';
 import { TopBar } from './TopBar.tsx';
@@ -17,6 +20,13 @@ import { TopBar } from './TopBar.tsx';
 export function PlateScreen({ experimentId, plateId }: { experimentId: string; plateId: string }) {
   const { store, worker, sync } = useServices();
   const live = useLive((s) => loadPlate(s.store, plateId), [plateId]);
+  const next = useLive(
+    async (s) => {
+      const all = await loadExperiment(s.store, experimentId);
+      return all && nextPlateNeeded(all, plateId);
+    },
+    [experimentId, plateId],
+  );
   const { reading, start, cancel } = useReading();
   const back = hrefOf({ screen: 'experiment', id: experimentId, tab: 'assays' });
   if (live.state !== 'ready' || !live.value)
@@ -77,7 +87,10 @@ export function PlateScreen({ experimentId, plateId }: { experimentId: string; p
           </section>
         )}
         {!d.photo && !elsewhere && reading.state !== 'running' && (
-          <PhotoSource onPhoto={takePhoto} />
+          <>
+            <PlacePanel assay={d.assay} sample={d.sample} plate={d.plate} />
+            <PhotoSource onPhoto={takePhoto} />
+          </>
         )}
         {d.photo && !d.analysis && reading.state !== 'running' && (
           <section className="card stack">
@@ -93,6 +106,7 @@ export function PlateScreen({ experimentId, plateId }: { experimentId: string; p
             data={{ ...d, analysis: d.analysis }}
             preview={d.photo.preview as Blob}
             busy={reading.state === 'running'}
+            next={next.state === 'ready' ? next.value : null}
             onReread={read}
           />
         )}
