@@ -21,7 +21,7 @@ import {
 } from '../review/unsure.ts';
 import { useCorrections } from '../review/use-corrections.ts';
 import { frameFor } from '../review/view.ts';
-import { counted } from '../words/flag-words.ts';
+import { counted } from '../words/counted.ts';
 import { ConfirmButton } from './ConfirmButton.tsx';
 import { NextPlateButton } from './NextPlateButton.tsx';
 import { PlateFlags } from './PlateFlags.tsx';

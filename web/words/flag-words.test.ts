@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { counted, plateFlagLabel, resultFlagLabel } from './flag-words.ts';
+import { plateFlagLabel, plateFlagSentence, resultFlagLabel } from './flag-words.ts';
 
 describe('flag codes in words', () => {
   it('every known code has words; an unknown one loses its dashes', () => {
@@ -9,9 +9,11 @@ describe('flag codes in words', () => {
     expect(plateFlagLabel('new-kind-of-remark')).toBe('new kind of remark');
   });
 
-  it('counts agree with their noun', () => {
-    expect(counted(1, 'checked plate', 'checked plates')).toBe('1 checked plate');
-    expect(counted(0, 'clump', 'clumps')).toBe('0 clumps');
-    expect(counted(1200, 'colony', 'colonies')).toBe('1,200 colonies');
+  it('sentences put numbers with nouns in the right number', () => {
+    expect(plateFlagSentence({ kind: 'clumps-estimated', clumps: 1, colonies: 3 })).toBe(
+      '1 clump that could not be split, counted from their shape as 3 colonies.',
+    );
+    expect(plateFlagSentence({ kind: 'glare', fraction: 0.124 })).toContain('12%');
+    expect(plateFlagSentence({ kind: 'new-thing', count: 2 })).toBe('new thing: count 2');
   });
 });
