@@ -2,11 +2,20 @@ import type { FlagRecord } from '../../schema/records.ts';
 import { plateFlagLabel } from '../words/flag-words.ts';
 
 /**
- * What the person must have looked at before a plate's count may be trusted: every remark the
- * analysis made on the whole plate, and a plate with no colony at all. Empty when a single tap
- * may mark the plate checked; otherwise marking it takes a second tap that names these.
+ * Remarks about the whole plate: the count as a whole may be wrong (no dish, glare over part of
+ * the agar, out of focus, one colour only, blobs left out). Remarks about single colonies
+ * (unsure colours, clumps, writing on the lid) are marked on the picture where they are, and the
+ * unsure colonies can be stepped through; they do not ask for a second tap, or a guard that fires
+ * on every labelled plate would be tapped through unread.
+ */
+const LOCAL_REMARKS = new Set(['low-confidence', 'clumps-estimated', 'ink']);
+
+/**
+ * What the person must have looked at before a plate's count may be trusted: every remark on the
+ * whole plate, and a plate with no colony at all. Empty when a single tap may mark the plate
+ * checked; otherwise marking it takes a second tap that names these.
  */
 export function plateWarnings(flags: readonly FlagRecord[], total: number): string[] {
-  const words = flags.map((f) => plateFlagLabel(f.kind));
+  const words = flags.filter((f) => !LOCAL_REMARKS.has(f.kind)).map((f) => plateFlagLabel(f.kind));
   return total === 0 ? ['no colonies found', ...words] : words;
 }

@@ -65,9 +65,11 @@ export function colonyAt(
 export type TapTool = 'add' | 'remove' | 'switch';
 
 /**
- * The edit a tap at (x, y) makes, or null when it does nothing: removing or switching on empty
- * agar, and adding on top of a colony (a second colony is never stacked on one already there; a
- * clump the analysis missed is fixed by adding beside it). New colonies take the typical radius.
+ * The edit a tap at (x, y) makes, or null when it does nothing. A colour tool adds a colony of
+ * its colour on empty agar and gives a colony of the other colour its colour; on a colony of its
+ * own colour it does nothing: a second colony is never stacked on one already there (a clump the
+ * analysis missed is fixed by adding beside it). Remove and switch act on the colony under the
+ * tap, and do nothing on empty agar. New colonies take the typical radius.
  */
 export function editForTap(
   colonies: readonly ColonyRecord[],
@@ -76,7 +78,7 @@ export function editForTap(
 ): Edit | null {
   const hit = colonyAt(colonies, at.x, at.y, at.slack);
   if (tool === 'add') {
-    if (hit) return null;
+    if (hit) return hit.cls === at.cls ? null : { op: 'reclass', colonyId: hit.id, cls: at.cls };
     const r = typicalRadius(colonies) ?? at.slack;
     return {
       op: 'add',

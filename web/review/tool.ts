@@ -23,7 +23,7 @@ export function toolHint(tool: Tool, names: readonly [string, string]): string {
     case 'look':
       return 'Pinch to zoom, drag to move. Pick a tool to change the count.';
     case 'add':
-      return `Tap empty agar to add a ${names[tool.cls]} colony.`;
+      return `Tap empty agar to add a ${names[tool.cls]} colony, or a colony to make it ${names[tool.cls]}.`;
     case 'remove':
       return 'Tap a colony to remove it.';
     case 'switch':

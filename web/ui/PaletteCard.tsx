@@ -9,7 +9,7 @@ export function PaletteCard({ data }: { data: ExperimentData }) {
   const [note, setNote] = useState<string | null>(null);
   const p = data.experiment.palette;
   const looks = classLooks(data.experiment);
-  const read = data.analyses.size;
+  const checked = data.plates.filter((pl) => pl.reviewed && data.analyses.has(pl.id)).length;
   return (
     <section className="card" aria-label="Marker colours">
       <div className="row spread">
@@ -27,28 +27,28 @@ export function PaletteCard({ data }: { data: ExperimentData }) {
         {p
           ? p.source === 'taught'
             ? 'Taught by tapping one colony of each colour. Every plate is sorted against these two.'
-            : 'Learned from the plates read. To teach them yourself, open a plate and use "Teach colours".'
-          : 'Not known yet: they are learned from the first plate you photograph that shows both colours.'}
+            : 'Learned from checked plates. To teach them yourself, open a plate and use "Teach colours".'
+          : 'How they look is learned from the first plates you mark checked (plates with a warning are left out), or taught by tapping one colony of each on a plate.'}
       </p>
-      {read > 1 && (
+      {checked > 1 && (
         <button
           type="button"
           className="btn quiet"
           style={{ marginTop: 8 }}
           onClick={() => {
-            setNote('Learning from every plate read so far…');
+            setNote('Learning from the checked plates…');
             learnColours(store, worker, data.experiment).then(
               (ok) =>
                 setNote(
                   ok
-                    ? `Learned from ${read} plates; every plate re-sorted.`
-                    : 'These plates do not show two colours to learn from.',
+                    ? 'Learned; the plates not yet checked are re-sorted, the checked ones keep their counts.'
+                    : 'The checked plates without a warning do not show two colours to learn from.',
                 ),
               (e: unknown) => setNote(`Not learned: ${e instanceof Error ? e.message : String(e)}`),
             );
           }}
         >
-          Learn from all {read} plates read
+          Learn from the {checked} checked plates
         </button>
       )}
       {note && (

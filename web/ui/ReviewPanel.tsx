@@ -1,4 +1,4 @@
-import { useState } from 'react';
+import { useRef, useState } from 'react';
 import type { DishRecord } from '../../schema/records.ts';
 import { teachColours } from '../analysis/teach.ts';
 import { useServices } from '../app/services.ts';
@@ -36,6 +36,7 @@ export function ReviewPanel({
   busy,
   next,
   onReread,
+  onNextPhoto,
 }: {
   data: PlateData & { analysis: NonNullable<PlateData['analysis']> };
   preview: Blob;
@@ -43,6 +44,8 @@ export function ReviewPanel({
   /** The plate the experiment needs after this one, offered once this one is checked. */
   next: PlatePlace | null;
   onReread: (dish: DishRecord) => void;
+  /** A photo taken for the next plate straight from this plate's check. */
+  onNextPhoto: (next: PlatePlace, photo: Blob, name: string) => void;
 }) {
   const { store, worker } = useServices();
   const { analysis, experiment, assay, plate } = data;
@@ -74,6 +77,15 @@ export function ReviewPanel({
 
   const check = () =>
     void markChecked(store, worker, experiment, plate).catch(failed('Not marked checked'));
+  // In a run of plates one tap checks this plate and opens the camera for the next (the
+  // camera may only be opened from the tap itself); cancelling the camera stays here.
+  const nextCamera = useRef<HTMLInputElement>(null);
+  const checkThenNext = () => {
+    check();
+    nextCamera.current?.click();
+  };
+  const checkLabel = next ? 'Checked · next photo' : 'Mark checked';
+  const onCheck = next ? checkThenNext : check;
 
   function tap(x: number, y: number, slack: number) {
     setMessage(null);
@@ -87,7 +99,7 @@ export function ReviewPanel({
       newId: `h${crypto.randomUUID()}`,
     });
     if (edit) corr.apply(edit);
-    else if (tool.kind === 'add') setMessage('A colony is already there: nothing added.');
+    else if (tool.kind === 'add') setMessage(`This colony is ${looks[tool.cls].name} already.`);
   }
 
   function answer(a: UnsureAnswer) {
@@ -182,21 +194,36 @@ export function ReviewPanel({
             <ConfirmButton
               className="btn primary"
               testId="mark-checked"
-              label="Mark checked"
-              armed={`Looked at ${warnings.join(', ')}: checked`}
-              onConfirm={check}
+              label={checkLabel}
+              armed={`Looked at ${warnings.join(', ')}: ${checkLabel.toLowerCase()}`}
+              onConfirm={onCheck}
             />
           ) : (
             <button
               type="button"
               className="btn primary"
               data-testid="mark-checked"
-              onClick={check}
+              onClick={onCheck}
             >
-              Mark checked
+              {checkLabel}
             </button>
           )}
           {plate.reviewed && next && <NextPlateButton next={next} />}
+          {next && (
+            <input
+              ref={nextCamera}
+              type="file"
+              accept="image/*"
+              capture="environment"
+              hidden
+              data-testid="next-camera-input"
+              onChange={(e) => {
+                const file = e.target.files?.[0];
+                e.target.value = '';
+                if (file) onNextPhoto(next, file, file.name);
+              }}
+            />
+          )}
         </div>
       </TallyBar>
       <ReviewMore
