@@ -1,14 +1,20 @@
 import type { Analysis } from '../../fitness/analysis.ts';
 import type { FitnessInputs } from '../results/assay-inputs.ts';
 import { fixed3, interval } from '../results/format.ts';
+import { plateFlagLabel, resultFlagLabel } from '../words/flag-words.ts';
 
-/** Per assay: W with its counting-noise interval, r per day with its SE, and every flag. */
+/**
+ * Per assay: W with its counting-noise interval, r per day with its SE, every flag in words, and
+ * a mark on the assays resting on photo counts nobody checked.
+ */
 export function AssayResults({
   analysis,
   imageFlags,
+  unchecked,
 }: {
   analysis: Analysis;
   imageFlags: FitnessInputs['imageFlags'];
+  unchecked: ReadonlySet<string>;
 }) {
   const flagged = analysis.assays.some((x) => x.flags.length || imageFlags.get(x.assay)?.length);
   return (
@@ -34,7 +40,14 @@ export function AssayResults({
           <tbody>
             {analysis.assays.map((x) => (
               <tr key={x.assay} data-testid={`result-${x.assay}`}>
-                <td>{x.assay}</td>
+                <td>
+                  {x.assay}
+                  {unchecked.has(x.assay) && (
+                    <span className="flag" data-testid="unchecked">
+                      unchecked
+                    </span>
+                  )}
+                </td>
                 <td data-testid="W">{fixed3(x.W)}</td>
                 <td>{interval(x.W_ci)}</td>
                 <td>
@@ -43,7 +56,7 @@ export function AssayResults({
                 <td style={{ textAlign: 'left' }}>
                   {x.flags.map((fl) => (
                     <span key={fl.code} className="flag" title={fl.message}>
-                      {fl.code}
+                      {resultFlagLabel(fl.code)}
                     </span>
                   ))}
                   {imageFlags.get(x.assay)?.map((fl) => (
@@ -52,7 +65,7 @@ export function AssayResults({
                       className="flag"
                       title={`${fl.plate}: ${fl.detail}`}
                     >
-                      {fl.kind}
+                      {plateFlagLabel(fl.kind)}
                     </span>
                   ))}
                 </td>

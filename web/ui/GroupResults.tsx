@@ -2,7 +2,14 @@ import type { Analysis } from '../../fitness/analysis.ts';
 import { fixed3, interval, pValue } from '../results/format.ts';
 
 /** Replicate groups, the marker effect when there are marker controls, and the group comparison. */
-export function GroupResults({ analysis }: { analysis: Analysis }) {
+export function GroupResults({
+  analysis,
+  unchecked,
+}: {
+  analysis: Analysis;
+  /** Groups with an assay resting on photo counts nobody checked. */
+  unchecked: ReadonlySet<string>;
+}) {
   const m = analysis.markerEffect;
   const c = analysis.comparison;
   return (
@@ -25,7 +32,10 @@ export function GroupResults({ analysis }: { analysis: Analysis }) {
           <tbody>
             {analysis.groups.map((g) => (
               <tr key={g.group}>
-                <td>{g.group}</td>
+                <td>
+                  {g.group}
+                  {unchecked.has(g.group) && <span className="flag">unchecked</span>}
+                </td>
                 <td>{g.W.n}</td>
                 <td>{fixed3(g.W.mean)}</td>
                 <td>{fixed3(g.W.sd)}</td>

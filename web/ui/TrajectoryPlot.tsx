@@ -2,15 +2,23 @@ import type { Ref } from 'react';
 import type { AnalysedAssay, LineTrajectory } from '../../fitness/analysis.ts';
 import { type CurveFit, curveAt, type ModelFailure } from '../../fitness/trajectories.ts';
 import { niceTicks } from '../results/axis.ts';
+import { MODEL_NAMES, modelDoubt } from '../results/model-trust.ts';
 
 const W = 360;
 const H = 240;
 const M = { left: 46, right: 10, top: 12, bottom: 40 };
 
-/** Points along a fitted curve from generation 0 to the last measured one; none for a failed fit. */
+/**
+ * Points along a fitted curve from generation 0 to the last measured one; none for a model that
+ * must not be read as a result (too few generations, a failed fit, a poorly determined parameter).
+ */
 const CURVE_POINTS = 64;
-function curvePoints(fit: CurveFit | ModelFailure, gMax: number): { g: number; w: number }[] {
-  if ('reason' in fit) return [];
+function curvePoints(
+  t: LineTrajectory,
+  fit: CurveFit | ModelFailure,
+  gMax: number,
+): { g: number; w: number }[] {
+  if ('reason' in fit || modelDoubt(t, fit)) return [];
   const w = curveAt(fit);
   return Array.from({ length: CURVE_POINTS + 1 }, (_, i) => {
     const g = (gMax * i) / CURVE_POINTS;
@@ -20,7 +28,7 @@ function curvePoints(fit: CurveFit | ModelFailure, gMax: number): { g: number; w
 
 /**
  * Relative fitness of one line over generations: each assay with its counting-noise interval,
- * the fitted hyperbolic and power-law curves, and the step model.
+ * and the fitted hyperbolic and power-law curves and step model that may be read as results.
  */
 export function TrajectoryPlot({
   trajectory,
@@ -41,7 +49,10 @@ export function TrajectoryPlot({
   const y = (w: number) => H - M.bottom - ((w - yLo) / (yHi - yLo)) * (H - M.top - M.bottom);
   const line = (pts: { g: number; w: number }[]) =>
     pts.map((p, i) => `${i ? 'L' : 'M'}${x(p.g)},${y(p.w)}`).join(' ');
-  const step = 'reason' in trajectory.step ? null : trajectory.step;
+  const step =
+    'reason' in trajectory.step || modelDoubt(trajectory, trajectory.step) ? null : trajectory.step;
+  const hyperbolic = curvePoints(trajectory, trajectory.hyperbolic, gMax);
+  const powerLaw = curvePoints(trajectory, trajectory.powerLaw, gMax);
   return (
     <svg
       ref={svgRef}
@@ -95,19 +106,18 @@ export function TrajectoryPlot({
           opacity={0.7}
         />
       ))}
-      <path
-        d={line(curvePoints(trajectory.hyperbolic, gMax))}
-        fill="none"
-        stroke="#1f3b36"
-        strokeWidth={2}
-      />
-      <path
-        d={line(curvePoints(trajectory.powerLaw, gMax))}
-        fill="none"
-        stroke="#c98f0c"
-        strokeWidth={2}
-        strokeDasharray="5 3"
-      />
+      {hyperbolic.length > 0 && (
+        <path d={line(hyperbolic)} fill="none" stroke="#1f3b36" strokeWidth={2} />
+      )}
+      {powerLaw.length > 0 && (
+        <path
+          d={line(powerLaw)}
+          fill="none"
+          stroke="#c98f0c"
+          strokeWidth={2}
+          strokeDasharray="5 3"
+        />
+      )}
       {own.map((a, i) => {
         const gx = x(a.generation) + ((i % 3) - 1) * 4;
         return (
@@ -119,28 +129,30 @@ export function TrajectoryPlot({
           </g>
         );
       })}
-      <g transform={`translate(${M.left + 8} ${M.top + 6})`}>
-        <line x1={0} x2={16} y1={0} y2={0} stroke="#1f3b36" strokeWidth={2} />
-        <text x={20} y={4}>
-          hyperbolic
-        </text>
-        <line
-          x1={86}
-          x2={102}
-          y1={0}
-          y2={0}
-          stroke="#c98f0c"
-          strokeWidth={2}
-          strokeDasharray="5 3"
-        />
-        <text x={106} y={4}>
-          power law
-        </text>
-        <line x1={170} x2={186} y1={0} y2={0} stroke="#a8341f" strokeWidth={2} />
-        <text x={190} y={4}>
-          steps
-        </text>
-      </g>
+      {(hyperbolic.length > 0 || powerLaw.length > 0 || step) && (
+        <g transform={`translate(${M.left + 8} ${M.top + 6})`}>
+          <line x1={0} x2={16} y1={0} y2={0} stroke="#1f3b36" strokeWidth={2} />
+          <text x={20} y={4}>
+            {MODEL_NAMES.hyperbolic}
+          </text>
+          <line
+            x1={86}
+            x2={102}
+            y1={0}
+            y2={0}
+            stroke="#c98f0c"
+            strokeWidth={2}
+            strokeDasharray="5 3"
+          />
+          <text x={106} y={4}>
+            {MODEL_NAMES['power-law']}
+          </text>
+          <line x1={170} x2={186} y1={0} y2={0} stroke="#a8341f" strokeWidth={2} />
+          <text x={190} y={4}>
+            {MODEL_NAMES.step}
+          </text>
+        </g>
+      )}
     </svg>
   );
 }
