@@ -5,7 +5,7 @@ import { generationSpan, modelDoubt } from './model-trust.ts';
 
 const line = (generations: number[]) =>
   ({ points: generations.map((g) => ({ generation: g, w: 1, assay: `a${g}` })) }) as LineTrajectory;
-const fit = (poorly: boolean) =>
+const curve = (poorly: boolean) =>
   ({
     model: 'power-law',
     parameters: [
@@ -16,15 +16,15 @@ const fit = (poorly: boolean) =>
 
 describe('which trajectory models may be shown as results', () => {
   it('none with fewer than three generations, however well they fit', () => {
-    expect(modelDoubt(line([0, 500, 500]), fit(false))).toBe(
+    expect(modelDoubt(line([0, 500, 500]), curve(false))).toBe(
       'measured at 2 generations; a model needs 3',
     );
   });
 
   it('none with a poorly determined parameter, or a failed fit', () => {
-    expect(modelDoubt(line([0, 500, 1000]), fit(true))).toMatch(/poorly determined/);
+    expect(modelDoubt(line([0, 500, 1000]), curve(true))).toMatch(/poorly determined/);
     expect(modelDoubt(line([0, 500, 1000]), { model: 'step', reason: 'x' })).toBe('not fitted: x');
-    expect(modelDoubt(line([0, 500, 1000]), fit(false))).toBeNull();
+    expect(modelDoubt(line([0, 500, 1000]), curve(false))).toBeNull();
   });
 
   it('a span of one generation is named as one', () => {
