@@ -1,4 +1,5 @@
 import type { ColonyRecord, Experiment } from '../../schema/records.ts';
+import { plateWarnings } from '../bench/plate-warnings.ts';
 import type { RecordStore } from '../storage/record-store.ts';
 import { revised } from '../storage/stamp.ts';
 import { pairInNamedOrder } from './class-order.ts';
@@ -39,7 +40,8 @@ export async function teachColours(
 
 /**
  * Learns the two marker colours from every plate the person has checked that carries no warning
- * (more plates give a steadier palette than one alone; an unchecked or flagged plate may be a bad one), puts them in the order
+ * on the whole plate (more plates give a steadier palette than one alone; an unchecked plate, or
+ * one with glare, no dish or one colour, may be a bad one), puts them in the order
  * of the experiment's names, then re-sorts the plates not yet checked: a checked plate keeps the
  * counts the person checked. Resolves to false when those plates do not show two colours.
  */
@@ -49,7 +51,7 @@ export async function learnColours(
   experiment: Experiment,
 ): Promise<boolean> {
   const { unchecked, checked } = await experimentAnalyses(store, experiment.id);
-  const clean = checked.filter((a) => a.flags.length === 0);
+  const clean = checked.filter((a) => plateWarnings(a.flags, a.colonies.length).length === 0);
   const learned = await worker.call((api) => api.learnPalette(clean.map(plateAnalysisOf)));
   if (!learned) return false;
   const palette = {

@@ -16,17 +16,14 @@ export function GroupResults({
     <section className="card" aria-label="Groups">
       <h2>Replicate groups</h2>
       <div className="table-wrap">
-        <table className="results num">
+        <table className="results num" data-testid="group-results">
           <thead>
             <tr>
               <th>Group</th>
               <th>n</th>
-              <th>mean W</th>
-              <th>SD</th>
+              <th>mean W ± SD</th>
               <th>95% CI (t)</th>
               <th>p (W = 1)</th>
-              <th>mean r</th>
-              <th>p (r = 0)</th>
             </tr>
           </thead>
           <tbody>
@@ -37,17 +34,39 @@ export function GroupResults({
                   {unchecked.has(g.group) && <span className="flag">unchecked</span>}
                 </td>
                 <td>{g.W.n}</td>
-                <td>{fixed3(g.W.mean)}</td>
-                <td>{fixed3(g.W.sd)}</td>
+                <td>
+                  {fixed3(g.W.mean)} ± {fixed3(g.W.sd)}
+                </td>
                 <td>{interval(g.W.ci)}</td>
                 <td>{pValue(g.W_vs_1?.p)}</td>
-                <td>{fixed3(g.r.mean)}</td>
-                <td>{pValue(g.r_vs_0?.p)}</td>
               </tr>
             ))}
           </tbody>
         </table>
       </div>
+      <details>
+        <summary>r per group (mean r, p for r = 0)</summary>
+        <div className="table-wrap">
+          <table className="results num">
+            <thead>
+              <tr>
+                <th>Group</th>
+                <th>mean r</th>
+                <th>p (r = 0)</th>
+              </tr>
+            </thead>
+            <tbody>
+              {analysis.groups.map((g) => (
+                <tr key={g.group}>
+                  <td>{g.group}</td>
+                  <td>{fixed3(g.r.mean)}</td>
+                  <td>{pValue(g.r_vs_0?.p)}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </div>
+      </details>
       <p className="muted">Two-sided one-sample t-tests; intervals from Student's t.</p>
       {m && (
         <p data-testid="marker-effect">

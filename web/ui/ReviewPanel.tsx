@@ -6,9 +6,9 @@ import { useObjectUrl } from '../app/use-object-url.ts';
 import { type ClassLook, classLooks } from '../bench/colours.ts';
 import type { PlatePlace } from '../bench/next-plate.ts';
 import type { PlateData } from '../bench/plate-data.ts';
+import { plateWarnings } from '../bench/plate-warnings.ts';
 import { saveBlob } from '../exchange/download.ts';
 import { annotatedPng } from '../review/annotated-png.ts';
-import { plateWarnings } from '../review/check-guard.ts';
 import { colonyAt, correctedColonies, countsByClass, editForTap } from '../review/edits.ts';
 import { markChecked } from '../review/mark-checked.ts';
 import { LOOK, type Tool } from '../review/tool.ts';
@@ -84,8 +84,9 @@ export function ReviewPanel({
     check();
     nextCamera.current?.click();
   };
-  const checkLabel = next ? 'Checked · next photo' : 'Mark checked';
-  const onCheck = next ? checkThenNext : check;
+  const photoNext = next && !next.plate.photoId ? next : null;
+  const checkLabel = photoNext ? 'Checked · next photo' : 'Mark checked';
+  const onCheck = photoNext ? checkThenNext : check;
 
   function tap(x: number, y: number, slack: number) {
     setMessage(null);
@@ -209,7 +210,7 @@ export function ReviewPanel({
             </button>
           )}
           {plate.reviewed && next && <NextPlateButton next={next} />}
-          {next && (
+          {photoNext && (
             <input
               ref={nextCamera}
               type="file"
@@ -220,7 +221,7 @@ export function ReviewPanel({
               onChange={(e) => {
                 const file = e.target.files?.[0];
                 e.target.value = '';
-                if (file) onNextPhoto(next, file, file.name);
+                if (file) onNextPhoto(photoNext, file, file.name);
               }}
             />
           )}

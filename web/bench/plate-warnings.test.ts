@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { plateWarnings } from './check-guard.ts';
+import { plateWarnings } from './plate-warnings.ts';
 
 describe('a plate with a warning is not checked with one tap', () => {
   it('a clean plate with colonies needs no second tap', () => {
