@@ -1,7 +1,11 @@
-import type { Analysis } from '../../fitness/analysis.ts';
+import { type Analysis, DEFAULT_MARKER_CONTROL_GROUP } from '../../fitness/analysis.ts';
 import { fixed3, interval, pValue } from '../results/format.ts';
+import { generationComparisons } from '../results/generation-comparisons.ts';
 
-/** Replicate groups, the marker effect when there are marker controls, and the group comparison. */
+/**
+ * Replicate groups (each line against the ancestor: W = 1), the marker effect when there are
+ * marker controls, and the lines compared with each other at each generation.
+ */
 export function GroupResults({
   analysis,
   unchecked,
@@ -11,7 +15,7 @@ export function GroupResults({
   unchecked: ReadonlySet<string>;
 }) {
   const m = analysis.markerEffect;
-  const c = analysis.comparison;
+  const compared = generationComparisons(analysis.assays, m?.group ?? DEFAULT_MARKER_CONTROL_GROUP);
   return (
     <section className="card" aria-label="Groups">
       <h2>Replicate groups</h2>
@@ -77,12 +81,12 @@ export function GroupResults({
             : 'Not applied to the other assays.'}
         </p>
       )}
-      {c?.W && (
-        <p>
-          <b>{c.test === 'welch' ? "Welch's t-test" : 'One-way ANOVA'}</b> of W across{' '}
-          {c.groups.length} groups: p = {pValue(c.W.p)}.
+      {compared.map((c) => (
+        <p key={c.generation} data-testid="generation-comparison">
+          <b>Lines at generation {c.generation}</b> ({c.groups.join(', ')}):{' '}
+          {c.test === 'welch' ? "Welch's t-test" : 'one-way ANOVA'} of W, p = {pValue(c.result.p)}.
         </p>
-      )}
+      ))}
     </section>
   );
 }
