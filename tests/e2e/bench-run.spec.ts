@@ -1,3 +1,4 @@
+import { readFileSync } from 'node:fs';
 import { resolve } from 'node:path';
 import { expect, type Locator, type Page, test } from '@playwright/test';
 import {
@@ -182,7 +183,19 @@ test('a bench run of 12 plates from the camera screen to checked counts', async 
   await page.getByRole('link', { name: 'Back' }).tap();
   await expect(page.getByText('photo, checked')).toHaveCount(plates);
   await page.getByRole('link', { name: 'Fitness' }).tap();
+  await expect(page.getByTestId('assay-results')).toBeVisible({ timeout: 60_000 });
+  // Every count was checked: nothing is marked as resting on unchecked counts.
+  await expect(page.getByTestId('unchecked')).toHaveCount(0);
   await fitsWidth(page, '69-fitness');
+
+  // The plate table names the evolved line's colour as the experiment does.
   await page.getByRole('link', { name: 'Files' }).tap();
+  const download = page.waitForEvent('download');
+  await page.getByTestId('export-plates').tap();
+  const csv = readFileSync(await (await download).path(), 'utf8')
+    .trim()
+    .split(/\r\n/);
+  expect(new Set(csv.slice(1).map((row) => row.split(',').at(-1)))).toEqual(new Set(['white']));
+  await expect(page.getByText(/^Saved bench-run-plates\.csv/)).toBeVisible();
   await fitsWidth(page, '70-files');
 });
