@@ -139,7 +139,6 @@ test('a bench run of 12 plates from the camera screen to checked counts', async 
 
     const screen = await marksOnScreen(page);
     const fixes = correctionsFromTruth(truthFile, screen.marks, screen.a, MOST_CORRECTIONS);
-    console.log(`plate ${n + 1}: ${fixes.map((f) => `${f.op}${f.cls}`).join(' ')}`);
     const held = { tool: null as string | null };
     // One tool after the other: each colour (adding and recolouring), then removing.
     const order = (c: Correction) => (c.op === 'remove' ? 2 : c.cls);
