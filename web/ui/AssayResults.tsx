@@ -1,7 +1,7 @@
 import type { Analysis } from '../../fitness/analysis.ts';
 import type { FitnessInputs } from '../results/assay-inputs.ts';
 import { fixed3, interval } from '../results/format.ts';
-import { plateFlagLabel, resultFlagLabel } from '../words/flag-words.ts';
+import { assayFlagLabels } from '../words/flag-words.ts';
 
 /**
  * Per assay: W with its counting-noise interval, r per day with its SE, every flag in words, and
@@ -34,43 +34,38 @@ export function AssayResults({
               <th>W</th>
               <th>95% CI</th>
               <th>r/day ± SE</th>
-              <th>Flags</th>
             </tr>
           </thead>
           <tbody>
-            {analysis.assays.map((x) => (
-              <tr key={x.assay} data-testid={`result-${x.assay}`}>
-                <td>
-                  {x.assay}
-                  {unchecked.has(x.assay) && (
-                    <span className="flag" data-testid="unchecked">
-                      unchecked
-                    </span>
-                  )}
-                </td>
-                <td data-testid="W">{fixed3(x.W)}</td>
-                <td>{interval(x.W_ci)}</td>
-                <td>
-                  {fixed3(x.rPerDay)} ± {fixed3(x.countingSe.r / x.days)}
-                </td>
-                <td style={{ textAlign: 'left' }}>
-                  {x.flags.map((fl) => (
-                    <span key={fl.code} className="flag" title={fl.message}>
-                      {resultFlagLabel(fl.code)}
-                    </span>
-                  ))}
-                  {imageFlags.get(x.assay)?.map((fl) => (
-                    <span
-                      key={fl.plate + fl.kind}
-                      className="flag"
-                      title={`${fl.plate}: ${fl.detail}`}
-                    >
-                      {plateFlagLabel(fl.kind)}
-                    </span>
-                  ))}
-                </td>
-              </tr>
-            ))}
+            {analysis.assays.flatMap((x) => {
+              const labels = assayFlagLabels(x.flags, imageFlags.get(x.assay) ?? []);
+              return [
+                <tr key={x.assay} data-testid={`result-${x.assay}`}>
+                  <td>{x.assay}</td>
+                  <td data-testid="W">{fixed3(x.W)}</td>
+                  <td>{interval(x.W_ci)}</td>
+                  <td>
+                    {fixed3(x.rPerDay)} ± {fixed3(x.countingSe.r / x.days)}
+                  </td>
+                </tr>,
+                (unchecked.has(x.assay) || labels.length > 0) && (
+                  <tr key={`${x.assay}-flags`} className="flags-row">
+                    <td colSpan={4}>
+                      {unchecked.has(x.assay) && (
+                        <span className="flag" data-testid="unchecked">
+                          unchecked
+                        </span>
+                      )}
+                      {labels.map((l) => (
+                        <span key={l} className="flag">
+                          {l}
+                        </span>
+                      ))}
+                    </td>
+                  </tr>
+                ),
+              ];
+            })}
           </tbody>
         </table>
       </div>

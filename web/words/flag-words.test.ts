@@ -1,5 +1,10 @@
 import { describe, expect, it } from 'vitest';
-import { plateFlagLabel, plateFlagSentence, resultFlagLabel } from './flag-words.ts';
+import {
+  assayFlagLabels,
+  plateFlagLabel,
+  plateFlagSentence,
+  resultFlagLabel,
+} from './flag-words.ts';
 
 describe('flag codes in words', () => {
   it('every known code has words; an unknown one loses its dashes', () => {
@@ -15,5 +20,14 @@ describe('flag codes in words', () => {
     );
     expect(plateFlagSentence({ kind: 'glare', fraction: 0.124 })).toContain('12%');
     expect(plateFlagSentence({ kind: 'new-thing', count: 2 })).toBe('new thing: count 2');
+  });
+
+  it('an assay names each remark once, however many of its plates carry it', () => {
+    expect(
+      assayFlagLabels(
+        [{ code: 'out-of-range' }],
+        [{ kind: 'ink' }, { kind: 'ink' }, { kind: 'glare' }],
+      ),
+    ).toEqual(['plate outside the countable range', 'writing on the lid', 'lid glare']);
   });
 });

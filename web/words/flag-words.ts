@@ -41,6 +41,22 @@ export function resultFlagLabel(code: string): string {
   return RESULT_FLAG_LABELS[code] ?? asWords(code);
 }
 
+/**
+ * The short labels of one assay's remarks, each once: the fitness engine's, then those of its
+ * plates (which plate each belongs to is said in the sentences).
+ */
+export function assayFlagLabels(
+  resultFlags: readonly { code: string }[],
+  plateFlags: readonly { kind: string }[],
+): string[] {
+  return [
+    ...new Set([
+      ...resultFlags.map((f) => resultFlagLabel(f.code)),
+      ...plateFlags.map((f) => plateFlagLabel(f.kind)),
+    ]),
+  ];
+}
+
 /** A remark of the plate analysis: its code and the numbers that go with it. */
 export interface PlateFlagCode {
   kind: string;
