@@ -53,6 +53,17 @@ export function TrajectoryPlot({
     'reason' in trajectory.step || modelDoubt(trajectory, trajectory.step) ? null : trajectory.step;
   const hyperbolic = curvePoints(trajectory, trajectory.hyperbolic, gMax);
   const powerLaw = curvePoints(trajectory, trajectory.powerLaw, gMax);
+  // The legend names only what is drawn.
+  const legend = [
+    {
+      name: MODEL_NAMES.hyperbolic,
+      stroke: '#1f3b36',
+      dash: undefined,
+      shown: hyperbolic.length > 0,
+    },
+    { name: MODEL_NAMES['power-law'], stroke: '#c98f0c', dash: '5 3', shown: powerLaw.length > 0 },
+    { name: MODEL_NAMES.step, stroke: '#a8341f', dash: undefined, shown: step !== null },
+  ].filter((l) => l.shown);
   return (
     <svg
       ref={svgRef}
@@ -129,30 +140,24 @@ export function TrajectoryPlot({
           </g>
         );
       })}
-      {(hyperbolic.length > 0 || powerLaw.length > 0 || step) && (
-        <g transform={`translate(${M.left + 8} ${M.top + 6})`}>
-          <line x1={0} x2={16} y1={0} y2={0} stroke="#1f3b36" strokeWidth={2} />
-          <text x={20} y={4}>
-            {MODEL_NAMES.hyperbolic}
-          </text>
-          <line
-            x1={86}
-            x2={102}
-            y1={0}
-            y2={0}
-            stroke="#c98f0c"
-            strokeWidth={2}
-            strokeDasharray="5 3"
-          />
-          <text x={106} y={4}>
-            {MODEL_NAMES['power-law']}
-          </text>
-          <line x1={170} x2={186} y1={0} y2={0} stroke="#a8341f" strokeWidth={2} />
-          <text x={190} y={4}>
-            {MODEL_NAMES.step}
-          </text>
-        </g>
-      )}
+      <g transform={`translate(${M.left + 8} ${M.top + 6})`}>
+        {legend.map((l, i) => (
+          <g key={l.name} transform={`translate(${i * 84} 0)`}>
+            <line
+              x1={0}
+              x2={16}
+              y1={0}
+              y2={0}
+              stroke={l.stroke}
+              strokeWidth={2}
+              strokeDasharray={l.dash}
+            />
+            <text x={20} y={4}>
+              {l.name}
+            </text>
+          </g>
+        ))}
+      </g>
     </svg>
   );
 }
