@@ -19,12 +19,19 @@ test('the demo screens at 360 × 740', async ({ page }) => {
     timeout: 120_000,
   });
   await fitsWidth(page, '80-demo-bench');
+  // The colours can be renamed later; their counts stay with them.
+  const colours = page.getByRole('region', { name: 'Marker colours' });
+  await colours.getByText('Rename the colours').tap();
+  await colours.getByLabel('Colour 1').fill('ancestor blue');
+  await colours.getByRole('button', { name: 'Save names' }).tap();
+  await expect(colours.locator('.chip').first()).toHaveText('ancestor blue');
   await page.getByText('Line L2 · 6 assays').tap();
   await page
     .getByTestId('plate-L2-g2000-r1-start-100000')
     .getByRole('link', { name: 'Photo of start plate' })
     .tap();
   await expect(page.getByTestId('tally')).toBeVisible();
+  await expect(page.getByTestId('count-0')).toContainText('ancestor blue');
   await page.locator('details.review-more summary').tap();
   await fitsWidth(page, '81-demo-review-more');
   await page.getByRole('link', { name: 'Back' }).tap();

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { markerColours, mediumById } from './media.ts';
+import { markerColours, mediumById, renamedColours } from './media.ts';
 
 describe('the experiment names its two colours', () => {
   it('blank names take the medium defaults; typed ones are kept, trimmed', () => {
@@ -17,5 +17,16 @@ describe('the experiment names its two colours', () => {
       'Give the two colours different names.',
     );
     expect(mediumById('nonesuch').colours[0].name).toBe('colour 1');
+  });
+});
+
+describe('renaming the colours later', () => {
+  it('keeps their look and their order; blank keeps a name; equal names are refused', () => {
+    const ta = mediumById('ta').colours;
+    expect(renamedColours(ta, ['Ara-', ''])).toEqual([
+      { name: 'Ara-', hex: ta[0].hex },
+      { name: 'white', hex: ta[1].hex },
+    ]);
+    expect(renamedColours(ta, ['', 'RED'])).toBe('Give the two colours different names.');
   });
 });

@@ -58,3 +58,19 @@ export function markerColours(
     { name: b, hex: medium.colours[1].hex },
   ];
 }
+
+/**
+ * The experiment's colours under new names (blank keeps a name), their look unchanged; or why
+ * not. Only the names change: every count stays with its colour class.
+ */
+export function renamedColours(
+  current: readonly [MarkerColour, MarkerColour],
+  names: readonly [string, string],
+): [MarkerColour, MarkerColour] | string {
+  const [a, b] = names.map((n, i) => n.trim() || current[i]!.name) as [string, string];
+  if (a.toLowerCase() === b.toLowerCase()) return 'Give the two colours different names.';
+  return [
+    { ...current[0], name: a },
+    { ...current[1], name: b },
+  ];
+}
