@@ -90,7 +90,7 @@ export async function run(args: string[], io: CommandIo): Promise<number> {
         onPhoto: (i, n, file) => io.status?.(`[${batch} ${i}/${n}] ${basename(file)}`),
       },
     );
-    outcomes.forEach((o, i) => rows.push(plateRow(members[i]!, o)));
+    for (const [i, o] of outcomes.entries()) rows.push(plateRow(members[i]!, o));
   }
   io.status?.('');
   const summaries = batches.map((b) => ({

@@ -111,21 +111,37 @@ describe('rivalplate count options', () => {
     expect(first.code).toBe(0);
     const saved = JSON.parse(await readFile(palette, 'utf8'));
     expect(saved.colours.map((c: { name: string }) => c.name).sort()).toEqual(['blue', 'cream']);
+    // The person names the palette's two classes; the columns keep those names and that order.
+    const names = saved.colours.map((c: { name: string }) =>
+      c.name === 'blue' ? 'anc' : 'evolved',
+    );
     const later = await runCount([
       '--csv',
       '--palette',
       palette,
+      '--names',
+      names.join(','),
       join(DEMO, 'marrowfield-L6-day1-mostly-blue.jpg'),
     ]);
     const [header, row] = later.out.trim().split('\n');
     expect(header).toMatch(
-      /^file,width,height,dish_cx,dish_cy,dish_r,total,count_blue,count_cream,/,
+      new RegExp(
+        `^file,width,height,dish_cx,dish_cy,dish_r,total,count_${names[0]},count_${names[1]},`,
+      ),
     );
     const cells = row!.split(',');
-    const blue = Number(cells[7]);
-    const cream = Number(cells[8]);
+    const blue = Number(cells[names[0] === 'anc' ? 7 : 8]);
+    const cream = Number(cells[names[0] === 'anc' ? 8 : 7]);
     expect(blue).toBeGreaterThan(180); // truth 194 blue : 6 cream
     expect(cream).toBeLessThanOrEqual(10);
+  }, 120_000);
+
+  it('names its count columns by class, never by a measured colour', async () => {
+    const plain = await runCount(['--csv', join(DEMO, 'marrowfield-L2-day0.jpg')]);
+    expect(plain.out.split('\n')[0]).toMatch(/,total,count_colour_1,count_colour_2,/);
+    const bad = await runCount(['--csv', '--names', 'red', DEMO]);
+    expect(bad.code).toBe(2);
+    expect(bad.err).toMatch(/--names takes two different names/);
   }, 120_000);
 
   it('decodes a 100-megapixel photo at a reduced size and reports it in full-size pixels', async () => {

@@ -8,7 +8,14 @@ import { parseArgs } from 'node:util';
 import type { Palette } from '../cv/index.ts';
 import { type CountableRange, DEFAULT_COUNTABLE_RANGE } from '../fitness/countable-range.ts';
 import { countBatch } from './count-batch.ts';
-import { type CountRecord, countRecord, csvErrorRow, csvHeader, csvRow } from './count-record.ts';
+import {
+  type CountRecord,
+  classCounts,
+  countRecord,
+  csvErrorRow,
+  csvHeader,
+  csvRow,
+} from './count-record.ts';
 import type { CommandIo } from './io.ts';
 import { loadCvCore } from './opencv-quiet.ts';
 import { parseRange, UsageError, wholeNumber } from './options.ts';
@@ -24,7 +31,10 @@ is classified against them, so a plate holding only one strain is not split in t
 
 Options:
   --json                 one JSON object per photo, one per line
-  --csv                  one CSV row per photo (a count column per colour)
+  --csv                  one CSV row per photo, a count column per colour class (1 and 2)
+  --names A,B            what to call colour 1 and colour 2 in the CSV columns and the summary
+                         (default colour_1,colour_2); with --palette the classes keep the
+                         palette's order, so the columns mean the same in every batch
   --palette FILE         classify against this palette (from --save-palette)
   --save-palette FILE    write the palette learned from this batch
   --out FILE             write the results to FILE instead of standard output
@@ -41,6 +51,8 @@ const PHOTO_EXTENSIONS = new Set(['.jpg', '.jpeg', '.png', '.webp']);
 
 interface Options {
   format: 'json' | 'csv' | 'text';
+  /** Names of colour class 0 and 1. */
+  names: [string, string];
   palette?: string;
   savePalette?: string;
   out?: string;
@@ -92,7 +104,7 @@ export async function run(args: string[], io: CommandIo): Promise<number> {
   const records = outcomes.map((o) =>
     'analysis' in o ? countRecord(o.file, o.original, o.analysis, o.ms, options.range) : o,
   );
-  const text = render(records, options.format, palette);
+  const text = render(records, options.format, options.names);
   if (options.out) await writeFile(options.out, text);
   else io.out(text);
   let failed = 0;
@@ -112,6 +124,7 @@ function parseOptions(args: string[]): Options {
     options: {
       json: { type: 'boolean' },
       csv: { type: 'boolean' },
+      names: { type: 'string' },
       palette: { type: 'string' },
       'save-palette': { type: 'string' },
       out: { type: 'string' },
@@ -123,6 +136,7 @@ function parseOptions(args: string[]): Options {
   if (values.json && values.csv) throw new UsageError('choose one of --json and --csv');
   return {
     format: values.json ? 'json' : values.csv ? 'csv' : 'text',
+    names: values.names === undefined ? DEFAULT_NAMES : parseNames(values.names),
     ...(values.palette ? { palette: values.palette } : {}),
     ...(values['save-palette'] ? { savePalette: values['save-palette'] } : {}),
     ...(values.out ? { out: values.out } : {}),
@@ -130,6 +144,16 @@ function parseOptions(args: string[]): Options {
     dishMm: values['dish-mm'] ? wholeNumber(values['dish-mm'], '--dish-mm', 20) : 90,
     inputs: values.help ? [] : positionals,
   };
+}
+
+/** Column names when none are given: by class, never by a colour measured on the photos. */
+const DEFAULT_NAMES: [string, string] = ['colour_1', 'colour_2'];
+
+function parseNames(text: string): [string, string] {
+  const names = text.split(',').map((n) => n.trim());
+  if (names.length !== 2 || names.some((n) => !n) || names[0] === names[1])
+    throw new UsageError(`--names takes two different names, e.g. red,white (got "${text}")`);
+  return [names[0]!, names[1]!];
 }
 
 /** Files as given; folders replaced by their photo files in name order. */
@@ -145,7 +169,7 @@ async function expandInputs(inputs: readonly string[], io: CommandIo): Promise<s
         io.err(`rivalplate count: ${input}: no JPEG, PNG or WebP files in this folder`);
       files.push(...names.sort().map((n) => join(input, n)));
     } else {
-      files.push(input); // missing or unreadable files are reported by countOne, in order
+      files.push(input); // missing or unreadable files are reported by countBatch, in order
     }
   }
   return files;
@@ -154,23 +178,21 @@ async function expandInputs(inputs: readonly string[], io: CommandIo): Promise<s
 function render(
   records: readonly (CountRecord | { file: string; error: string })[],
   format: Options['format'],
-  palette: Palette | undefined,
+  names: readonly [string, string],
 ): string {
-  const names = palette
-    ? palette.colours.map((c) => c.name)
-    : [...new Set(records.flatMap((r) => ('counts' in r ? Object.keys(r.counts) : [])))];
   if (format === 'json') {
     return records.map((r) => JSON.stringify(r)).join('\n') + (records.length ? '\n' : '');
   }
   if (format === 'csv') {
     const rows = records.map((r) =>
-      'error' in r ? csvErrorRow(r.file, r.error, names) : csvRow(r, names),
+      'error' in r ? csvErrorRow(r.file, r.error, names) : csvRow(r),
     );
     return `${[csvHeader(names), ...rows].join('\n')}\n`;
   }
   const lines = records.map((r) => {
     if ('error' in r) return `${r.file}\n  not counted: ${r.error}`;
-    const counts = names.map((n) => `${n} ${r.counts[n] ?? 0}`).join(', ');
+    const byClass = classCounts(r);
+    const counts = names.map((n, i) => `${n} ${byClass[i]}`).join(', ');
     const flags = r.flags.length ? `; ${r.flags.map((f) => f.kind).join(', ')}` : '';
     const countable =
       r.countable.status === 'countable' ? '' : `; ${r.countable.status} for ${r.countable.range}`;

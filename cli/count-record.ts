@@ -62,8 +62,19 @@ export function countRecord(
   };
 }
 
-/** CSV (RFC 4180): one row per photo, a count column per colour class named in `classNames`. */
-export function csvHeader(classNames: readonly string[]): string {
+/** Colonies of colour class 0 and 1 (a clump counts for the colonies it stands for). */
+export function classCounts(r: CountRecord): [number, number] {
+  const n: [number, number] = [0, 0];
+  for (const c of r.colonies) if (c.cls === 0 || c.cls === 1) n[c.cls] += c.count;
+  return n;
+}
+
+/**
+ * CSV (RFC 4180): one row per photo, a count column per colour class, class 0 then class 1,
+ * named by `classNames` (never by a colour measured on the photos, so the columns are the same
+ * from one batch to the next).
+ */
+export function csvHeader(classNames: readonly [string, string]): string {
   return [
     'file',
     'width',
@@ -81,7 +92,9 @@ export function csvHeader(classNames: readonly string[]): string {
   ].join(',');
 }
 
-export function csvRow(r: CountRecord, classNames: readonly string[]): string {
+/** The row under csvHeader: the counts of class 0 and 1 in that order. */
+export function csvRow(r: CountRecord): string {
+  const byClass = classCounts(r);
   return [
     r.file,
     r.width,
@@ -90,7 +103,7 @@ export function csvRow(r: CountRecord, classNames: readonly string[]): string {
     r.dish?.cy ?? '',
     r.dish?.r ?? '',
     r.total,
-    ...classNames.map((n) => r.counts[n] ?? 0),
+    ...byClass,
     r.countable.status,
     r.countable.range,
     r.flags.map((f) => f.kind).join(' '),
@@ -101,7 +114,11 @@ export function csvRow(r: CountRecord, classNames: readonly string[]): string {
     .join(',');
 }
 
-export function csvErrorRow(file: string, message: string, classNames: readonly string[]): string {
+export function csvErrorRow(
+  file: string,
+  message: string,
+  classNames: readonly [string, string],
+): string {
   const blanks = Array.from({ length: 10 + classNames.length }, () => '');
   return [file, ...blanks, message].map(csvField).join(',');
 }

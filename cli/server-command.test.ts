@@ -94,6 +94,16 @@ describe('rivalplate server add-lab / add-token', () => {
     expect(io.errors()).toContain("Unknown option '--colour'");
     expect(await run(['nothing'], io)).toBe(2);
   });
+
+  it('answers --help with its usage and exit status 0, like the other commands', async () => {
+    const cwd = tempDir();
+    dirs.push(cwd);
+    const io = captured(cwd);
+    expect(await run(['--help'], io)).toBe(0);
+    expect(io.text()).toContain('Usage:\n  rivalplate server start');
+    expect(await run(['start', '--help'], io)).toBe(0);
+    expect(existsSync(join(cwd, 'rivalplate-data'))).toBe(false);
+  });
 });
 
 describe('rivalplate server list-tokens / revoke-token', () => {

@@ -155,6 +155,17 @@ const SUBCOMMANDS: Record<string, (args: string[], io: CommandIo) => Promise<num
 
 export async function run(args: string[], io: CommandIo): Promise<number> {
   const [sub, ...rest] = args;
+  // Asked for, the usage is the answer (exit 0), as with every other command's --help.
+  if (
+    sub === '--help' ||
+    sub === '-h' ||
+    sub === 'help' ||
+    rest.includes('--help') ||
+    rest.includes('-h')
+  ) {
+    io.out(USAGE);
+    return 0;
+  }
   const command = sub ? SUBCOMMANDS[sub] : undefined;
   if (!command) {
     io.err(USAGE);

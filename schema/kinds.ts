@@ -40,6 +40,7 @@ import type {
   Sample,
   Stamp,
 } from './records.ts';
+import { UNNAMED_MARKERS } from './records.ts';
 
 const stamp = {
   id: idText,
@@ -99,6 +100,11 @@ const experiment = object<Experiment>({
   transferDilution: positive,
   defaultDilutionFold: positive,
   defaultVolumeUl: positive,
+  // Records made before the colours were named read back with neutral names.
+  markerColours: (v, f) =>
+    v === undefined
+      ? [{ ...UNNAMED_MARKERS[0] }, { ...UNNAMED_MARKERS[1] }]
+      : pair(object({ name: nameText, hex: str }))(v, f),
   palette: nullable(
     object({
       version: oneOf(1),

@@ -34,6 +34,18 @@ export interface PaletteRecord {
   source: 'taught' | 'learned';
 }
 
+/** One of the experiment's two marker colours as the lab names it, and how it usually looks. */
+export interface MarkerColour {
+  name: string;
+  hex: string;
+}
+
+/** The names an experiment made before colours were named carries. */
+export const UNNAMED_MARKERS: [MarkerColour, MarkerColour] = [
+  { name: 'colour 1', hex: '#3f6fb0' },
+  { name: 'colour 2', hex: '#efe6cf' },
+];
+
 export interface Experiment extends Stamp {
   name: string;
   /** Bundled example data, shown with a banner and never mixed into a lab's own exports. */
@@ -46,6 +58,11 @@ export interface Experiment extends Stamp {
   /** Prefills for a new plate. */
   defaultDilutionFold: number;
   defaultVolumeUl: number;
+  /**
+   * The lab's names for colour class 0 and 1, used on every screen and in every export; the
+   * hexes draw them until the palette is learned and put a learned palette in this order.
+   */
+  markerColours: [MarkerColour, MarkerColour];
   palette: PaletteRecord | null;
 }
 

@@ -1,6 +1,6 @@
 import { readFileSync } from 'node:fs';
 import { expect, test } from '@playwright/test';
-import { openApp, shot } from './helpers.ts';
+import { markChecked, openApp, shot } from './helpers.ts';
 
 test('the demo is one tap away, marked as demo data, with photos, counts and fitness trajectories', async ({
   page,
@@ -11,31 +11,35 @@ test('the demo is one tap away, marked as demo data, with photos, counts and fit
     timeout: 60_000,
   });
   await expect(page.getByText('DEMO DATA — invented plates and counts')).toBeVisible();
-  // The first bundled photo was read while the demo was set up, and the colours learned from it.
-  await expect(page.getByRole('region', { name: 'Marker colours' })).toContainText(
-    'Learned from the plates read',
-  );
+  // Every bundled photo was read while the demo was set up; the colours carry the demo's names,
+  // and how they look is learned only once plates are checked.
+  const colours = page.getByRole('region', { name: 'Marker colours' });
+  await expect(colours).toContainText('blue');
+  await expect(colours).toContainText('white');
+  await expect(colours).toContainText('learned from the first plates you mark checked');
   await shot(page, '20-demo-bench');
 
   // L2 at generation 2000 carries the bundled start and end photos.
   await page.getByText('Line L2 · 6 assays').tap();
   const start = page.getByTestId('plate-L2-g2000-r1-start-100000');
   await expect(start.getByTestId('plate-count')).toContainText('(photo)');
+  const startCount = await start.getByTestId('plate-count').textContent();
   await start.getByRole('link', { name: 'Photo of start plate' }).tap();
   await expect(page.getByTestId('tally')).toBeVisible();
   await shot(page, '21-demo-plate');
+  // Checked, the plate offers the next one the experiment needs: its end plate, read already.
+  await markChecked(page);
+  await page.getByTestId('next-plate').tap();
+  await expect(page.getByTestId('tally')).toBeVisible({ timeout: 60_000 });
+  await markChecked(page);
   await page.getByRole('link', { name: 'Back' }).tap();
 
-  // Read the bundled end photo too, then learn the colours from both plates.
-  const end = page.getByTestId('plate-L2-g2000-r1-end-100000');
-  await expect(end).toContainText('photo not read yet');
-  await end.getByRole('link', { name: 'Photo of end plate' }).tap();
-  await page.getByRole('button', { name: 'Read plate' }).tap();
-  await expect(page.getByTestId('tally')).toBeVisible({ timeout: 60_000 });
-  await page.getByRole('link', { name: 'Back' }).tap();
-  await page.getByRole('button', { name: 'Learn from all 2 plates read' }).tap();
-  await expect(page.getByRole('region', { name: 'Marker colours' })).toContainText(
-    'Learned from 2 plates; every plate re-sorted.',
+  // The colours learned from the two checked plates re-sort the others; the checked keep theirs.
+  await page.getByRole('button', { name: 'Learn from the 2 checked plates' }).tap();
+  await expect(colours).toContainText('the checked ones keep their counts');
+  await expect(colours).toContainText('Learned from checked plates');
+  await expect(start.getByTestId('plate-count')).toHaveText(
+    startCount!.replace('(photo)', '(photo, checked)'),
   );
 
   await page.getByRole('link', { name: 'Fitness' }).tap();

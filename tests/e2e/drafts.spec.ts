@@ -11,9 +11,9 @@ test('what is typed survives the tab closing before it is saved', async ({ page,
   await again.goto('./');
   await expect(again.getByLabel('Experiment name')).toHaveValue('Half-typed run');
   await again.getByRole('button', { name: 'Create experiment' }).tap();
-  await again.getByLabel('Generation').fill('750');
+  await again.getByLabel('Generation', { exact: true }).fill('750');
   await again.reload();
-  await expect(again.getByLabel('Generation')).toHaveValue('750');
+  await expect(again.getByLabel('Generation', { exact: true })).toHaveValue('750');
   await again.getByRole('button', { name: 'Save assay' }).tap();
   const end = again.getByTestId('plate-L1-g750-r1-end-10000000');
   await end.getByRole('button', { name: 'Type' }).tap();

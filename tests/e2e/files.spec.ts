@@ -52,10 +52,11 @@ test('a plate CSV is imported into an experiment and its fitness computed; a bad
   // The example's four marker-control assays (fixtures/example-competition.csv).
   await expect(page.getByTestId('marker-effect')).toContainText('marker-control, n = 4');
   // L1 at generation 2000 was competed in both colours; the engine run on the file in Node gives
-  // the average the app must show, its markers named by the app's colours.
+  // the average the app must show, its markers named by the experiment's colours (the form's
+  // default medium names them red and white, as the example file's test_marker does).
   const [both] = analyse(readCompetitionCsv(readFileSync(EXAMPLE, 'utf8')).assays).reciprocal;
   const bothRow = page.getByRole('region', { name: 'Both colours' }).getByRole('row').nth(1);
-  await expect(bothRow).toContainText(`L1${both!.generation}colour 1 (n = 3)colour 2 (n = 3)`);
+  await expect(bothRow).toContainText(`L1${both!.generation}red (n = 3)white (n = 3)`);
   await expect(bothRow).toContainText(both!.meanW.toFixed(3));
   await shot(page, '50-imported-fitness');
 

@@ -35,7 +35,10 @@ export async function count(page: Page, cls: 0 | 1): Promise<number> {
  * inside the visible part of the review picture (zoomed in, most are outside it).
  */
 export async function tapColony(page: Page, cls: 0 | 1, nth = 0): Promise<void> {
+  // The picture from the top of the screen; the tool bar kept at its foot covers what is below.
+  await page.evaluate(() => window.scrollTo(0, 0));
   const frame = (await page.getByTestId('review').boundingBox())!;
+  const foot = (await page.locator('.tally').boundingBox())?.y ?? Number.POSITIVE_INFINITY;
   const marks = page.locator(
     `[data-testid=review] .colony-mark[data-cls="${cls}"][data-count="1"] circle:not(.halo)`,
   );
@@ -49,7 +52,7 @@ export async function tapColony(page: Page, cls: 0 | 1, nth = 0): Promise<void> 
       x > frame.x + 10 &&
       x < frame.x + frame.width - 10 &&
       y > frame.y + 10 &&
-      y < frame.y + frame.height - 10;
+      y < Math.min(frame.y + frame.height, foot) - 10;
     if (inside && seen++ === nth) return page.touchscreen.tap(x, y);
   }
   throw new Error(`no colony of class ${cls} in view`);
@@ -60,4 +63,19 @@ export async function waitForServiceWorker(page: Page): Promise<void> {
   await page.waitForFunction(() => navigator.serviceWorker?.controller !== null, null, {
     timeout: 60_000,
   });
+}
+
+/** Opens the review's "more" panel (redo, teaching colours, the picture) if it is closed. */
+export async function openMore(page: Page): Promise<void> {
+  const more = page.locator('details.review-more');
+  if (!(await more.evaluate((d) => (d as HTMLDetailsElement).open)))
+    await more.locator('summary').tap();
+}
+
+/** Marks the plate checked; a plate with a warning takes the second tap that says so. */
+export async function markChecked(page: Page): Promise<void> {
+  const button = page.getByTestId('mark-checked');
+  await button.tap();
+  if (/^Looked at/.test((await button.textContent()) ?? '')) await button.tap();
+  await expect(button).toHaveText('Checked ✓');
 }

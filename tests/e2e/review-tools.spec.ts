@@ -1,7 +1,7 @@
 import { readFileSync } from 'node:fs';
 import { resolve } from 'node:path';
 import { expect, type Page, test } from '@playwright/test';
-import { count, createExperiment, DEMO, openApp, shot, tapColony } from './helpers.ts';
+import { count, createExperiment, DEMO, openApp, openMore, shot, tapColony } from './helpers.ts';
 
 const PHOTO = resolve(DEMO, 'marrowfield-L2-day1.jpg');
 
@@ -22,6 +22,9 @@ test('pinch to zoom, and a tap while zoomed still hits the colony under the fing
 }) => {
   await readOnePlate(page);
   const box = (await page.getByTestId('review').boundingBox())!;
+  // The review opens on the dish: its outline spans the picture's width.
+  const dish = (await page.locator('[data-testid=review] ellipse.dish').boundingBox())!;
+  expect(dish.width / box.width).toBeGreaterThan(0.9);
   const cx = box.x + box.width / 2;
   const cy = box.y + box.height / 2;
   // Two fingers spreading apart, through the DevTools protocol (Playwright taps with one).
@@ -58,9 +61,11 @@ test('teach colours by tapping one colony of each; drag the dish smaller and re-
   page,
 }) => {
   await readOnePlate(page);
+  await openMore(page);
   await page.getByTestId('tool-teach').tap();
+  // The first colony tapped is of colour 1, the second of colour 2 (the experiment's names).
   await tapColony(page, 0);
-  await expect(page.getByText('Now tap a colony of the other colour.').first()).toBeVisible();
+  await expect(page.getByText('Now tap one white colony.').first()).toBeVisible();
   await tapColony(page, 1);
   await expect(page.getByText('Colours taught.')).toBeVisible({ timeout: 30_000 });
 
@@ -116,7 +121,9 @@ test('a photo stored sideways with an EXIF orientation is read upright', async (
   await page.getByRole('link', { name: 'Photo of start plate' }).tap();
   await page.getByTestId('file-input').setInputFiles(rotated);
   await expect(page.getByTestId('tally')).toBeVisible({ timeout: 60_000 });
-  await expect(page.getByTestId('review')).toHaveAttribute('viewBox', '0 0 1600 1200');
+  const image = page.locator('[data-testid=review] image');
+  await expect(image).toHaveAttribute('width', '1600');
+  await expect(image).toHaveAttribute('height', '1200');
   const dish = page.locator('[data-testid=review] ellipse.dish');
   expect(Math.abs(Number(await dish.getAttribute('cx')) - truth.dish.cx)).toBeLessThan(20);
   expect(Math.abs(Number(await dish.getAttribute('cy')) - truth.dish.cy)).toBeLessThan(20);

@@ -34,6 +34,10 @@ export function experiment(id = 'mf-exp'): Experiment {
     transferDilution: 100,
     defaultDilutionFold: 1e5,
     defaultVolumeUl: 100,
+    markerColours: [
+      { name: 'blue', hex: '#3f6fb0' },
+      { name: 'white', hex: '#efe6cf' },
+    ],
     palette: null,
   };
 }

@@ -4,7 +4,8 @@ import type { PlateWorkerApi } from '../../worker/plate-worker.ts';
 import type { Palette } from '../../worker/types.ts';
 import type { RecordStore } from '../storage/record-store.ts';
 import { newStamp, revised } from '../storage/stamp.ts';
-import { analysisRecord, paletteOf, paletteRecord, plateAnalysisOf } from './records.ts';
+import { inNamedOrder } from './class-order.ts';
+import { analysisRecord, paletteOf, plateAnalysisOf } from './records.ts';
 import type { WorkerBridge } from './worker-bridge.ts';
 
 export type PlateWorker = WorkerBridge<PlateWorkerApi>;
@@ -19,8 +20,9 @@ export interface ReadOptions {
 /**
  * Reads one plate photo in the worker and stores the result: the preview on the photo, a new
  * analysis replacing the plate's earlier ones, and no corrections (they belonged to the old
- * colonies). When the experiment has no palette yet and this plate shows two colours, the palette
- * is learned from it, so every later plate is classified against the same two colours.
+ * colonies). Without a palette, the reading's two colours are put in the order of the
+ * experiment's names. The palette itself is learned from checked plates only (teach.ts), never
+ * from a reading nobody has looked at.
  */
 export async function readPlate(
   store: RecordStore,
@@ -45,21 +47,12 @@ export async function readPlate(
       ),
     options.signal,
   );
-  const analysis = analysisRecord(
-    result.analysis,
-    newStamp(),
-    plate.id,
-    photo.id,
-    Boolean(palette),
-  );
+  const read = analysisRecord(result.analysis, newStamp(), plate.id, photo.id, Boolean(palette));
+  const analysis = palette ? read : inNamedOrder(read, experiment.markerColours);
   const [old, oldCorrections] = await Promise.all([
     store.children('analyses', plate.id),
     store.children('corrections', plate.id),
   ]);
-  let learned: Palette | null = null;
-  if (!palette && !result.analysis.flags.some((f) => f.kind === 'one-colour')) {
-    learned = await worker.call((api) => api.learnPalette([result.analysis]), options.signal);
-  }
   await store.putBatch({
     photos: [
       revised(photo, {
@@ -70,9 +63,6 @@ export async function readPlate(
     ],
     analyses: [analysis],
     plates: [revised(plate, { reviewed: false })],
-    ...(learned && {
-      experiments: [revised(experiment, { palette: paletteRecord(learned, 'learned') })],
-    }),
   });
   // The old reading goes only once the new one is stored: a crash in between leaves an extra
   // analysis (the newest is the one shown), never a plate without one.

@@ -2,63 +2,12 @@ import type {
   Analysis,
   ClassRecord,
   ColonyRecord,
-  FlagRecord,
   PaletteRecord,
   Stamp,
 } from '../../schema/records.ts';
-import type { Colony, Palette, PlateAnalysis, QualityFlag } from '../../worker/types.ts';
+import type { Colony, Palette, PlateAnalysis } from '../../worker/types.ts';
 import { NEUTRAL_LOOKS } from '../bench/colours.ts';
-
-/** Words for the image-quality flags, shown beside the counts they concern. */
-function flagText(flag: QualityFlag): FlagRecord {
-  switch (flag.kind) {
-    case 'dish-not-found':
-      return {
-        kind: flag.kind,
-        detail: 'Dish not found: drag the dish outline into place and re-read.',
-      };
-    case 'glare':
-      return {
-        kind: flag.kind,
-        detail: `Lid glare over ${Math.round(flag.fraction * 100)}% of the agar: colonies under it may be missed.`,
-      };
-    case 'clumps-estimated':
-      return {
-        kind: flag.kind,
-        detail: `${flag.clumps} clumps that could not be split, counted from their shape as ${flag.colonies} colonies.`,
-      };
-    case 'low-confidence':
-      return {
-        kind: flag.kind,
-        detail: `${flag.colonies} colonies with an uncertain colour: check them.`,
-      };
-    case 'out-of-focus':
-      return {
-        kind: flag.kind,
-        detail: `The photo looks out of focus (edges ${flag.edgeWidthMm.toFixed(2)} mm wide).`,
-      };
-    case 'ink':
-      return {
-        kind: flag.kind,
-        detail: `Ink (writing) left out in ${flag.pieces} pieces: check for colonies under it.`,
-      };
-    case 'colour-outliers':
-      return {
-        kind: flag.kind,
-        detail: `${flag.colonies} blobs of neither marker colour left out: check them.`,
-      };
-    case 'one-colour':
-      return { kind: flag.kind, detail: `One colour only: ${flag.reason}` };
-    default: {
-      // A flag the analysis core added after this list was written: shown with its numbers.
-      const { kind, ...values } = flag as { kind: string };
-      const detail = Object.entries(values)
-        .map(([k, v]) => `${k} ${String(v)}`)
-        .join(', ');
-      return { kind, detail: `${kind.replace(/-/g, ' ')}${detail ? `: ${detail}` : ''}` };
-    }
-  }
-}
+import { plateFlagSentence } from '../words/flag-words.ts';
 
 /** The stored record of one analysis (original photo pixels), colonies numbered in found order. */
 export function analysisRecord(
@@ -103,7 +52,7 @@ export function analysisRecord(
     },
     colonies,
     classes: [cls(0), cls(1)],
-    flags: a.flags.map(flagText),
+    flags: a.flags.map((f) => ({ kind: f.kind, detail: plateFlagSentence(f) })),
     paletteUsed,
     ms: Object.values(a.timings).reduce((s, t) => s + t, 0),
   };

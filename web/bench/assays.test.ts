@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { newAssay, nextAssayDraft, nextPlateOf } from './assays.ts';
+import { groupProblem, newAssay, nextAssayDraft, nextPlateOf, nextReplicate } from './assays.ts';
 import { newExperiment } from './experiments.ts';
 
 const e = newExperiment({
@@ -58,5 +58,34 @@ describe('fast assay entry', () => {
     const next = nextPlateOf(a.samples[1], a.plates, e);
     expect(next.dilutionFold).toBe(1e7);
     expect(next.volumeUl).toBe(50);
+  });
+});
+
+describe('groups and replicate numbers', () => {
+  const draft = (line: string, generation: number, group = '') => ({
+    ...nextAssayDraft(e, [], [], []),
+    line,
+    generation,
+    group,
+  });
+
+  it('the group defaults to line and generation; replicate numbers restart in every group', () => {
+    const a = newAssay(e, draft('L4', 500)).assay;
+    const b = newAssay(e, { ...draft('L4', 500), replicate: 2 }).assay;
+    expect(a.group).toBe('L4 g500');
+    expect(nextReplicate([a, b], draft('L4', 500))).toBe(3);
+    expect(nextReplicate([a, b], draft('L4', 1000))).toBe(1);
+    expect(nextReplicate([a, b], draft('L5', 500))).toBe(1);
+    // The next assay's prefill does not carry the default group to another generation.
+    expect(nextAssayDraft(e, [a, b], [], []).group).toBe('');
+  });
+
+  it('a group that would mix generations is refused with a message', () => {
+    const a = newAssay(e, draft('L4', 500, 'pond')).assay;
+    expect(groupProblem([a], draft('L4', 1000, 'pond'))).toBe(
+      'Group "pond" holds generation 500; a group is one generation. Give this assay another group.',
+    );
+    expect(groupProblem([a], draft('L4', 1000))).toBeNull();
+    expect(groupProblem([a], draft('L5', 500, 'pond'))).toBeNull();
   });
 });

@@ -25,7 +25,7 @@ export function newAssay(experiment: Experiment, draft: AssayDraft): NewAssay {
     line: draft.line,
     generation: draft.generation,
     replicate: draft.replicate,
-    group: draft.group || draft.line,
+    group: groupOf(draft),
     testClass: draft.testClass,
     foldDilutionSinceStart: draft.foldDilutionSinceStart,
     days: draft.days,
@@ -62,8 +62,39 @@ export function newPlate(sample: Sample, dilutionFold: number, volumeUl: number)
   };
 }
 
+/** A group holds the replicates of one line at one generation unless the person names another. */
+export function defaultGroup(line: string, generation: number): string {
+  return `${line} g${generation}`;
+}
+
+function groupOf(d: Pick<AssayDraft, 'group' | 'line' | 'generation'>): string {
+  return d.group.trim() || defaultGroup(d.line, d.generation);
+}
+
+/** The next replicate number of the draft's group: numbers restart at 1 in every group. */
+export function nextReplicate(
+  assays: readonly Assay[],
+  d: Pick<AssayDraft, 'group' | 'line' | 'generation'>,
+): number {
+  const group = groupOf(d);
+  const own = assays.filter((a) => a.group === group);
+  return own.length ? Math.max(...own.map((a) => a.replicate)) + 1 : 1;
+}
+
 /**
- * The form's prefill for the next assay: the next replicate of the last assay's line with the
+ * Why the draft cannot join its group, or null: replicates summarised together must be of one
+ * generation, or the group's mean would mix two points of the trajectory.
+ */
+export function groupProblem(assays: readonly Assay[], d: AssayDraft): string | null {
+  const group = groupOf(d);
+  const other = assays.find((a) => a.group === group && a.generation !== d.generation);
+  return other
+    ? `Group "${group}" holds generation ${other.generation}; a group is one generation. Give this assay another group.`
+    : null;
+}
+
+/**
+ * The form's prefill for the next assay: the next replicate of the last assay's group with the
  * same settings, so a run of replicates is one tap each. The first assay takes the experiment's
  * defaults; the end sample starts one transfer dilution further than the start.
  */
@@ -75,18 +106,18 @@ export function nextAssayDraft(
 ): AssayDraft {
   const last = [...assays].sort((a, b) => a.updatedAt.localeCompare(b.updatedAt)).at(-1);
   const line = last?.line ?? experiment.lines[0] ?? 'L1';
-  const sameLine = assays.filter(
-    (a) => a.line === line && a.generation === (last?.generation ?? 0),
-  );
+  const generation = last?.generation ?? 0;
+  // A group the person named carries over; the default one follows the line and generation.
+  const group = last && last.group !== defaultGroup(last.line, last.generation) ? last.group : '';
   const firstPlate = (timepoint: Timepoint) => {
     const s = samples.find((x) => x.assayId === last?.id && x.timepoint === timepoint);
     return plates.find((p) => p.sampleId === s?.id);
   };
   return {
     line,
-    generation: last?.generation ?? 0,
-    replicate: sameLine.length ? Math.max(...sameLine.map((a) => a.replicate)) + 1 : 1,
-    group: last?.group ?? '',
+    generation,
+    replicate: nextReplicate(assays, { group, line, generation }),
+    group,
     testClass: last?.testClass ?? 1,
     foldDilutionSinceStart: last?.foldDilutionSinceStart ?? experiment.transferDilution,
     days: last?.days ?? 1,

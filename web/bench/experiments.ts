@@ -1,4 +1,4 @@
-import type { Experiment } from '../../schema/records.ts';
+import { type Experiment, type MarkerColour, UNNAMED_MARKERS } from '../../schema/records.ts';
 import { newStamp } from '../storage/stamp.ts';
 
 export type ExperimentDraft = Pick<
@@ -20,8 +20,18 @@ export const BLANK_EXPERIMENT: ExperimentDraft = {
   defaultVolumeUl: 100,
 };
 
-export function newExperiment(draft: ExperimentDraft, demo = false): Experiment {
-  return { ...newStamp(), ...draft, demo, palette: null };
+/** A new experiment; its colours keep neutral names unless the draft names them. */
+export function newExperiment(
+  draft: ExperimentDraft & { markerColours?: [MarkerColour, MarkerColour] },
+  demo = false,
+): Experiment {
+  return {
+    ...newStamp(),
+    markerColours: [{ ...UNNAMED_MARKERS[0] }, { ...UNNAMED_MARKERS[1] }],
+    ...draft,
+    demo,
+    palette: null,
+  };
 }
 
 /** "L1, L2  L3" → ["L1", "L2", "L3"]: lines are typed as one field, split on commas or spaces. */

@@ -25,8 +25,6 @@ export interface DemoSeed {
   batch: RecordBatch;
   /** The bundled photos matched to the plates they show; their plates carry no typed counts. */
   photoPlates: { name: string; plate: Plate }[];
-  /** The experiment's assays, to set the test colour once the palette is known. */
-  assays: NewAssay[];
 }
 
 /** Generation at which the bundled photos were taken, replicate 1. */
@@ -55,6 +53,10 @@ export function demoSeed(photoNames: readonly string[]): DemoSeed {
       transferDilution: TRANSFER,
       defaultDilutionFold: DILUTION,
       defaultVolumeUl: 100,
+      markerColours: [
+        { name: 'blue', hex: '#3f6fb0' },
+        { name: 'white', hex: '#efe6cf' },
+      ],
     },
     true,
   );
@@ -107,6 +109,5 @@ export function demoSeed(photoNames: readonly string[]): DemoSeed {
       plates: assays.flatMap((a) => a.plates),
     },
     photoPlates,
-    assays,
   };
 }

@@ -1,14 +1,13 @@
-import type { Assay, Photo } from '../../schema/records.ts';
+import type { Photo } from '../../schema/records.ts';
 import { type PlateWorker, readPlate } from '../analysis/plate-reading.ts';
 import { newPhoto } from '../bench/photos.ts';
 import type { RecordStore } from '../storage/record-store.ts';
-import { revised } from '../storage/stamp.ts';
 import { demoSeed } from './demo-experiment.ts';
 
 /**
  * Puts the demo experiment on this device: the records, the bundled plate photos (served with
- * the app, so this works offline too), and a first reading of one photo, from which the palette
- * is learned. Resolves to the experiment id.
+ * the app, so this works offline too), and a reading of every photo, so each plate opens on its
+ * colonies. Resolves to the experiment id.
  */
 export async function installDemo(
   store: RecordStore,
@@ -29,19 +28,9 @@ export async function installDemo(
   }
   await store.putBatch({ ...seed.batch, photos });
   const experiment = seed.batch.experiments![0]!;
-  const first = seed.photoPlates[0];
-  if (first && photos[0]) {
-    onStep('Reading the first demo plate…');
-    await readPlate(store, worker, experiment, first.plate, photos[0]);
-    const learned = await store.get('experiments', experiment.id);
-    const palette = learned?.palette;
-    if (palette) {
-      // The evolved lines grow cream-white, the ancestor blue: the test colour is the less blue
-      // one (higher b* relative to the agar).
-      const testClass = palette.colours[0].deltaLab[2] > palette.colours[1].deltaLab[2] ? 0 : 1;
-      const assays: Assay[] = seed.assays.map((a) => revised(a.assay, { testClass }));
-      await store.putBatch({ assays });
-    }
+  for (const [i, { plate }] of seed.photoPlates.entries()) {
+    onStep(`Reading demo plate ${i + 1} of ${seed.photoPlates.length}…`);
+    await readPlate(store, worker, experiment, plate, photos[i]!);
   }
   return experiment.id;
 }

@@ -22,7 +22,15 @@ const palette: PaletteRecord = {
   colours: [colour('blue', '#3050a0'), colour('cream', '#f0e8d0')],
   source: 'learned',
 };
-const coloured: Experiment = { ...plain, palette };
+// The names are the experiment's own; the learned palette only draws them.
+const coloured: Experiment = {
+  ...plain,
+  markerColours: [
+    { name: 'blue', hex: '#3f6fb0' },
+    { name: 'cream', hex: '#efe6cf' },
+  ],
+  palette: { ...palette, colours: [colour('c1', '#3050a0'), colour('c2', '#f0e8d0')] },
+};
 
 describe('test_marker to colour class', () => {
   it('takes a marker named like one of the experiment’s colours as that colour, in any case', () => {

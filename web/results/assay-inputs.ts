@@ -10,19 +10,26 @@ function assayLabel(a: Assay): string {
 
 export interface FitnessInputs {
   inputs: AssayInput[];
-  /** Assays left out because a plate has no count yet, with the reason. */
-  waiting: { assay: string; reason: string }[];
+  /** Assays left out because a plate has no count yet, with the reason and that plate. */
+  waiting: { assay: string; reason: string; plateId: string | null }[];
+  /** Assays whose counts include a photo count nobody has marked checked. */
+  unchecked: Set<string>;
+  /** Of those, the ones left out because only checked counts were asked for. */
+  hidden: string[];
   /** Image-quality flags of the photographed plates that feed each assay, by assay label. */
   imageFlags: Map<string, { plate: string; kind: string; detail: string }[]>;
 }
 
 /**
  * The fitness engine's input for every assay whose start and end samples each have at least one
- * counted plate. Plates without a count are skipped with the reason, never counted as zero.
+ * counted plate. Plates without a count are skipped with the reason, never counted as zero. An
+ * assay resting on a photo count nobody checked is marked, and left out with `checkedOnly`.
  */
-export function fitnessInputs(data: ExperimentData): FitnessInputs {
+export function fitnessInputs(data: ExperimentData, checkedOnly = false): FitnessInputs {
   const inputs: AssayInput[] = [];
   const waiting: FitnessInputs['waiting'] = [];
+  const unchecked = new Set<string>();
+  const hidden: string[] = [];
   const imageFlags: FitnessInputs['imageFlags'] = new Map();
   const seen = new Map<string, number>();
   const looks = classLooks(data.experiment);
@@ -33,6 +40,8 @@ export function fitnessInputs(data: ExperimentData): FitnessInputs {
     const n = (seen.get(base) ?? 0) + 1;
     seen.set(base, n);
     const label = n === 1 ? base : `${base} #${n}`;
+    let firstUncounted: string | null = null;
+    let uncheckedPhoto = false;
     const platesOf = (timepoint: 'start' | 'end') => {
       const sampleIds = new Set(
         data.samples
@@ -45,7 +54,11 @@ export function fitnessInputs(data: ExperimentData): FitnessInputs {
         .flatMap((p, i) => {
           const analysis = data.analyses.get(p.id);
           const c = plateCount(p, assay, analysis, data.corrections.get(p.id));
-          if (!c) return [];
+          if (!c) {
+            firstUncounted ??= p.id;
+            return [];
+          }
+          if (c.source === 'photo' && !p.reviewed) uncheckedPhoto = true;
           const plateLabel = `${label} ${timepoint} plate ${i + 1} (1:${p.dilutionFold})`;
           if (c.source === 'photo' && analysis?.flags.length) {
             const list = imageFlags.get(label) ?? [];
@@ -69,8 +82,16 @@ export function fitnessInputs(data: ExperimentData): FitnessInputs {
       waiting.push({
         assay: label,
         reason: `no counted ${start.length === 0 ? 'start' : 'end'} plate yet`,
+        plateId: firstUncounted,
       });
       continue;
+    }
+    if (uncheckedPhoto) {
+      unchecked.add(label);
+      if (checkedOnly) {
+        hidden.push(label);
+        continue;
+      }
     }
     inputs.push({
       assay: label,
@@ -87,5 +108,5 @@ export function fitnessInputs(data: ExperimentData): FitnessInputs {
       end,
     });
   }
-  return { inputs, waiting, imageFlags };
+  return { inputs, waiting, unchecked, hidden, imageFlags };
 }

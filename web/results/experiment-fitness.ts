@@ -12,9 +12,10 @@ export type ExperimentFitness = FitnessInputs & { analysis: Analysis | null };
 export async function experimentFitness(
   worker: FitnessWorker,
   data: ExperimentData,
+  checkedOnly: boolean,
   signal?: AbortSignal,
 ): Promise<ExperimentFitness> {
-  const inputs = fitnessInputs(data);
+  const inputs = fitnessInputs(data, checkedOnly);
   const analysis = await worker.call((api) => api.run(inputs.inputs), signal);
   return { ...inputs, analysis };
 }

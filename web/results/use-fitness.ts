@@ -8,14 +8,17 @@ export type FitnessState =
   | { state: 'ready'; fit: ExperimentFitness }
   | { state: 'failed'; error: string };
 
-/** The experiment's fitness, recomputed in the worker whenever its data changes. */
-export function useFitness(data: ExperimentData): FitnessState {
+/**
+ * The experiment's fitness, recomputed in the worker whenever its data changes; with
+ * `checkedOnly`, from the assays whose photo counts were all checked.
+ */
+export function useFitness(data: ExperimentData, checkedOnly: boolean): FitnessState {
   const { fitness } = useServices();
   const [state, setState] = useState<FitnessState>({ state: 'computing' });
   useEffect(() => {
     // A newer computation supersedes an older one; the older answer is dropped.
     let current = true;
-    experimentFitness(fitness, data).then(
+    experimentFitness(fitness, data, checkedOnly).then(
       (fit) => current && setState({ state: 'ready', fit }),
       (e: unknown) =>
         current && setState({ state: 'failed', error: e instanceof Error ? e.message : String(e) }),
@@ -23,6 +26,6 @@ export function useFitness(data: ExperimentData): FitnessState {
     return () => {
       current = false;
     };
-  }, [fitness, data]);
+  }, [fitness, data, checkedOnly]);
   return state;
 }

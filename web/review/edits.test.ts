@@ -70,3 +70,14 @@ describe('corrections on top of the automatic count', () => {
     expect(e).toEqual({ op: 'remove', colonyId: 'q' });
   });
 });
+
+describe('a colour tool never stacks a colony on one already there', () => {
+  it('on a colony of its colour it does nothing; on the other colour it recolours; beside, it adds', () => {
+    const on = editForTap(found, 'add', { x: 104, y: 100, cls: 0, slack: 4, newId: 'z' });
+    expect(on).toBeNull();
+    const other = editForTap(found, 'add', { x: 104, y: 100, cls: 1, slack: 4, newId: 'z' });
+    expect(other).toEqual({ op: 'reclass', colonyId: 'a', cls: 1 });
+    const beside = editForTap(found, 'add', { x: 130, y: 100, cls: 1, slack: 4, newId: 'z' });
+    expect(beside?.op).toBe('add');
+  });
+});

@@ -65,34 +65,38 @@ export function colonyAt(
 export type TapTool = 'add' | 'remove' | 'switch';
 
 /**
- * The edit a tap at (x, y) makes, or null when it does nothing (removing or switching on empty
- * agar). Adding on an existing colony switches nothing: a second colony is added there, as on a
- * plate where two colonies sit on top of each other. New colonies take the typical radius.
+ * The edit a tap at (x, y) makes, or null when it does nothing. A colour tool adds a colony of
+ * its colour on empty agar and gives a colony of the other colour its colour; on a colony of its
+ * own colour it does nothing: a second colony is never stacked on one already there (a clump the
+ * analysis missed is fixed by adding beside it). Remove and switch act on the colony under the
+ * tap, and do nothing on empty agar. New colonies take the typical radius.
  */
 export function editForTap(
   colonies: readonly ColonyRecord[],
   tool: TapTool,
   at: { x: number; y: number; cls: ClassIndex; slack: number; newId: string },
 ): Edit | null {
+  const hit = colonyAt(colonies, at.x, at.y, at.slack);
   if (tool === 'add') {
+    if (hit) return hit.cls === at.cls ? null : { op: 'reclass', colonyId: hit.id, cls: at.cls };
+    const r = typicalRadius(colonies) ?? at.slack;
     return {
       op: 'add',
       colony: {
         id: at.newId,
         x: at.x,
         y: at.y,
-        r: typicalRadius(colonies) ?? at.slack,
+        r,
         cls: at.cls,
         confidence: 1,
         count: 1,
-        area: Math.PI * (typicalRadius(colonies) ?? at.slack) ** 2,
+        area: Math.PI * r ** 2,
         split: false,
         lab: null,
         deltaLab: null,
       },
     };
   }
-  const hit = colonyAt(colonies, at.x, at.y, at.slack);
   if (!hit) return null;
   if (tool === 'remove') return { op: 'remove', colonyId: hit.id };
   return { op: 'reclass', colonyId: hit.id, cls: hit.cls === 0 ? 1 : 0 };

@@ -1,6 +1,6 @@
 import type { RecordStore } from '../storage/record-store.ts';
 import { type CountAccuracy, countAccuracy, type ReviewedPlate } from './accuracy.ts';
-import { correctedColonies, countsByClass } from './edits.ts';
+import { correctedColonies } from './edits.ts';
 
 /**
  * How far the automatic counts were from the corrected ones, over every plate the person has
@@ -20,8 +20,8 @@ export async function labAccuracy(store: RecordStore): Promise<CountAccuracy | n
       (c) => c.analysisId === analysis.id,
     );
     reviewed.push({
-      found: countsByClass(analysis.colonies),
-      corrected: countsByClass(correctedColonies(analysis.colonies, corrections?.edits ?? [])),
+      found: analysis.colonies,
+      corrected: correctedColonies(analysis.colonies, corrections?.edits ?? []),
     });
   }
   return countAccuracy(reviewed);

@@ -1,7 +1,7 @@
 import { type PointerEvent, type RefObject, useRef, useState, type WheelEvent } from 'react';
 import type { DishRecord } from '../../schema/records.ts';
 import { type DishHandle, dragHandle, isDishHandle } from './dish-handles.ts';
-import { type View, viewAfterPinch, viewAfterWheel } from './view.ts';
+import { type Frame, initialView, type View, viewAfterPinch, viewAfterWheel } from './view.ts';
 
 /** A finger that moves less than this between down and up has tapped. */
 const TAP_SLOP_PX = 10;
@@ -14,8 +14,7 @@ type Gesture =
   | { kind: 'dish'; part: DishHandle; dish0: DishRecord };
 
 export interface GestureTargets {
-  width: number;
-  height: number;
+  frame: Frame;
   dish: DishRecord | null;
   /** A tap at a point of the photo (its pixels), with the tap's tolerance in those pixels. */
   onTap: (x: number, y: number, slack: number) => void;
@@ -23,17 +22,17 @@ export interface GestureTargets {
 }
 
 /**
- * Pointer gestures on the review picture: one finger taps, or pans when zoomed; two fingers
+ * Pointer gestures on the review picture: one finger taps, or pans where the photo reaches past the frame; two fingers
  * pinch-zoom; a finger on a dish handle (an element with data-handle="centre", "rim" or "side",
  * see dish-handles.ts) drags the dish, which is reported when the finger lifts. The mouse wheel zooms.
  */
 export function useReviewGestures(svg: RefObject<SVGSVGElement | null>, t: GestureTargets) {
-  const [view, setView] = useState<View>({ s: 1, tx: 0, ty: 0 });
+  const [view, setView] = useState<View>(() => initialView(t.frame, t.dish));
   const [dragDish, setDragDish] = useState<DishRecord | null>(null);
   const pointers = useRef(new Map<number, Point>());
   const gesture = useRef<Gesture>({ kind: 'none' });
 
-  /** Client pixels → viewBox units (the photo's pixels at zoom 1). */
+  /** Client pixels → viewBox units (the frame, in the photo's pixels at zoom 1). */
   function toViewBox(x: number, y: number) {
     const m = svg.current!.getScreenCTM()!;
     return { x: (x - m.e) / m.a, y: (y - m.f) / m.d, perPx: 1 / m.a };
@@ -70,7 +69,7 @@ export function useReviewGestures(svg: RefObject<SVGSVGElement | null>, t: Gestu
       const [a, b] = twoFingers();
       const mid = toViewBox((a.x + b.x) / 2, (a.y + b.y) / 2);
       const ratio = Math.hypot(a.x - b.x, a.y - b.y) / g.d0;
-      setView(viewAfterPinch(g.view0, g.mid0, mid, ratio, t.width, t.height));
+      setView(viewAfterPinch(g.view0, g.mid0, mid, ratio, t.frame));
     } else if (g.kind === 'dish') {
       setDragDish(dragHandle(g.dish0, g.part, toImage(e.clientX, e.clientY)));
     } else if (
@@ -79,10 +78,7 @@ export function useReviewGestures(svg: RefObject<SVGSVGElement | null>, t: Gestu
     ) {
       gesture.current = { ...g, kind: 'pan' };
       // A pan is a pinch that does not spread: the same clamping keeps the photo in the frame.
-      if (g.view0.s > 1)
-        setView(
-          viewAfterPinch(g.view0, g.at0, toViewBox(e.clientX, e.clientY), 1, t.width, t.height),
-        );
+      setView(viewAfterPinch(g.view0, g.at0, toViewBox(e.clientX, e.clientY), 1, t.frame));
     }
   }
 
@@ -106,7 +102,7 @@ export function useReviewGestures(svg: RefObject<SVGSVGElement | null>, t: Gestu
   }
 
   function onWheel(e: WheelEvent) {
-    setView(viewAfterWheel(view, toViewBox(e.clientX, e.clientY), e.deltaY, t.width, t.height));
+    setView(viewAfterWheel(view, toViewBox(e.clientX, e.clientY), e.deltaY, t.frame));
   }
 
   return {

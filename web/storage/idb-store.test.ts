@@ -14,6 +14,10 @@ function experiment(): Experiment {
     transferDilution: 100,
     defaultDilutionFold: 1e5,
     defaultVolumeUl: 100,
+    markerColours: [
+      { name: 'red', hex: '#b3362c' },
+      { name: 'white', hex: '#efe3d3' },
+    ],
     palette: null,
   };
 }

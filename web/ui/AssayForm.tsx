@@ -2,7 +2,14 @@ import { useState } from 'react';
 import type { ClassIndex } from '../../schema/records.ts';
 import { useServices } from '../app/services.ts';
 import { useDraft } from '../app/use-draft.ts';
-import { type AssayDraft, newAssay, nextAssayDraft } from '../bench/assays.ts';
+import {
+  type AssayDraft,
+  defaultGroup,
+  groupProblem,
+  newAssay,
+  nextAssayDraft,
+  nextReplicate,
+} from '../bench/assays.ts';
 import { classLooks } from '../bench/colours.ts';
 import type { ExperimentData } from '../bench/experiment-data.ts';
 import { NumberField } from './NumberField.tsx';
@@ -21,15 +28,39 @@ export function AssayForm({ data, onClose }: { data: ExperimentData; onClose: ()
     <K extends keyof AssayDraft>(key: K) =>
     (v: AssayDraft[K] | null) =>
       setDraft((d) => ({ ...d, [key]: v }));
+  /** Line, generation and group choose the group: the replicate number follows it. */
+  const setPlace =
+    <K extends 'line' | 'generation' | 'group'>(key: K) =>
+    (v: AssayDraft[K] | null) =>
+      setDraft((d) => {
+        const next = { ...d, [key]: v };
+        const place = {
+          line: next.line ?? '',
+          generation: next.generation ?? 0,
+          group: next.group ?? '',
+        };
+        return { ...next, replicate: nextReplicate(data.assays, place) };
+      });
 
   async function save(keepOpen: boolean) {
     const missing = (Object.keys(draft) as (keyof AssayDraft)[]).filter((k) => draft[k] === null);
     if (missing.length) return setError(`Check the fields marked in red (${missing.join(', ')}).`);
     const complete = draft as AssayDraft;
+    const problem = groupProblem(data.assays, complete);
+    if (problem) return setError(problem);
     const made = newAssay(data.experiment, complete);
     await store.putBatch({ assays: [made.assay], samples: made.samples, plates: made.plates });
     setError(null);
-    if (keepOpen) setDraft({ ...complete, replicate: complete.replicate + 1 });
+    // What was typed while the assay was being stored stays; the replicate moves on.
+    if (keepOpen)
+      setDraft((d) => ({
+        ...d,
+        replicate: nextReplicate([...data.assays, made.assay], {
+          line: d.line ?? '',
+          generation: d.generation ?? 0,
+          group: d.group ?? '',
+        }),
+      }));
     else {
       clearDraft();
       onClose();
@@ -46,7 +77,7 @@ export function AssayForm({ data, onClose }: { data: ExperimentData; onClose: ()
       <div className="grid3">
         <label className="field">
           Line
-          <select value={draft.line ?? ''} onChange={(e) => set('line')(e.target.value)}>
+          <select value={draft.line ?? ''} onChange={(e) => setPlace('line')(e.target.value)}>
             {data.experiment.lines.map((l) => (
               <option key={l}>{l}</option>
             ))}
@@ -55,7 +86,7 @@ export function AssayForm({ data, onClose }: { data: ExperimentData; onClose: ()
         <NumberField
           label="Generation"
           value={draft.generation}
-          onChange={set('generation')}
+          onChange={setPlace('generation')}
           whole
         />
         <NumberField label="Replicate" value={draft.replicate} onChange={set('replicate')} whole />
@@ -100,11 +131,11 @@ export function AssayForm({ data, onClose }: { data: ExperimentData; onClose: ()
         <NumberField label="Days" value={draft.days} onChange={set('days')} />
       </div>
       <label className="field">
-        Group (replicates of one treatment)
+        Group (blank: line and generation)
         <input
           value={draft.group ?? ''}
-          placeholder={draft.line ?? ''}
-          onChange={(e) => set('group')(e.target.value)}
+          placeholder={defaultGroup(draft.line ?? '', draft.generation ?? 0)}
+          onChange={(e) => setPlace('group')(e.target.value)}
         />
       </label>
       {error && <p className="field-error">{error}</p>}

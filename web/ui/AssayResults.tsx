@@ -1,14 +1,20 @@
 import type { Analysis } from '../../fitness/analysis.ts';
 import type { FitnessInputs } from '../results/assay-inputs.ts';
 import { fixed3, interval } from '../results/format.ts';
+import { assayFlagLabels } from '../words/flag-words.ts';
 
-/** Per assay: W with its counting-noise interval, r per day with its SE, and every flag. */
+/**
+ * Per assay: W with its counting-noise interval, r per day with its SE, every flag in words, and
+ * a mark on the assays resting on photo counts nobody checked.
+ */
 export function AssayResults({
   analysis,
   imageFlags,
+  unchecked,
 }: {
   analysis: Analysis;
   imageFlags: FitnessInputs['imageFlags'];
+  unchecked: ReadonlySet<string>;
 }) {
   const flagged = analysis.assays.some((x) => x.flags.length || imageFlags.get(x.assay)?.length);
   return (
@@ -30,38 +36,43 @@ export function AssayResults({
               <th>W</th>
               <th>95% CI</th>
               <th>r/day ± SE</th>
-              <th>Flags</th>
             </tr>
           </thead>
           <tbody>
-            {analysis.assays.map((x) => (
-              <tr key={x.assay} data-testid={`result-${x.assay}`}>
-                <td>{x.assay}</td>
-                <td data-testid="W" title={x.bound ? 'a bound: a strain had no colony' : undefined}>
-                  {x.bound ? `${x.bound === 'at-most' ? '≤' : '≥'} ${fixed3(x.W)}` : fixed3(x.W)}
-                </td>
-                <td>{interval(x.W_ci)}</td>
-                <td>
-                  {fixed3(x.rPerDay)} ± {fixed3(x.countingSe.r / x.days)}
-                </td>
-                <td style={{ textAlign: 'left' }}>
-                  {x.flags.map((fl) => (
-                    <span key={fl.code} className="flag" title={fl.message}>
-                      {fl.code}
-                    </span>
-                  ))}
-                  {imageFlags.get(x.assay)?.map((fl) => (
-                    <span
-                      key={fl.plate + fl.kind}
-                      className="flag"
-                      title={`${fl.plate}: ${fl.detail}`}
-                    >
-                      {fl.kind}
-                    </span>
-                  ))}
-                </td>
-              </tr>
-            ))}
+            {analysis.assays.flatMap((x) => {
+              const labels = assayFlagLabels(x.flags, imageFlags.get(x.assay) ?? []);
+              return [
+                <tr key={x.assay} data-testid={`result-${x.assay}`}>
+                  <td>{x.assay}</td>
+                  <td
+                    data-testid="W"
+                    title={x.bound ? 'a bound: a strain had no colony' : undefined}
+                  >
+                    {x.bound ? `${x.bound === 'at-most' ? '≤' : '≥'} ${fixed3(x.W)}` : fixed3(x.W)}
+                  </td>
+                  <td>{interval(x.W_ci)}</td>
+                  <td>
+                    {fixed3(x.rPerDay)} ± {fixed3(x.countingSe.r / x.days)}
+                  </td>
+                </tr>,
+                (unchecked.has(x.assay) || labels.length > 0) && (
+                  <tr key={`${x.assay}-flags`} className="flags-row">
+                    <td colSpan={4}>
+                      {unchecked.has(x.assay) && (
+                        <span className="flag" data-testid="unchecked">
+                          unchecked
+                        </span>
+                      )}
+                      {labels.map((l) => (
+                        <span key={l} className="flag">
+                          {l}
+                        </span>
+                      ))}
+                    </td>
+                  </tr>
+                ),
+              ];
+            })}
           </tbody>
         </table>
       </div>

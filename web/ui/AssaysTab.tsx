@@ -1,6 +1,7 @@
 import { useDraft } from '../app/use-draft.ts';
 import { classLooks } from '../bench/colours.ts';
 import type { ExperimentData } from '../bench/experiment-data.ts';
+import { counted } from '../words/counted.ts';
 import { AssayCard } from './AssayCard.tsx';
 import { AssayForm } from './AssayForm.tsx';
 import { PaletteCard } from './PaletteCard.tsx';
@@ -43,7 +44,8 @@ export function AssaysTab({ data }: { data: ExperimentData }) {
           className="card"
         >
           <summary style={{ fontWeight: 700, minHeight: 40 }}>
-            Line {line} · {data.assays.filter((a) => a.line === line).length} assays
+            Line {line} ·{' '}
+            {counted(data.assays.filter((a) => a.line === line).length, 'assay', 'assays')}
           </summary>
           {data.assays
             .filter((a) => a.line === line)

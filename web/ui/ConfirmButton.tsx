@@ -1,17 +1,23 @@
 import { useEffect, useState } from 'react';
 
 /**
- * A destructive action that takes two taps: the first arms it (and says what will go), the
- * second, within a few seconds, does it. No dialog to dismiss with gloves on.
+ * An action that takes two taps: the first arms it (and says what will go, or what the person
+ * vouches for), the second, within a few seconds, does it. No dialog to dismiss with gloves on.
  */
 export function ConfirmButton({
   label,
   armed,
   onConfirm,
+  className = 'btn danger',
+  testId,
+  disabled,
 }: {
   label: string;
   armed: string;
   onConfirm: () => void;
+  className?: string;
+  testId?: string;
+  disabled?: boolean;
 }) {
   const [isArmed, setArmed] = useState(false);
   useEffect(() => {
@@ -22,7 +28,9 @@ export function ConfirmButton({
   return (
     <button
       type="button"
-      className="btn danger"
+      className={className}
+      data-testid={testId}
+      disabled={disabled}
       onClick={() => {
         if (!isArmed) return setArmed(true);
         setArmed(false);

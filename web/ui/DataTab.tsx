@@ -11,6 +11,7 @@ import { assaysFromCsv } from '../exchange/import-csv.ts';
 import { zipStore } from '../exchange/zip.ts';
 import { fitnessInputs } from '../results/assay-inputs.ts';
 import { experimentFitness } from '../results/experiment-fitness.ts';
+import { counted } from '../words/counted.ts';
 import { ConfirmButton } from './ConfirmButton.tsx';
 import { StorageCard } from './StorageCard.tsx';
 import { UnreadableCard } from './UnreadableCard.tsx';
@@ -23,10 +24,27 @@ const slug = (s: string) =>
 
 export function DataTab({ data }: { data: ExperimentData }) {
   const { store, fitness } = useServices();
-  const [note, setNote] = useState<{ ok: boolean; text: string } | null>(null);
+  const [note, setNote] = useState<{ ok: boolean; text: string; on: 'export' | 'import' } | null>(
+    null,
+  );
   const name = slug(data.experiment.name);
-  const say = (ok: boolean, text: string) => setNote({ ok, text });
+  const say = (ok: boolean, text: string, on: 'export' | 'import' = 'import') =>
+    setNote({ ok, text, on });
   const failed = (e: unknown) => say(false, e instanceof Error ? e.message : String(e));
+  const saved = (blob: Blob, file: string, what: string) => {
+    saveBlob(blob, file);
+    say(true, `Saved ${file} (${what}) to the phone's downloads.`, 'export');
+  };
+  const noteOn = (on: 'export' | 'import') =>
+    note?.on === on && (
+      <p
+        className={note.ok ? 'banner' : 'banner alarm'}
+        role="status"
+        style={{ whiteSpace: 'pre-line' }}
+      >
+        {note.text}
+      </p>
+    );
 
   async function importFile(file: File, kind: 'csv' | 'backup') {
     const text = await file.text();
@@ -35,12 +53,18 @@ export function DataTab({ data }: { data: ExperimentData }) {
       await store.putBatch(batch);
       say(
         true,
-        [`${file.name}: ${assays} assays added with their typed counts.`, ...notes].join(' '),
+        [
+          `${file.name}: ${counted(assays, 'assay', 'assays')} added with their typed counts.`,
+          ...notes,
+        ].join(' '),
       );
     } else {
       const { batch, count } = readBackup(text, file.name);
       await store.putBatch(await newerOnly(store, batch));
-      say(true, `${file.name}: ${count} records read; newer copies on this device were kept.`);
+      say(
+        true,
+        `${file.name}: ${counted(count, 'record', 'records')} read; newer copies on this device were kept.`,
+      );
     }
   }
   const picker = (kind: 'csv' | 'backup', label: string, accept: string) => (
@@ -73,40 +97,43 @@ export function DataTab({ data }: { data: ExperimentData }) {
             type="button"
             className="btn primary"
             data-testid="export-plates"
-            onClick={() =>
-              saveBlob(
-                new Blob([platesCsv(fitnessInputs(data).inputs)], { type: 'text/csv' }),
+            onClick={() => {
+              const inputs = fitnessInputs(data).inputs;
+              saved(
+                new Blob([platesCsv(inputs)], { type: 'text/csv' }),
                 `${name}-plates.csv`,
-              )
-            }
+                counted(inputs.length, 'assay', 'assays'),
+              );
+            }}
           >
-            Plate counts (CSV)
+            Save plate counts (CSV)
           </button>
           <button
             type="button"
             className="btn"
             data-testid="export-results"
             onClick={() =>
-              experimentFitness(fitness, data)
+              experimentFitness(fitness, data, false)
                 .then((fit) => {
                   if (!fit.analysis)
-                    return say(false, 'No assay has counted start and end plates yet.');
-                  saveBlob(
+                    return say(false, 'No assay has counted start and end plates yet.', 'export');
+                  saved(
                     new Blob([resultsCsv(fit.analysis)], { type: 'text/csv' }),
                     `${name}-fitness.csv`,
+                    counted(fit.analysis.assays.length, 'assay', 'assays'),
                   );
                 })
                 .catch(failed)
             }
           >
-            Fitness results (CSV)
+            Save fitness results (CSV)
           </button>
           <button
             type="button"
             className="btn"
             data-testid="export-tables"
             onClick={() =>
-              experimentFitness(fitness, data)
+              experimentFitness(fitness, data, false)
                 .then((fit) => {
                   if (!fit.analysis)
                     return say(false, 'No assay has counted start and end plates yet.');
@@ -131,33 +158,27 @@ export function DataTab({ data }: { data: ExperimentData }) {
             onClick={() =>
               backupJson(store)
                 .then((json) =>
-                  saveBlob(
+                  saved(
                     new Blob([json], { type: 'application/json' }),
                     `rivalplate-backup-${new Date().toISOString().slice(0, 10)}.json`,
+                    'every experiment, with photos',
                   ),
                 )
                 .catch(failed)
             }
           >
-            Full backup (JSON, with photos)
+            Save a full backup (JSON, with photos)
           </button>
         </div>
+        {noteOn('export')}
       </section>
       <section className="card stack" aria-label="Import">
         <h2>Bring data in</h2>
         <div className="row">
-          {picker('csv', 'Plate counts (CSV)', '.csv,text/csv')}
-          {picker('backup', 'Backup (JSON)', '.json,application/json')}
+          {picker('csv', 'Add plate counts from a CSV', '.csv,text/csv')}
+          {picker('backup', 'Restore from a backup (JSON)', '.json,application/json')}
         </div>
-        {note && (
-          <p
-            className={note.ok ? 'banner' : 'banner alarm'}
-            role="status"
-            style={{ whiteSpace: 'pre-line' }}
-          >
-            {note.text}
-          </p>
-        )}
+        {noteOn('import')}
       </section>
       <section className="card stack" aria-label="Delete">
         <h2>Delete this experiment</h2>

@@ -2,10 +2,18 @@ import type { Analysis } from '../../fitness/analysis.ts';
 import { fixed3, interval, pValue } from '../results/format.ts';
 
 /**
- * Replicate groups (with the assays each left out), the marker effect when there are marker
- * controls, the lab's comparisons of lines, and the test across chosen groups.
+ * Replicate groups (with the assays each left out, and a mark where one rests on photo counts
+ * nobody checked), the marker effect when there are marker controls, the lab's comparisons of
+ * lines, and the test across chosen groups.
  */
-export function GroupResults({ analysis }: { analysis: Analysis }) {
+export function GroupResults({
+  analysis,
+  unchecked,
+}: {
+  analysis: Analysis;
+  /** Groups with an assay resting on photo counts nobody checked. */
+  unchecked: ReadonlySet<string>;
+}) {
   const m = analysis.markerEffect;
   const c = analysis.comparison;
   const lab = analysis.comparisons;
@@ -13,7 +21,7 @@ export function GroupResults({ analysis }: { analysis: Analysis }) {
     <section className="card" aria-label="Groups">
       <h2>Replicate groups</h2>
       <div className="table-wrap">
-        <table className="results num">
+        <table className="results num" data-testid="group-results">
           <thead>
             <tr>
               <th>Group</th>
@@ -23,14 +31,15 @@ export function GroupResults({ analysis }: { analysis: Analysis }) {
               <th>SD</th>
               <th>95% CI (t)</th>
               <th>p (W = 1)</th>
-              <th>mean r</th>
-              <th>p (r = 0)</th>
             </tr>
           </thead>
           <tbody>
             {analysis.groups.map((g) => (
               <tr key={g.group}>
-                <td>{g.group}</td>
+                <td>
+                  {g.group}
+                  {unchecked.has(g.group) && <span className="flag">unchecked</span>}
+                </td>
                 <td>{g.W.n}</td>
                 <td>
                   {[
@@ -42,8 +51,6 @@ export function GroupResults({ analysis }: { analysis: Analysis }) {
                 <td>{fixed3(g.W.sd)}</td>
                 <td>{interval(g.W.ci)}</td>
                 <td>{pValue(g.W_vs_1?.p)}</td>
-                <td>{fixed3(g.r.mean)}</td>
-                <td>{pValue(g.r_vs_0?.p)}</td>
               </tr>
             ))}
           </tbody>

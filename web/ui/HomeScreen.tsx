@@ -7,6 +7,7 @@ import { saving } from '../app/write-failure.ts';
 import { experimentRecordIds } from '../bench/delete.ts';
 import { installDemo } from '../demo/install-demo.ts';
 import { labAccuracy } from '../review/lab-accuracy.ts';
+import { counted } from '../words/counted.ts';
 import { ConfirmButton } from './ConfirmButton.tsx';
 import { NewExperimentForm } from './NewExperimentForm.tsx';
 import { StorageCard } from './StorageCard.tsx';
@@ -60,6 +61,7 @@ export function HomeScreen() {
             <ConfirmButton
               label="Remove the demo"
               armed="Tap again to remove the demo"
+              disabled={demoStep !== null}
               onConfirm={() =>
                 saving('the removal of the demo', () =>
                   experimentRecordIds(services.store, demo.id).then((ids) =>
@@ -119,10 +121,12 @@ export function HomeScreen() {
           <h2>How good is the automatic count?</h2>
           {accuracy.state === 'ready' && accuracy.value ? (
             <p data-testid="accuracy">
-              Over <b>{accuracy.value.plates}</b> checked plates of your own, the automatic counts
-              differed from your corrected ones by{' '}
-              <b>{(accuracy.value.countErrorFraction * 100).toFixed(1)}%</b> of the colonies (median
-              error of a plate's total: {(accuracy.value.medianTotalError * 100).toFixed(1)}%).
+              On <b>{counted(accuracy.value.plates, 'checked plate', 'checked plates')}</b> of your
+              own, you corrected <b>{(accuracy.value.correctionFraction * 100).toFixed(1)}%</b> of
+              the colonies ({counted(accuracy.value.corrections, 'colony', 'colonies')} added,
+              removed or switched, of {counted(accuracy.value.correctedTotal, 'colony', 'colonies')}
+              ); median error of a plate's total:{' '}
+              {(accuracy.value.medianTotalError * 100).toFixed(1)}%.
             </p>
           ) : (
             <p className="muted">

@@ -2,6 +2,7 @@ import { useState } from 'react';
 import { useServices } from '../app/services.ts';
 import { useDraft } from '../app/use-draft.ts';
 import { BLANK_EXPERIMENT, newExperiment, parseLines } from '../bench/experiments.ts';
+import { INDICATOR_MEDIA, markerColours, mediumById } from '../bench/media.ts';
 import { NumberField } from './NumberField.tsx';
 
 /** Calls `onDone` with the new experiment's id, or with null when cancelled. */
@@ -14,12 +15,16 @@ export function NewExperimentForm({ onDone }: { onDone: (id: string | null) => v
     transfer: BLANK_EXPERIMENT.transferDilution as number | null,
     dilution: BLANK_EXPERIMENT.defaultDilutionFold as number | null,
     volume: BLANK_EXPERIMENT.defaultVolumeUl as number | null,
+    medium: INDICATOR_MEDIA[0]!.id,
+    colour1: '',
+    colour2: '',
   }));
   const field =
     <K extends keyof typeof form>(key: K) =>
     (v: (typeof form)[K]) =>
       setForm((f) => ({ ...f, [key]: v }));
   const { name, lines, reference, transfer, dilution, volume } = form;
+  const medium = mediumById(form.medium);
   const [error, setError] = useState<string | null>(null);
 
   async function save() {
@@ -28,6 +33,8 @@ export function NewExperimentForm({ onDone }: { onDone: (id: string | null) => v
     if (parsedLines.length === 0) return setError('List at least one line (e.g. L1, L2).');
     if (!transfer || !dilution || !volume)
       return setError('Transfer dilution, plate dilution and volume must be numbers above 0.');
+    const colours = markerColours(medium, [form.colour1, form.colour2]);
+    if (typeof colours === 'string') return setError(colours);
     const e = newExperiment({
       name: name.trim(),
       lines: parsedLines,
@@ -35,6 +42,7 @@ export function NewExperimentForm({ onDone }: { onDone: (id: string | null) => v
       transferDilution: transfer,
       defaultDilutionFold: dilution,
       defaultVolumeUl: volume,
+      markerColours: colours,
     });
     await store.put('experiments', e);
     clearForm();
@@ -76,9 +84,37 @@ export function NewExperimentForm({ onDone }: { onDone: (id: string | null) => v
         <NumberField label="Plate dilution (fold)" value={dilution} onChange={field('dilution')} />
         <NumberField label="Volume plated (µL)" value={volume} onChange={field('volume')} />
       </div>
+      <label className="field">
+        Indicator medium
+        <select value={form.medium} onChange={(e) => field('medium')(e.target.value)}>
+          {INDICATOR_MEDIA.map((m) => (
+            <option key={m.id} value={m.id}>
+              {m.label}
+            </option>
+          ))}
+        </select>
+      </label>
+      <div className="grid2">
+        <label className="field">
+          Colour 1 is called
+          <input
+            value={form.colour1}
+            placeholder={medium.colours[0].name}
+            onChange={(e) => field('colour1')(e.target.value)}
+          />
+        </label>
+        <label className="field">
+          Colour 2 is called
+          <input
+            value={form.colour2}
+            placeholder={medium.colours[1].name}
+            onChange={(e) => field('colour2')(e.target.value)}
+          />
+        </label>
+      </div>
       <p className="muted">
-        The two marker colours are learned from the first plate you photograph; you can teach them
-        by tapping too.
+        These names go on every screen and every file. How the two colours look on your plates is
+        learned from the plates you mark checked, or taught by tapping one colony of each.
       </p>
       {error && <p className="field-error">{error}</p>}
       <div className="row">

@@ -2,14 +2,17 @@ import type { DishRecord } from '../../schema/records.ts';
 import { fetchPlatePhoto } from '../analysis/fetched-photo.ts';
 import { readPlate } from '../analysis/plate-reading.ts';
 import { useReading } from '../analysis/use-reading.ts';
-import { hrefOf } from '../app/route.ts';
+import { go, hrefOf } from '../app/route.ts';
 import { useServices } from '../app/services.ts';
 import { useLive } from '../app/use-live.ts';
+import { loadExperiment } from '../bench/experiment-data.ts';
+import { nextPlateNeeded, type PlatePlace } from '../bench/next-plate.ts';
 import { attachPhoto } from '../bench/photos.ts';
 import { loadPlate } from '../bench/plate-data.ts';
 import { ensureRoomFor } from '../storage/quota.ts';
 import type { SyncClient } from '../sync/sync-client.ts';
 import { PhotoSource } from './PhotoSource.tsx';
+import { PlacePanel } from './PlacePanel.tsx';
 import { ReadingStatus } from './ReadingStatus.tsx';
 import { ReviewPanel } from './ReviewPanel.tsx';
 import { TopBar } from './TopBar.tsx';
@@ -17,6 +20,13 @@ import { TopBar } from './TopBar.tsx';
 export function PlateScreen({ experimentId, plateId }: { experimentId: string; plateId: string }) {
   const { store, worker, sync } = useServices();
   const live = useLive((s) => loadPlate(s.store, plateId), [plateId]);
+  const next = useLive(
+    async (s) => {
+      const all = await loadExperiment(s.store, experimentId);
+      return all && nextPlateNeeded(all, plateId);
+    },
+    [experimentId, plateId],
+  );
   const { reading, start, cancel } = useReading();
   const back = hrefOf({ screen: 'experiment', id: experimentId, tab: 'assays' });
   if (live.state !== 'ready' || !live.value)
@@ -53,6 +63,17 @@ export function PlateScreen({ experimentId, plateId }: { experimentId: string; p
       await readPlate(store, worker, d.experiment, plate, photo, { signal, onProgress });
     });
 
+  // The next plate of a run, photographed from this plate's check: its screen shows the reading.
+  const photoForNext = (next: PlatePlace, blob: Blob, name: string) =>
+    start(async (signal, onProgress) => {
+      await ensureRoomFor(blob.size, name);
+      const { plate, photo } = await attachPhoto(store, next.plate, blob, name);
+      go({ screen: 'plate', experimentId, plateId: plate.id });
+      const fresh = await loadPlate(store, plate.id);
+      if (!fresh) throw new Error('the next plate is no longer on this device');
+      await readPlate(store, worker, fresh.experiment, fresh.plate, photo, { signal, onProgress });
+    });
+
   // Photographed and read on another phone: its photo waits on the lab server.
   const sharing = sync && sync.status().phase !== 'off' ? sync : null;
   const elsewhere = !d.photo && Boolean(d.plate.photoId) && sharing !== null;
@@ -67,6 +88,7 @@ export function PlateScreen({ experimentId, plateId }: { experimentId: string; p
       <TopBar title={title} back={back} />
       {d.experiment.demo && <div className="demo-banner">DEMO DATA</div>}
       <main>
+        {!d.analysis && <PlacePanel assay={d.assay} sample={d.sample} plate={d.plate} />}
         <ReadingStatus reading={reading} onCancel={cancel} />
         {sharing && elsewhere && reading.state !== 'running' && (
           <section className="card stack">
@@ -93,7 +115,9 @@ export function PlateScreen({ experimentId, plateId }: { experimentId: string; p
             data={{ ...d, analysis: d.analysis }}
             preview={d.photo.preview as Blob}
             busy={reading.state === 'running'}
+            next={next.state === 'ready' ? next.value : null}
             onReread={read}
+            onNextPhoto={photoForNext}
           />
         )}
         {(d.photo || elsewhere) && reading.state !== 'running' && (

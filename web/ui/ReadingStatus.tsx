@@ -1,6 +1,9 @@
 import type { Reading } from '../analysis/use-reading.ts';
 
-/** Words for the stages the worker and the analysis core report (cv/analyze.ts names them). */
+/**
+ * Words for the stages the worker and the analysis core report (cv/analyze.ts names them); a
+ * stage not listed here reads as plain "Working", never as its internal name.
+ */
 const STAGE_WORDS: Record<string, string> = {
   starting: 'Starting',
   fetch: 'Fetching the photo from the lab server',
@@ -12,6 +15,8 @@ const STAGE_WORDS: Record<string, string> = {
   foreground: 'Finding colonies',
   split: 'Separating touching colonies',
   measure: 'Measuring colours',
+  classify: 'Sorting the colours',
+  focus: 'Checking the focus',
 };
 
 export function ReadingStatus({ reading, onCancel }: { reading: Reading; onCancel: () => void }) {
@@ -25,7 +30,7 @@ export function ReadingStatus({ reading, onCancel }: { reading: Reading; onCance
   return (
     <section className="card stack" role="status" aria-live="polite" data-testid="reading">
       <div className="row spread">
-        <b>Reading the plate… {STAGE_WORDS[reading.stage] ?? reading.stage}</b>
+        <b>Reading the plate… {STAGE_WORDS[reading.stage] ?? 'Working'}</b>
         <button type="button" className="btn quiet" onClick={onCancel}>
           Stop
         </button>

@@ -2,7 +2,9 @@ import { useRef } from 'react';
 import type { ColonyRecord, DishRecord } from '../../schema/records.ts';
 import type { ClassLook } from '../bench/colours.ts';
 import { DISH_HANDLES, handleAt } from '../review/dish-handles.ts';
+import { isUnsure } from '../review/unsure.ts';
 import { useReviewGestures } from '../review/use-review-gestures.ts';
+import type { Frame } from '../review/view.ts';
 
 /** Halo behind a class outline: light on dark class colours, dark on light ones. */
 function halo(hex: string): string {
@@ -11,18 +13,16 @@ function halo(hex: string): string {
   return luma > 140 ? '#1b1b1b' : '#ffffff';
 }
 
-/** Below this the analysis was unsure of a colony's colour: its ring is drawn broken. */
-const UNSURE_CONFIDENCE = 0.75;
-
+/** Added by hand: dashed; a colour the analysis was unsure of: broken. */
 function markClass(c: ColonyRecord): string {
   if (!c.lab) return 'colony added';
-  return c.confidence < UNSURE_CONFIDENCE ? 'colony unsure' : 'colony';
+  return isUnsure(c) ? 'colony unsure' : 'colony';
 }
 
 export interface ReviewViewProps {
   previewUrl: string;
-  width: number;
-  height: number;
+  /** The square the picture opens on (the dish), and the photo's size. */
+  frame: Frame;
   colonies: readonly ColonyRecord[];
   looks: [ClassLook, ClassLook];
   dish: DishRecord | null;
@@ -33,7 +33,7 @@ export interface ReviewViewProps {
 
 /**
  * The photo with every colony outlined in its class colour, and the dish outline with its
- * centre and rim handles; the gestures are in useReviewGestures.
+ * centre and rim handles, opened on the dish; the gestures are in useReviewGestures.
  */
 export function ReviewView(p: ReviewViewProps) {
   const svg = useRef<SVGSVGElement>(null);
@@ -44,14 +44,14 @@ export function ReviewView(p: ReviewViewProps) {
     <div className="review">
       <svg
         ref={svg}
-        viewBox={`0 0 ${p.width} ${p.height}`}
+        viewBox={`0 0 ${p.frame.size} ${p.frame.size}`}
         data-testid="review"
         {...handlers}
         role="img"
         aria-label={`Plate photo with ${p.colonies.length} colonies outlined`}
       >
         <g transform={`translate(${view.tx} ${view.ty}) scale(${view.s})`}>
-          <image href={p.previewUrl} width={p.width} height={p.height} />
+          <image href={p.previewUrl} width={p.frame.width} height={p.frame.height} />
           {p.colonies.map((c) => {
             const hex = p.looks[c.cls].hex;
             const r = Math.max(c.r * 1.25, 3);
@@ -81,7 +81,7 @@ export function ReviewView(p: ReviewViewProps) {
                     data-handle={h}
                     cx={at.x}
                     cy={at.y}
-                    r={p.width / (h === 'centre' ? 60 : 70) / view.s}
+                    r={p.frame.size / (h === 'centre' ? 40 : 48) / view.s}
                   />
                 );
               })}

@@ -2,9 +2,13 @@ import { useRef } from 'react';
 import type { AnalysedAssay, LineTrajectory } from '../../fitness/analysis.ts';
 import { saveBlob } from '../exchange/download.ts';
 import { svgFile } from '../exchange/svg-file.ts';
+import { generationSpan, MODEL_NAMES, modelDoubt, modelNamed } from '../results/model-trust.ts';
 import { TrajectoryPlot } from './TrajectoryPlot.tsx';
 
-/** One line over generations: the plot, the models side by side, and their parameters. */
+/**
+ * One line over generations: the plot, and the models side by side with their parameters when
+ * they may be read as results; otherwise why not.
+ */
 export function TrajectoryCard({
   trajectory: t,
   assays,
@@ -26,38 +30,19 @@ export function TrajectoryCard({
       >
         Save plot (SVG)
       </button>
-      <div className="table-wrap">
-        <table className="results num">
-          <thead>
-            <tr>
-              <th>Model</th>
-              <th>AIC</th>
-              <th>AICc</th>
-              <th>BIC</th>
-              <th>ΔAIC</th>
-            </tr>
-          </thead>
-          <tbody>
-            {t.ranking.map((r) => (
-              <tr key={r.model}>
-                <td>{r.model}</td>
-                <td>{r.aic.toFixed(1)}</td>
-                <td>{r.aicc === null ? '—' : r.aicc.toFixed(1)}</td>
-                <td>{r.bic.toFixed(1)}</td>
-                <td>{r.deltaAic.toFixed(1)}</td>
-              </tr>
-            ))}
-          </tbody>
-        </table>
-      </div>
-      {[t.hyperbolic, t.powerLaw, t.step].map((m) =>
-        'reason' in m ? (
+      {[t.hyperbolic, t.powerLaw, t.step].map((m) => {
+        const name = MODEL_NAMES[m.model] ?? m.model;
+        const doubt = modelDoubt(t, m);
+        if (doubt)
+          return (
+            <p key={m.model} className="muted" data-testid="model-doubt">
+              {name}: not shown ({doubt})
+            </p>
+          );
+        if ('reason' in m) return null;
+        return 'parameters' in m ? (
           <p key={m.model} className="muted">
-            {m.model}: not fitted ({m.reason})
-          </p>
-        ) : 'parameters' in m ? (
-          <p key={m.model} className="muted">
-            {m.formula}:{' '}
+            {name}, {m.formula}:{' '}
             {m.parameters
               .map(
                 (q) =>
@@ -73,12 +58,36 @@ export function TrajectoryCard({
           </p>
         ) : (
           <p key={m.model} className="muted">
-            steps:{' '}
+            {name}:{' '}
             {m.segments
-              .map((s) => `W ${s.w.toFixed(3)} over generations ${s.from}–${s.to}`)
+              .map((s) => `W ${s.w.toFixed(3)} over ${generationSpan(s.from, s.to)}`)
               .join('; ')}
           </p>
-        ),
+        );
+      })}
+      {t.ranking.every((r) => !modelDoubt(t, modelNamed(t, r.model))) && (
+        <div className="table-wrap">
+          <table className="results num">
+            <thead>
+              <tr>
+                <th>Model</th>
+                <th>AIC</th>
+                <th>BIC</th>
+                <th>ΔAIC</th>
+              </tr>
+            </thead>
+            <tbody>
+              {t.ranking.map((r) => (
+                <tr key={r.model}>
+                  <td>{MODEL_NAMES[r.model] ?? r.model}</td>
+                  <td>{r.aic.toFixed(1)}</td>
+                  <td>{r.bic.toFixed(1)}</td>
+                  <td>{r.deltaAic.toFixed(1)}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </div>
       )}
     </section>
   );

@@ -2,15 +2,23 @@ import type { Ref } from 'react';
 import type { AnalysedAssay, BandPoint, LineTrajectory } from '../../fitness/analysis.ts';
 import { type CurveFit, curveAt, type ModelFailure } from '../../fitness/trajectories.ts';
 import { niceTicks } from '../results/axis.ts';
+import { MODEL_NAMES, modelDoubt } from '../results/model-trust.ts';
 
 const W = 360;
 const H = 240;
 const M = { left: 46, right: 10, top: 12, bottom: 40 };
 
-/** Points along a fitted curve from generation 0 to the last measured one; none for a failed fit. */
+/**
+ * Points along a fitted curve from generation 0 to the last measured one; none for a model that
+ * must not be read as a result (too few generations, a failed fit, a poorly determined parameter).
+ */
 const CURVE_POINTS = 64;
-function curvePoints(fit: CurveFit | ModelFailure, gMax: number): { g: number; w: number }[] {
-  if ('reason' in fit) return [];
+function curvePoints(
+  t: LineTrajectory,
+  fit: CurveFit | ModelFailure,
+  gMax: number,
+): { g: number; w: number }[] {
+  if ('reason' in fit || modelDoubt(t, fit)) return [];
   const w = curveAt(fit);
   return Array.from({ length: CURVE_POINTS + 1 }, (_, i) => {
     const g = (gMax * i) / CURVE_POINTS;
@@ -43,13 +51,27 @@ export function TrajectoryPlot({
   const line = (pts: { g: number; w: number }[]) =>
     pts.map((p, i) => `${i ? 'L' : 'M'}${x(p.g)},${y(p.w)}`).join(' ');
   const clamp = (w: number) => Math.min(yHi, Math.max(yLo, w));
-  const band = (pts: BandPoint[] | null) =>
-    pts
+  const band = (pts: BandPoint[] | null, shown: boolean) =>
+    pts && shown
       ? `${line(pts.map((p) => ({ g: p.generation, w: clamp(p.high) })))} ${line(
           [...pts].reverse().map((p) => ({ g: p.generation, w: clamp(p.low) })),
         ).replace(/^M/, 'L')} Z`
       : '';
-  const step = 'reason' in trajectory.step ? null : trajectory.step;
+  const step =
+    'reason' in trajectory.step || modelDoubt(trajectory, trajectory.step) ? null : trajectory.step;
+  const hyperbolic = curvePoints(trajectory, trajectory.hyperbolic, gMax);
+  const powerLaw = curvePoints(trajectory, trajectory.powerLaw, gMax);
+  // The legend names only what is drawn.
+  const legend = [
+    {
+      name: MODEL_NAMES.hyperbolic,
+      stroke: '#1f3b36',
+      dash: undefined,
+      shown: hyperbolic.length > 0,
+    },
+    { name: MODEL_NAMES['power-law'], stroke: '#c98f0c', dash: '5 3', shown: powerLaw.length > 0 },
+    { name: MODEL_NAMES.step, stroke: '#a8341f', dash: undefined, shown: step !== null },
+  ].filter((l) => l.shown);
   return (
     <svg
       ref={svgRef}
@@ -103,21 +125,28 @@ export function TrajectoryPlot({
           opacity={0.7}
         />
       ))}
-      <path d={band(trajectory.bands.hyperbolic)} fill="#1f3b36" opacity={0.12} />
-      <path d={band(trajectory.bands.powerLaw)} fill="#c98f0c" opacity={0.12} />
       <path
-        d={line(curvePoints(trajectory.hyperbolic, gMax))}
-        fill="none"
-        stroke="#1f3b36"
-        strokeWidth={2}
+        d={band(trajectory.bands.hyperbolic, hyperbolic.length > 0)}
+        fill="#1f3b36"
+        opacity={0.12}
       />
       <path
-        d={line(curvePoints(trajectory.powerLaw, gMax))}
-        fill="none"
-        stroke="#c98f0c"
-        strokeWidth={2}
-        strokeDasharray="5 3"
+        d={band(trajectory.bands.powerLaw, powerLaw.length > 0)}
+        fill="#c98f0c"
+        opacity={0.12}
       />
+      {hyperbolic.length > 0 && (
+        <path d={line(hyperbolic)} fill="none" stroke="#1f3b36" strokeWidth={2} />
+      )}
+      {powerLaw.length > 0 && (
+        <path
+          d={line(powerLaw)}
+          fill="none"
+          stroke="#c98f0c"
+          strokeWidth={2}
+          strokeDasharray="5 3"
+        />
+      )}
       {own.map((a, i) => {
         const gx = x(a.generation) + ((i % 3) - 1) * 4;
         if (a.bound) {
@@ -145,26 +174,22 @@ export function TrajectoryPlot({
         );
       })}
       <g transform={`translate(${M.left + 8} ${M.top + 6})`}>
-        <line x1={0} x2={16} y1={0} y2={0} stroke="#1f3b36" strokeWidth={2} />
-        <text x={20} y={4}>
-          hyperbolic
-        </text>
-        <line
-          x1={86}
-          x2={102}
-          y1={0}
-          y2={0}
-          stroke="#c98f0c"
-          strokeWidth={2}
-          strokeDasharray="5 3"
-        />
-        <text x={106} y={4}>
-          power law
-        </text>
-        <line x1={170} x2={186} y1={0} y2={0} stroke="#a8341f" strokeWidth={2} />
-        <text x={190} y={4}>
-          steps
-        </text>
+        {legend.map((l, i) => (
+          <g key={l.name} transform={`translate(${i * 84} 0)`}>
+            <line
+              x1={0}
+              x2={16}
+              y1={0}
+              y2={0}
+              stroke={l.stroke}
+              strokeWidth={2}
+              strokeDasharray={l.dash}
+            />
+            <text x={20} y={4}>
+              {l.name}
+            </text>
+          </g>
+        ))}
       </g>
     </svg>
   );

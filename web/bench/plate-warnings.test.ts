@@ -1,0 +1,25 @@
+import { describe, expect, it } from 'vitest';
+import { plateWarnings } from './plate-warnings.ts';
+
+describe('a plate with a warning is not checked with one tap', () => {
+  it('a clean plate with colonies needs no second tap', () => {
+    expect(plateWarnings([], 120)).toEqual([]);
+    // Remarks on single colonies are marked where they are, not a reason for a second tap.
+    expect(
+      plateWarnings(
+        [
+          { kind: 'ink', detail: '' },
+          { kind: 'low-confidence', detail: '' },
+        ],
+        90,
+      ),
+    ).toEqual([]);
+  });
+
+  it('an empty plate, or a whole-plate remark, is named for the second tap', () => {
+    expect(plateWarnings([], 0)).toEqual(['no colonies found']);
+    expect(
+      plateWarnings([{ kind: 'glare', detail: 'Lid glare over 12% of the agar' }], 80),
+    ).toEqual(['lid glare']);
+  });
+});

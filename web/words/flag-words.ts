@@ -1,0 +1,96 @@
+import { counted } from './counted.ts';
+
+/**
+ * The one place flag codes become words. The plate analysis and the fitness engine name their
+ * remarks by code ("glare", "out-of-range"); people see the short label here beside a number,
+ * and the full sentence (kept with the flag) when they open it.
+ */
+
+const PLATE_FLAG_LABELS: Record<string, string> = {
+  'dish-not-found': 'dish not found',
+  glare: 'lid glare',
+  'clumps-estimated': 'clumps estimated',
+  'low-confidence': 'unsure colours',
+  'colour-outliers': 'odd colours left out',
+  ink: 'writing on the lid',
+  'out-of-focus': 'out of focus',
+  'one-colour': 'one colour only',
+};
+
+const RESULT_FLAG_LABELS: Record<string, string> = {
+  'out-of-range': 'plate outside the countable range',
+  'plates-dropped': 'plates left out',
+  'test-declined': 'evolved line declined',
+  'ci-partial': 'interval from part of the draws',
+  'ci-undefined': 'no interval',
+  'marker-corrected': 'marker effect removed',
+};
+
+/** A code never seen before still reads as words: its dashes become spaces. */
+function asWords(code: string): string {
+  return code.replace(/-/g, ' ');
+}
+
+/** Short label of a remark the plate analysis made on one photo. */
+export function plateFlagLabel(kind: string): string {
+  return PLATE_FLAG_LABELS[kind] ?? asWords(kind);
+}
+
+/** Short label of a remark the fitness engine made on one assay. */
+export function resultFlagLabel(code: string): string {
+  return RESULT_FLAG_LABELS[code] ?? asWords(code);
+}
+
+/**
+ * The short labels of one assay's remarks, each once: the fitness engine's, then those of its
+ * plates (which plate each belongs to is said in the sentences).
+ */
+export function assayFlagLabels(
+  resultFlags: readonly { code: string }[],
+  plateFlags: readonly { kind: string }[],
+): string[] {
+  return [
+    ...new Set([
+      ...resultFlags.map((f) => resultFlagLabel(f.code)),
+      ...plateFlags.map((f) => plateFlagLabel(f.kind)),
+    ]),
+  ];
+}
+
+/** A remark of the plate analysis: its code and the numbers that go with it. */
+export interface PlateFlagCode {
+  kind: string;
+  [value: string]: unknown;
+}
+
+const num = (v: unknown) => (typeof v === 'number' && Number.isFinite(v) ? v : 0);
+
+/** The sentence a person reads about a remark on one photo: what was seen, what to do. */
+export function plateFlagSentence(flag: PlateFlagCode): string {
+  switch (flag.kind) {
+    case 'dish-not-found':
+      return 'Dish not found: drag the dish outline into place and re-read.';
+    case 'glare':
+      return `Lid glare over ${Math.round(num(flag.fraction) * 100)}% of the agar: colonies under it may be missed.`;
+    case 'clumps-estimated':
+      return `${counted(num(flag.clumps), 'clump', 'clumps')} that could not be split, counted from their shape as ${counted(num(flag.colonies), 'colony', 'colonies')}.`;
+    case 'low-confidence':
+      return `${counted(num(flag.colonies), 'colony', 'colonies')} with an uncertain colour: check them (Unsure).`;
+    case 'out-of-focus':
+      return `The photo looks out of focus (edges ${num(flag.edgeWidthMm).toFixed(2)} mm wide).`;
+    case 'ink':
+      return `Writing on the lid left out in ${counted(num(flag.pieces), 'piece', 'pieces')}: check for colonies under it.`;
+    case 'colour-outliers':
+      return `${counted(num(flag.colonies), 'blob', 'blobs')} of neither marker colour left out: check them.`;
+    case 'one-colour':
+      return `One colour only: ${String(flag.reason ?? '')}`;
+    default: {
+      // A remark added to the analysis after this list was written: shown with its numbers.
+      const { kind, ...values } = flag;
+      const detail = Object.entries(values)
+        .map(([k, v]) => `${k} ${String(v)}`)
+        .join(', ');
+      return `${asWords(kind)}${detail ? `: ${detail}` : ''}`;
+    }
+  }
+}
