@@ -1,6 +1,13 @@
 import { deltaE76 } from './colour.ts';
 import type { ComponentStats, RegionStats } from './measure.ts';
-import { isPenPiece, penFromStrokes } from './writing.ts';
+import {
+  darkInkUsable,
+  hasPenColour,
+  isDarkInk,
+  isPenPiece,
+  type Pen,
+  pensFromStrokes,
+} from './writing.ts';
 
 /**
  * Turns measured regions into colony candidates: drops what is not a colony by size and shape,
@@ -60,6 +67,8 @@ const STROKE_RIDGE_VARIATION = 0.2;
 const STROKE_THINNESS = 0.7;
 /** A region of a stroke's blob this many times thicker than the stroke is a colony under it. */
 const COLONY_ON_STROKE = 1.6;
+/** ... or this many times as thick and not of the writing's colour. */
+const OTHER_COLOUR_ON_STROKE = 0.8;
 /** A grey shade: darker than the agar and within this colour difference of it in a*, b*. */
 const GREY_SHADE_CHROMA = 6;
 /** Glare fringe: within this colour difference of the agar in a*, b*. */
@@ -103,11 +112,13 @@ export function selectCandidates(
     if (v !== 'keep') rejected[v]++;
   }
   const roundIds = new Set(components.filter(isRound).map((c) => c.id));
-  const pen = penFromStrokes(
+  const roundBlobs = regions.filter((r) => roundIds.has(r.component));
+  const pens = pensFromStrokes(
     components.filter((c) => verdict.get(c.id) === 'strokes'),
     regions,
-    regions.filter((r) => roundIds.has(r.component)),
+    roundBlobs,
   );
+  const darkInk = darkInkUsable(roundBlobs);
   const kept = regions.filter((r) => {
     const v = verdict.get(r.component);
     // A colony touching a pen stroke or a glint on the wall shares its blob; it is as thick as a
@@ -115,7 +126,7 @@ export function selectCandidates(
     const comp = byId.get(r.component);
     const fatInThin =
       comp !== undefined &&
-      ((v === 'strokes' && r.halfWidth >= COLONY_ON_STROKE * strokeHalfWidth(comp)) ||
+      ((v === 'strokes' && isColonyOnStroke(r, strokeHalfWidth(comp), pens, darkInk)) ||
         (v === 'wall' && r.halfWidth >= STROKE_THINNESS * typicalRadius));
     if ((v !== 'keep' && !fatInThin) || r.area < minArea) return false;
     // A region no different from the agar on average is agar enclosed by something else (the
@@ -137,7 +148,7 @@ export function selectCandidates(
       rejected.specks++; // a sliver the watershed cut off a colony's edge
       return false;
     }
-    if (pen && comp && !isRound(comp) && isPenPiece(r, pen)) {
+    if (comp && !isRound(comp) && (isPenPiece(r, pens) || (darkInk && isDarkInk(r)))) {
       rejected.strokes++;
       return false;
     }
@@ -223,6 +234,22 @@ function componentVerdict(
  */
 function isRound(c: ComponentStats): boolean {
   return c.rimPixels === 0 && c.area / (Math.PI * Math.max(1, c.halfWidth) ** 2) <= ROUND_BLOB;
+}
+
+/**
+ * A region in a stroke's blob is a colony the writing touches when it is clearly thicker than
+ * the line, or nearly as thick and of neither a pen's colour nor dark ink (a pale colony against
+ * dark writing, whose blob it shares).
+ */
+function isColonyOnStroke(
+  r: RegionStats,
+  lineHalfWidth: number,
+  pens: readonly Pen[],
+  darkInk: boolean,
+): boolean {
+  if (r.halfWidth >= COLONY_ON_STROKE * lineHalfWidth) return true;
+  const inky = pens.some((p) => hasPenColour(r, p)) || (darkInk && isDarkInk(r));
+  return !inky && r.halfWidth >= OTHER_COLOUR_ON_STROKE * lineHalfWidth;
 }
 
 /**

@@ -35,16 +35,28 @@ const PEN_THICKNESS = 1.4;
 /** No pen is learned when more than this share of the round blobs have its colour. */
 const AMBIGUOUS_SHARE = 0.1;
 
-export function penFromStrokes(
+/**
+ * The pens of a plate, one per stroke blob (a plate may be labelled with more than one pen, and
+ * each blob's colour is measured on its own so a lamp's line reflection cannot blur a pen's),
+ * leaving out any whose colour the round blobs share.
+ */
+export function pensFromStrokes(
   strokes: readonly ComponentStats[],
   regions: readonly RegionStats[],
   roundBlobs: readonly RegionStats[],
-): Pen | null {
-  // The longest stroke stands for the pen: a plate is labelled with one pen, and other band-shaped
-  // things (a lamp's line reflection, a scratch) would blur its colour.
-  const longest = [...strokes].sort((a, b) => b.area - a.area)[0];
-  if (!longest) return null;
-  const pieces = regions.filter((r) => r.component === longest.id);
+): Pen[] {
+  return strokes.flatMap((stroke) => {
+    const pen = penOf(
+      stroke,
+      regions.filter((r) => r.component === stroke.id),
+    );
+    if (!pen) return [];
+    const sameColour = roundBlobs.filter((r) => hasPenColour(r, pen)).length;
+    return sameColour > AMBIGUOUS_SHARE * roundBlobs.length ? [] : [pen];
+  });
+}
+
+function penOf(stroke: ComponentStats, pieces: readonly RegionStats[]): Pen | null {
   const area = pieces.reduce((s, r) => s + r.area, 0);
   if (area === 0) return null;
   const delta = [0, 1, 2].map(
@@ -53,16 +65,14 @@ export function penFromStrokes(
   const spread = Math.sqrt(
     pieces.reduce((s, r) => s + r.area * deltaE76(deltaOf(r), delta) ** 2, 0) / area,
   );
-  const pen = { delta, spread, halfWidth: 2 * longest.meanDistance };
-  const sameColour = roundBlobs.filter((r) => hasPenColour(r, pen)).length;
-  return sameColour > AMBIGUOUS_SHARE * roundBlobs.length ? null : pen;
+  return { delta, spread, halfWidth: 2 * stroke.meanDistance };
 }
 
-export function isPenPiece(r: RegionStats, pen: Pen): boolean {
-  return hasPenColour(r, pen) && r.halfWidth <= PEN_THICKNESS * pen.halfWidth;
+export function isPenPiece(r: RegionStats, pens: readonly Pen[]): boolean {
+  return pens.some((pen) => hasPenColour(r, pen) && r.halfWidth <= PEN_THICKNESS * pen.halfWidth);
 }
 
-function hasPenColour(r: RegionStats, pen: Pen): boolean {
+export function hasPenColour(r: RegionStats, pen: Pen): boolean {
   const reach = Math.min(PEN_MAX_DELTA_E, Math.max(PEN_MIN_DELTA_E, PEN_SPREADS * pen.spread));
   return deltaE76(deltaOf(r), pen.delta) <= reach;
 }
@@ -73,4 +83,21 @@ function deltaOf(r: RegionStats): Lab {
     r.lab[1] - r.backgroundLab[1],
     r.lab[2] - r.backgroundLab[2],
   ];
+}
+
+/**
+ * Ink of the usual marker colours (black, dark grey, dark blue-black): much darker than the agar
+ * and nearly colourless. This prior covers writing too broken up for any stroke of it to be
+ * recognised by shape; like a learned pen it is used only when the plate's round blobs do not
+ * share it (a plate of blue-grey colonies turns it off).
+ */
+const INK_DARKER = 15;
+const INK_CHROMA = 12;
+export function isDarkInk(r: RegionStats): boolean {
+  return r.backgroundLab[0] - r.lab[0] > INK_DARKER && Math.hypot(r.lab[1], r.lab[2]) < INK_CHROMA;
+}
+
+/** Whether the prior for dark ink may be used on a plate with these round blobs. */
+export function darkInkUsable(roundBlobs: readonly RegionStats[]): boolean {
+  return roundBlobs.filter(isDarkInk).length <= AMBIGUOUS_SHARE * roundBlobs.length;
 }
