@@ -123,3 +123,38 @@ describe('dense plates (450–700 colonies)', () => {
     }
   }, 60_000);
 });
+
+describe('media and writing the first rules got wrong', () => {
+  // Each case is a failure seen on photos the generator did not draw: dark colonies of the agar's
+  // own hue dropped as "grey shades" (a plate of 150–300 deep red colonies on pink agar read as 0),
+  // blue-grey colonies dropped as ink because ink was told by colour, and writing in a coloured
+  // pen counted as colonies.
+  it('finds deep red colonies on pink agar and does not take them for shading', async () => {
+    for (const seed of [201, 202]) {
+      const r = await run(varietyScene(seed, { colonies: 150, colours: 'deepred-pink', glare: 0 }));
+      const s = scoreAnalysis(r.truth, r.analysis);
+      expect(Math.abs(s.countError)).toBeLessThan(0.05);
+      expect(s.recall).toBeGreaterThan(0.95);
+    }
+  }, 60_000);
+
+  it('finds blue-grey colonies as dark and colourless as ink, and does not drop them as writing', async () => {
+    for (const seed of [201, 202]) {
+      const r = await run(
+        varietyScene(seed, { colonies: 150, colours: 'slate-yellow', glare: 0, penMarks: true }),
+      );
+      const s = scoreAnalysis(r.truth, r.analysis);
+      expect(Math.abs(s.countError)).toBeLessThan(0.05);
+      expect(s.recall).toBeGreaterThan(0.95);
+    }
+  }, 60_000);
+
+  it('counts nothing on empty plates written on in any ink colour', async () => {
+    for (const penInk of ['black', 'blue', 'green', 'red'] as const) {
+      for (const colours of ['blue-cream', 'deepred-pink', 'slate-yellow'] as const) {
+        const r = await run(varietyScene(300, { colonies: 0, colours, penInk, penMarks: true }));
+        expect(r.analysis.colonies, `${penInk} ink on ${colours}`).toEqual([]);
+      }
+    }
+  }, 120_000);
+});
