@@ -12,6 +12,7 @@ import type { Keep } from './mat-scope.ts';
 import { withMats } from './mat-scope.ts';
 import { measureRegions } from './measure.ts';
 import { loadOpenCv, type Mat, type OpenCv } from './opencv.ts';
+import { plateDoubts } from './plate-doubts.ts';
 import { splitTouching } from './split.ts';
 import { colonyFlags, countsByClass } from './summary.ts';
 import type {
@@ -140,6 +141,15 @@ function runPipeline(
   const colonies = all.filter((_, i) => !classes.outlier[i]);
   const neither = all.filter((_, i) => classes.outlier[i]);
   stage('classify', 0.95);
+  flags.push(
+    ...plateDoubts({
+      counted: colonies.length,
+      foregroundShare: cv.countNonZero(fg.mask) / Math.max(1, cv.countNonZero(agar.countMask)),
+      setAside: rejected.strokes + rejected.shades + neither.length,
+      contrasts: candidates.filter((_, i) => !classes.outlier[i]).map((c) => c.region.contrast),
+      threshold: fg.threshold,
+    }),
+  );
 
   flags.push(...colonyFlags(colonies, classes.oneColour, neither.length));
   const edge = edgeWidthMm(

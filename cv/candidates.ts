@@ -31,10 +31,11 @@ import {
  *   point. A long blob whose ridge varies less than STROKE_RIDGE_VARIATION is a band. The
  *   pieces of the same writing that shape cannot tell are found by the pen's colour and
  *   thickness, learned from those bands (writing.ts).
- * - Grey shades: small regions darker than the agar with hardly any tint of their own against
- *   it (the soft edge of an ink stroke, the shadowed side of a droplet), and such regions of any
- *   size next to lid glare (its dim rim). A colony of the agar's own hue, only darker (deep red
- *   on pink agar), is as large as a colony and is kept: size, not tint, tells it from a shade.
+ * - Grey shades: regions darker than the agar with hardly any tint of their own against it (the
+ *   soft edge of an ink stroke, the shadowed side of a droplet, shading under condensation, the
+ *   dim rim round lid glare). A colony of the agar's own hue, only darker (deep red on pink
+ *   agar), is as large as a colony and far darker than any shading, and is kept: size and
+ *   contrast, not tint, tell it from a shade.
  * - Glare fringes: regions next to lid glare that are lighter than the agar but not tinted: the
  *   fainter edge of the glare, beyond the patch that glare.ts takes out.
  * - Wall glints: blobs on the rim of the counting area thinner than WALL_THINNESS typical colony
@@ -72,8 +73,12 @@ const COLONY_ON_STROKE = 1.6;
 const OTHER_COLOUR_ON_STROKE = 0.8;
 /** A grey shade: darker than the agar and within this colour difference of it in a*, b*. */
 const GREY_SHADE_CHROMA = 6;
-/** ... and smaller than this many minimum colonies (unless next to glare). */
+/**
+ * ... unless it is at least this many minimum colonies and stands this many thresholds above the
+ * agar (and is not next to glare): shading and condensation are faint, a colony is not.
+ */
 const SHADE_AREA = 3;
+const SHADE_CONTRAST = 3;
 /** Glare fringe: within this colour difference of the agar in a*, b*. */
 const GLARE_FRINGE_TINT = 3;
 const CLUMP_ELONGATION = 2.0;
@@ -159,7 +164,8 @@ export function selectCandidates(
       rejected.shades++;
       return false;
     }
-    if (!isGreyShade(r) || (r.area >= SHADE_AREA * minArea && !nearGlare(r))) return true;
+    const colonySized = r.area >= SHADE_AREA * minArea && r.contrast >= SHADE_CONTRAST * threshold;
+    if (!isGreyShade(r) || (colonySized && !nearGlare(r))) return true;
     rejected.shades++;
     return false;
   });

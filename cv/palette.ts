@@ -23,6 +23,7 @@ const DOUBTFUL = new Set<string>([
   'dish-not-found',
   'out-of-focus',
   'nothing-found',
+  'many-rejected',
   'unstable-count',
 ]);
 function isTrustworthy(a: PlateAnalysis): boolean {

@@ -89,7 +89,13 @@ export type QualityFlag =
   /** Ink (writing on the lid or the plate) left out, in `pieces`; colonies under it may be too. */
   | { kind: 'ink'; pieces: number }
   | { kind: 'out-of-focus'; edgeWidthMm: number }
-  | { kind: 'one-colour'; reason: string };
+  | { kind: 'one-colour'; reason: string }
+  /** No colony counted though part of the agar differs from the agar round it. */
+  | { kind: 'nothing-found'; foregroundShare: number }
+  /** More colony-sized objects set aside (writing, shading, neither colour) than counted. */
+  | { kind: 'many-rejected'; setAside: number; counted: number }
+  /** This share of the colonies lies near the detection threshold: the count leans on it. */
+  | { kind: 'unstable-count'; share: number };
 
 export interface PlateAnalysis {
   width: number;

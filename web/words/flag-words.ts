@@ -15,6 +15,9 @@ const PLATE_FLAG_LABELS: Record<string, string> = {
   ink: 'writing on the lid',
   'out-of-focus': 'out of focus',
   'one-colour': 'one colour only',
+  'nothing-found': 'nothing counted, something there',
+  'many-rejected': 'most objects set aside',
+  'unstable-count': 'count leans on the threshold',
 };
 
 const RESULT_FLAG_LABELS: Record<string, string> = {
@@ -84,6 +87,12 @@ export function plateFlagSentence(flag: PlateFlagCode): string {
       return `${counted(num(flag.colonies), 'blob', 'blobs')} of neither marker colour left out: check them.`;
     case 'one-colour':
       return `One colour only: ${String(flag.reason ?? '')}`;
+    case 'nothing-found':
+      return `No colony counted, yet ${(num(flag.foregroundShare) * 100).toFixed(1)}% of the agar differs from the agar round it: look for colonies and add them.`;
+    case 'many-rejected':
+      return `${counted(num(flag.setAside), 'object', 'objects')} set aside as writing, shading or of neither colour, more than the ${counted(num(flag.counted), 'colony', 'colonies')} counted: check what was set aside.`;
+    case 'unstable-count':
+      return `${Math.round(num(flag.share) * 100)}% of the colonies are barely darker or lighter than the agar: a stricter reading would drop them. Check the faint ones.`;
     default: {
       // A remark added to the analysis after this list was written: shown with its numbers.
       const { kind, ...values } = flag;
