@@ -98,12 +98,7 @@ export async function run(args: string[], io: CommandIo): Promise<number> {
     ...summarise(rows.filter((r) => r.batch === b).map((r) => r.score)),
   }));
   // Over all: each batch keeps its own colour mapping (names are prefixed with the batch).
-  const all = summarise(
-    rows.map((r) => ({
-      ...r.score,
-      pairs: r.score.pairs.map(([d, t]) => [`${r.batch}:${d}`, `${r.batch}:${t}`]),
-    })),
-  );
+  const all = summarise(rows.map((r) => withBatchNames(r.score, r.batch)));
   const silent = rows.filter(
     (r) => r.score.detected === 0 && r.score.visible > 0 && r.flags.length === 0,
   );
@@ -118,6 +113,18 @@ export async function run(args: string[], io: CommandIo): Promise<number> {
   const failed = rows.filter((r) => r.error);
   for (const f of failed) io.err(`rivalplate accuracy: ${f.photo}: ${f.error}`);
   return failed.length ? 1 : 0;
+}
+
+/** The plate's colour names prefixed with its batch, so each batch keeps its own mapping. */
+function withBatchNames(s: PlateScore, batch: string): PlateScore {
+  const named = (counts: Record<string, number>) =>
+    Object.fromEntries(Object.entries(counts).map(([k, v]) => [`${batch}:${k}`, v]));
+  return {
+    ...s,
+    pairs: s.pairs.map(([d, t]) => [`${batch}:${d}`, `${batch}:${t}`]),
+    detectedByClass: named(s.detectedByClass),
+    visibleByClass: named(s.visibleByClass),
+  };
 }
 
 function plateRow(label: LabelledPhoto, o: Outcome): PlateRow {

@@ -46,6 +46,21 @@ async function fitsWidth(page: Page, name: string) {
   expect(overflow, `${name} scrolls sideways`).toBeLessThanOrEqual(0);
 }
 
+/**
+ * A person scrolls until the colony is clear of the tool bar before tapping it; a tap on a
+ * colony hidden under the bar would land on the bar. (Scrolling is not a tap.)
+ */
+async function bringIntoView(page: Page, c: Correction) {
+  const { d, f } = await marksOnScreen(page);
+  const y = c.y * d + f;
+  const bar = await page.getByRole('toolbar', { name: 'Tools' }).boundingBox();
+  const viewport = page.viewportSize()!;
+  const bottom = Math.min(viewport.height, bar?.y ?? viewport.height) - 24;
+  const top = 64;
+  if (y > bottom || y < top)
+    await page.evaluate((dy) => window.scrollBy(0, dy), y - (top + bottom) / 2);
+}
+
 const total = async (page: Page) => (await count(page, 0)) + (await count(page, 1));
 
 /**
@@ -58,6 +73,7 @@ async function correct(page: Page, taps: Taps, c: Correction, held: { tool: stri
     await taps.on(page.getByTestId(tool));
     held.tool = tool;
   }
+  await bringIntoView(page, c);
   const { a, d, e, f } = await marksOnScreen(page);
   const before = [await count(page, 0), await count(page, 1)];
   await taps.at(page, c.x * a + e, c.y * d + f);
