@@ -124,6 +124,22 @@ export const isoTime: Check<string> = (v, f) => {
   return text;
 };
 
+/** The numbers (or short words) that go with a code: at most 8, finite, short. */
+export const codeValues: Check<Record<string, number | string>> = (v, f) => {
+  if (v === undefined || v === null) return {};
+  if (typeof v !== 'object' || Array.isArray(v))
+    throw new SchemaError(f, `expected an object of numbers, got ${shown(v)}`);
+  const entries = Object.entries(v as Record<string, unknown>);
+  if (entries.length > 8)
+    throw new SchemaError(f, `expected at most 8 values, got ${entries.length}`);
+  return Object.fromEntries(
+    entries.map(([k, x]) => [
+      textOf(TEXT_BYTES.name)(k, `${f} key`),
+      typeof x === 'number' ? num(x, `${f}.${k}`) : textOf(TEXT_BYTES.name)(x, `${f}.${k}`),
+    ]),
+  );
+};
+
 export function oneOf<const T extends readonly (string | number)[]>(
   ...options: T
 ): Check<T[number]> {

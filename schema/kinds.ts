@@ -7,6 +7,7 @@ import {
   blob,
   bool,
   type Check,
+  codeValues,
   count,
   idText,
   isoTime,
@@ -165,7 +166,7 @@ const analysis = object<Analysis>({
   dish: nullable(object({ cx: num, cy: num, rx: positive, ry: positive, angleDeg: num })),
   colonies: list(colony),
   classes: pair(object({ cls: classIndex, name: nameText, hex: nameText, deltaLab: triple })),
-  flags: list(object({ kind: nameText, detail: str })),
+  flags: list(object({ kind: nameText, values: codeValues, detail: nullable(str) })),
   paletteUsed: bool,
   ms: num,
 });

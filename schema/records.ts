@@ -162,9 +162,15 @@ export interface ClassRecord {
 }
 
 /** An image-quality remark of the analysis: its kind and the numbers that go with it. */
+/**
+ * A remark of the plate analysis, stored as its code and numbers and worded at the screen (so a
+ * lab's records do not carry one version's English). `detail` holds the sentence older versions
+ * stored instead, and is null in records written now.
+ */
 export interface FlagRecord {
   kind: string;
-  detail: string;
+  values: Record<string, number | string>;
+  detail: string | null;
 }
 
 /** What the automatic analysis found on a photo, before any correction. */

@@ -333,7 +333,7 @@ describe('storage full', () => {
       const bulky = Array.from({ length: 60 }, (_, i) =>
         changeOf('analyses', {
           ...analysis(`mf-an-full-${i}`, `mf-plate-${i}`, 1),
-          flags: [{ kind: 'note', detail: 'y'.repeat(6000) }],
+          flags: [{ kind: 'note', values: {}, detail: 'y'.repeat(6000) }],
         }),
       );
       const refused = await call<SyncErrorBody>(`${small.sync}/push`, token, {
@@ -361,7 +361,7 @@ describe('per-lab quotas', () => {
       Array.from({ length: 20 }, (_, i) =>
         changeOf('analyses', {
           ...analysis(`mf-an-q-${from + i}`, `mf-plate-${i}`, 1),
-          flags: [{ kind: 'note', detail: 'q'.repeat(8000) }],
+          flags: [{ kind: 'note', values: {}, detail: 'q'.repeat(8000) }],
         }),
       );
     // 20 records of about 8 KB fit; the next 20 would pass 256 KiB and are refused whole.

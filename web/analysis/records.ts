@@ -7,7 +7,6 @@ import type {
 } from '../../schema/records.ts';
 import type { Colony, Palette, PlateAnalysis } from '../../worker/types.ts';
 import { NEUTRAL_LOOKS } from '../bench/colours.ts';
-import { plateFlagSentence } from '../words/flag-words.ts';
 
 /** The stored record of one analysis (original photo pixels), colonies numbered in found order. */
 export function analysisRecord(
@@ -52,7 +51,7 @@ export function analysisRecord(
     },
     colonies,
     classes: [cls(0), cls(1)],
-    flags: a.flags.map((f) => ({ kind: f.kind, detail: plateFlagSentence(f) })),
+    flags: a.flags.map(({ kind, ...values }) => ({ kind, values, detail: null })),
     paletteUsed,
     ms: Object.values(a.timings).reduce((s, t) => s + t, 0),
   };

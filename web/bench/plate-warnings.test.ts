@@ -8,8 +8,8 @@ describe('a plate with a warning is not checked with one tap', () => {
     expect(
       plateWarnings(
         [
-          { kind: 'ink', detail: '' },
-          { kind: 'low-confidence', detail: '' },
+          { kind: 'ink', values: { pieces: 3 }, detail: null },
+          { kind: 'low-confidence', values: { colonies: 2 }, detail: null },
         ],
         90,
       ),
@@ -19,7 +19,7 @@ describe('a plate with a warning is not checked with one tap', () => {
   it('an empty plate, or a whole-plate remark, is named for the second tap', () => {
     expect(plateWarnings([], 0)).toEqual(['no colonies found']);
     expect(
-      plateWarnings([{ kind: 'glare', detail: 'Lid glare over 12% of the agar' }], 80),
+      plateWarnings([{ kind: 'glare', values: { fraction: 0.12 }, detail: null }], 80),
     ).toEqual(['lid glare']);
   });
 });

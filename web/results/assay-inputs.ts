@@ -3,6 +3,7 @@ import type { Assay } from '../../schema/records.ts';
 import { classLooks } from '../bench/colours.ts';
 import type { ExperimentData } from '../bench/experiment-data.ts';
 import { plateCount } from '../bench/plate-counts.ts';
+import { storedFlagSentence } from '../words/flag-words.ts';
 
 function assayLabel(a: Assay): string {
   return `${a.line} g${a.generation} r${a.replicate}`;
@@ -62,7 +63,13 @@ export function fitnessInputs(data: ExperimentData, checkedOnly = false): Fitnes
           const plateLabel = `${label} ${timepoint} plate ${i + 1} (1:${p.dilutionFold})`;
           if (c.source === 'photo' && analysis?.flags.length) {
             const list = imageFlags.get(label) ?? [];
-            list.push(...analysis.flags.map((f) => ({ plate: plateLabel, ...f })));
+            list.push(
+              ...analysis.flags.map((f) => ({
+                plate: plateLabel,
+                kind: f.kind,
+                detail: storedFlagSentence(f),
+              })),
+            );
             imageFlags.set(label, list);
           }
           return [

@@ -1,5 +1,5 @@
 import type { FlagRecord } from '../../schema/records.ts';
-import { plateFlagLabel } from '../words/flag-words.ts';
+import { plateFlagLabel, storedFlagSentence } from '../words/flag-words.ts';
 
 /** The analysis's remarks on this plate: short labels in one line, the sentences on a tap. */
 export function PlateFlags({ flags }: { flags: readonly FlagRecord[] }) {
@@ -14,7 +14,7 @@ export function PlateFlags({ flags }: { flags: readonly FlagRecord[] }) {
         ))}
       </summary>
       {flags.map((f) => (
-        <div key={f.kind}>{f.detail}</div>
+        <div key={f.kind}>{storedFlagSentence(f)}</div>
       ))}
     </details>
   );

@@ -9,6 +9,7 @@ import { plateRecordIds } from '../bench/delete.ts';
 import type { ExperimentData } from '../bench/experiment-data.ts';
 import { plateCount } from '../bench/plate-counts.ts';
 import { revised } from '../storage/stamp.ts';
+import { plateFlagLabel, storedFlagSentence } from '../words/flag-words.ts';
 import { ConfirmButton } from './ConfirmButton.tsx';
 import { NumberField } from './NumberField.tsx';
 
@@ -59,8 +60,8 @@ export function PlateRow({
             </span>
           )}
           {analysis?.flags.map((f) => (
-            <span key={f.kind} className="flag" title={f.detail}>
-              {f.kind}
+            <span key={f.kind} className="flag" title={storedFlagSentence(f)}>
+              {plateFlagLabel(f.kind)}
             </span>
           ))}
         </div>

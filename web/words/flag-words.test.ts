@@ -1,9 +1,11 @@
 import { describe, expect, it } from 'vitest';
+import { codeValues } from '../../schema/check.ts';
 import {
   assayFlagLabels,
   plateFlagLabel,
   plateFlagSentence,
   resultFlagLabel,
+  storedFlagSentence,
 } from './flag-words.ts';
 
 describe('flag codes in words', () => {
@@ -29,5 +31,28 @@ describe('flag codes in words', () => {
         [{ kind: 'ink' }, { kind: 'ink' }, { kind: 'glare' }],
       ),
     ).toEqual(['plate outside the countable range', 'writing on the lid', 'lid glare']);
+  });
+});
+
+describe('remarks stored as codes with their numbers', () => {
+  it('are worded at the screen; a sentence an older version stored is shown as it was', () => {
+    expect(storedFlagSentence({ kind: 'ink', values: { pieces: 1 }, detail: null })).toBe(
+      'Writing on the lid left out in 1 piece: check for colonies under it.',
+    );
+    expect(storedFlagSentence({ kind: 'ink', values: {}, detail: 'Old words.' })).toBe(
+      'Old words.',
+    );
+  });
+
+  it('the stored form is checked: numbers finite, at most 8, old records read with none', () => {
+    expect(codeValues(undefined, 'flags[0].values')).toEqual({});
+    expect(codeValues({ fraction: 0.12, reason: 'one' }, 'v')).toEqual({
+      fraction: 0.12,
+      reason: 'one',
+    });
+    expect(() => codeValues({ share: Number.NaN }, 'flags[0].values')).toThrow(
+      /flags\[0\]\.values\.share/,
+    );
+    expect(() => codeValues([1], 'v')).toThrow(/object of numbers/);
   });
 });

@@ -39,6 +39,15 @@ export function plateFlagLabel(kind: string): string {
   return PLATE_FLAG_LABELS[kind] ?? asWords(kind);
 }
 
+/** The sentence for a stored remark: worded now from its code and numbers (older records kept theirs). */
+export function storedFlagSentence(f: {
+  kind: string;
+  values: Record<string, number | string>;
+  detail: string | null;
+}): string {
+  return f.detail ?? plateFlagSentence({ ...f.values, kind: f.kind });
+}
+
 /** Short label of a remark the fitness engine made on one assay. */
 export function resultFlagLabel(code: string): string {
   return RESULT_FLAG_LABELS[code] ?? asWords(code);
