@@ -8,8 +8,10 @@ import type { CandidateFeatures, LearnedModel, Palette, PaletteColour } from './
  * A per-experiment model learned from the labels of checked plates (labels.ts):
  *
  * - colony or not: L2-regularised logistic regression (logistic.ts) over standardised features
- *   of each considered object (candidate-features.ts), the default rules' verdict among them, so
- *   with few labels the model stays near the defaults and moves away where the lab's plates say;
+ *   of each considered object (candidate-features.ts), with the default rules' verdict as its
+ *   offset (log-odds +PRIOR_LOGIT for what they keep, −PRIOR_LOGIT for what they reject) and
+ *   every coefficient shrunk towards 0: with no labels the model is the default rules, and with
+ *   a few it moves away from them only where the lab's plates say;
  * - the colour: the nearest class mean in colour relative to the agar (ΔL*, Δa*, Δb*), one mean
  *   per colour name the person used, with its spread, as a palette (classify.ts sorts by it).
  *
@@ -18,6 +20,8 @@ import type { CandidateFeatures, LearnedModel, Palette, PaletteColour } from './
 export const MODEL_VERSION = 1;
 /** The L2 penalty on standardised weights: enough to keep a handful of plates from overfitting. */
 const LAMBDA = 1;
+/** The default rules' verdict as prior log-odds: 0.88 for what they keep, 0.12 for the rest. */
+const PRIOR_LOGIT = 2;
 /** Beyond this distance from the wall (mm), the wall no longer matters. */
 const WALL_CAP_MM = 5;
 
@@ -79,6 +83,7 @@ export function learnModel(
     z,
     usable.map((l) => (l.colony ? 1 : 0)),
     LAMBDA,
+    usable.map((l) => prior(l.features!)),
   );
   return {
     format: 'rivalplate-model',
@@ -98,7 +103,11 @@ export function learnModel(
 /** The probability that an object is a colony, by the model. */
 export function colonyProbability(model: LearnedModel, f: CandidateFeatures): number {
   const x = featureVector(f).map((v, k) => (v - model.mean[k]!) / model.sd[k]!);
-  return logisticProbability({ intercept: model.intercept, weights: model.weights }, x);
+  return logisticProbability({ intercept: model.intercept, weights: model.weights }, x, prior(f));
+}
+
+function prior(f: CandidateFeatures): number {
+  return f.verdict === 'colony' ? PRIOR_LOGIT : -PRIOR_LOGIT;
 }
 
 /**

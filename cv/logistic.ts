@@ -1,8 +1,10 @@
 /**
  * L2-regularised (ridge) logistic regression fitted by Newton–Raphson, i.e. iteratively
  * reweighted least squares (Hastie, Tibshirani & Friedman, The Elements of Statistical Learning,
- * 2nd ed., §4.4.1 for the Newton/IRLS fit and §4.4.4 for the L2 penalty). The intercept is not
- * penalised. The penalised log-likelihood is strictly concave, so the fit has one optimum and the
+ * 2nd ed., §4.4.1 for the Newton/IRLS fit and §4.4.4 for the L2 penalty), with a fixed offset
+ * per example (a known part of each log-odds, as in a generalised linear model's offset term).
+ * The intercept is penalised like the weights: the offset carries the prior decision, and the fit
+ * moves away from it only as far as the examples ask. The penalised log-likelihood is strictly concave, so the fit has one optimum and the
  * same data in the same order always give the same weights: no random start, no sampling.
  *
  * Chosen over a random forest because it is small (one weight per feature), fits in a few
@@ -17,11 +19,15 @@ export interface LogisticFit {
   weights: number[];
 }
 
-/** rows: feature vectors (already standardised); y: 1 or 0; lambda: the L2 penalty. */
+/**
+ * rows: feature vectors (already standardised); y: 1 or 0; lambda: the L2 penalty; offset: the
+ * fixed log-odds of each example before the fit (0 when absent).
+ */
 export function fitLogistic(
   rows: readonly (readonly number[])[],
   y: readonly number[],
   lambda: number,
+  offset?: readonly number[],
 ): LogisticFit {
   const p = (rows[0]?.length ?? 0) + 1;
   const beta = new Array<number>(p).fill(0);
@@ -30,19 +36,18 @@ export function fitLogistic(
     const hess = Array.from({ length: p }, () => new Array<number>(p).fill(0));
     rows.forEach((row, i) => {
       const x = [1, ...row];
-      const mu = sigmoid(dot(beta, x));
+      const mu = sigmoid(dot(beta, x) + (offset?.[i] ?? 0));
       const w = Math.max(mu * (1 - mu), 1e-12);
       for (let a = 0; a < p; a++) {
         grad[a]! += (y[i]! - mu) * x[a]!;
         for (let b = 0; b <= a; b++) hess[a]![b]! += w * x[a]! * x[b]!;
       }
     });
-    for (let a = 1; a < p; a++) {
+    for (let a = 0; a < p; a++) {
       grad[a]! -= lambda * beta[a]!;
-      hess[a]![a]! += lambda;
+      // A tiny ridge keeps an unpenalised fit solvable when one class is absent.
+      hess[a]![a]! += lambda + 1e-9;
     }
-    // A tiny ridge on the intercept too keeps the system solvable when one class is absent.
-    hess[0]![0]! += 1e-9;
     const step = choleskySolve(hess, grad);
     let largest = 0;
     for (let a = 0; a < p; a++) {
@@ -54,8 +59,8 @@ export function fitLogistic(
   return { intercept: beta[0]!, weights: beta.slice(1) };
 }
 
-export function logisticProbability(fit: LogisticFit, x: readonly number[]): number {
-  return sigmoid(fit.intercept + dot(fit.weights, x));
+export function logisticProbability(fit: LogisticFit, x: readonly number[], offset = 0): number {
+  return sigmoid(fit.intercept + dot(fit.weights, x) + offset);
 }
 
 function sigmoid(t: number): number {
