@@ -129,9 +129,11 @@ function runPipeline(
           toOriginal: (x, y) => toOriginal(frame, x, y),
         })
       : null;
-  const candidates = options.model
+  const learned = options.model
     ? learnedCandidates(options.model, considered!, measured.regions, byDefault)
-    : byDefault;
+    : null;
+  if (learned?.flag) flags.push(learned.flag);
+  const candidates = learned?.candidates ?? byDefault;
   stage('measure', 0.85);
 
   const samples = candidates.map((c) => ({
@@ -155,8 +157,10 @@ function runPipeline(
       deltaLab: roundLab(samples[i]!.deltaLab),
     };
   });
-  const colonies = all.filter((_, i) => !classes.outlier[i]);
-  const neither = all.filter((_, i) => classes.outlier[i]);
+  // A learned model has already judged each object a colony: its colour is the nearer one.
+  const outlier = (i: number) => !options.model && classes.outlier[i]!;
+  const colonies = all.filter((_, i) => !outlier(i));
+  const neither = all.filter((_, i) => outlier(i));
   stage('classify', 0.95);
 
   flags.push(...colonyFlags(colonies, classes.oneColour, neither.length));

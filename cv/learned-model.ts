@@ -19,7 +19,7 @@ import type { CandidateFeatures, LearnedModel, Palette, PaletteColour } from './
  */
 export const MODEL_VERSION = 1;
 /** The L2 penalty on standardised weights: enough to keep a handful of plates from overfitting. */
-const LAMBDA = 1;
+const LAMBDA = Number(globalThis.process?.env?.RP_LAMBDA ?? 1);
 /** The default rules' verdict as prior log-odds: 0.88 for what they keep, 0.12 for the rest. */
 const PRIOR_LOGIT = 2;
 /** Beyond this distance from the wall (mm), the wall no longer matters. */

@@ -30,33 +30,66 @@ export function fitLogistic(
   offset?: readonly number[],
 ): LogisticFit {
   const p = (rows[0]?.length ?? 0) + 1;
-  const beta = new Array<number>(p).fill(0);
+  const xs = rows.map((row) => [1, ...row]);
+  const off = (i: number) => offset?.[i] ?? 0;
+  let beta = new Array<number>(p).fill(0);
+  let current = objective(xs, y, off, lambda, beta);
   for (let it = 0; it < MAX_ITERATIONS; it++) {
-    const grad = new Array<number>(p).fill(0);
-    const hess = Array.from({ length: p }, () => new Array<number>(p).fill(0));
-    rows.forEach((row, i) => {
-      const x = [1, ...row];
-      const mu = sigmoid(dot(beta, x) + (offset?.[i] ?? 0));
-      const w = Math.max(mu * (1 - mu), 1e-12);
+    const grad = beta.map((b) => -lambda * b);
+    const hess = Array.from({ length: p }, (_, a) => {
+      const row = new Array<number>(p).fill(0);
+      // A tiny ridge keeps an unpenalised fit solvable when one class is absent.
+      row[a] = lambda + 1e-9;
+      return row;
+    });
+    xs.forEach((x, i) => {
+      const mu = sigmoid(dot(beta, x) + off(i));
+      const w = mu * (1 - mu);
       for (let a = 0; a < p; a++) {
         grad[a]! += (y[i]! - mu) * x[a]!;
         for (let b = 0; b <= a; b++) hess[a]![b]! += w * x[a]! * x[b]!;
       }
     });
-    for (let a = 0; a < p; a++) {
-      grad[a]! -= lambda * beta[a]!;
-      // A tiny ridge keeps an unpenalised fit solvable when one class is absent.
-      hess[a]![a]! += lambda + 1e-9;
-    }
     const step = choleskySolve(hess, grad);
-    let largest = 0;
-    for (let a = 0; a < p; a++) {
-      beta[a]! += step[a]!;
-      largest = Math.max(largest, Math.abs(step[a]!));
+    // Step halving (damped Newton): a full step can overshoot far from the optimum on data that
+    // is nearly separable; a step is taken only when it lowers the penalised loss.
+    let scale = 1;
+    let next = beta;
+    let value = current;
+    for (let h = 0; h < 30; h++) {
+      const trial = beta.map((b, a) => b + scale * step[a]!);
+      const v = objective(xs, y, off, lambda, trial);
+      if (v <= current) {
+        next = trial;
+        value = v;
+        break;
+      }
+      scale /= 2;
     }
+    const largest = Math.max(...next.map((b, a) => Math.abs(b - beta[a]!)));
+    beta = next;
+    current = value;
     if (largest < TOLERANCE) break;
   }
   return { intercept: beta[0]!, weights: beta.slice(1) };
+}
+
+/** The penalised negative log-likelihood. */
+function objective(
+  xs: readonly number[][],
+  y: readonly number[],
+  off: (i: number) => number,
+  lambda: number,
+  beta: readonly number[],
+): number {
+  let loss = 0;
+  xs.forEach((x, i) => {
+    const t = dot(beta, x) + off(i);
+    // −log σ(t) for y = 1 and −log(1 − σ(t)) for y = 0, computed without overflow.
+    const s = y[i] ? -t : t;
+    loss += s > 0 ? s + Math.log1p(Math.exp(-s)) : Math.log1p(Math.exp(s));
+  });
+  return loss + 0.5 * lambda * beta.reduce((acc, b) => acc + b * b, 0);
 }
 
 export function logisticProbability(fit: LogisticFit, x: readonly number[], offset = 0): number {

@@ -89,7 +89,9 @@ export type QualityFlag =
   /** Ink (writing on the lid or the plate) left out, in `pieces`; colonies under it may be too. */
   | { kind: 'ink'; pieces: number }
   | { kind: 'out-of-focus'; edgeWidthMm: number }
-  | { kind: 'one-colour'; reason: string };
+  | { kind: 'one-colour'; reason: string }
+  /** The experiment's learned model and the default rules disagree on many objects: look. */
+  | { kind: 'learned-differs'; added: number; dropped: number };
 
 export interface PlateAnalysis {
   width: number;
