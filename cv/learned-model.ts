@@ -2,7 +2,13 @@ import { colourFeature } from './classify.ts';
 import { labToHex } from './colour.ts';
 import type { CandidateLabel } from './labels.ts';
 import { fitLogistic, logisticProbability } from './logistic.ts';
-import type { CandidateFeatures, LearnedModel, Palette, PaletteColour } from './types.ts';
+import type {
+  CandidateFeatures,
+  FeatureRange,
+  LearnedModel,
+  Palette,
+  PaletteColour,
+} from './types.ts';
 
 /**
  * A per-experiment model learned from the labels of checked plates (labels.ts):
@@ -19,9 +25,11 @@ import type { CandidateFeatures, LearnedModel, Palette, PaletteColour } from './
  */
 export const MODEL_VERSION = 1;
 /** The L2 penalty on standardised weights: enough to keep a handful of plates from overfitting. */
-const LAMBDA = Number(globalThis.process?.env?.RP_LAMBDA ?? 1);
+const LAMBDA = 1;
 /** The default rules' verdict as prior log-odds: 0.88 for what they keep, 0.12 for the rest. */
 const PRIOR_LOGIT = 2;
+/** How far past the labelled range of a feature the model still decides, in its SDs. */
+const RANGE_MARGIN = 0.5;
 /** Beyond this distance from the wall (mm), the wall no longer matters. */
 const WALL_CAP_MM = 5;
 
@@ -93,10 +101,44 @@ export function learnModel(
     features: [...FEATURE_NAMES],
     mean: mean.map(sig),
     sd: sd.map(sig),
+    colonyRange: rangeOf(usable.filter((l) => l.colony))!,
+    removedRange: rangeOf(usable.filter((l) => l.kind === 'removed')),
     intercept: sig(fit.intercept),
     weights: fit.weights.map(sig),
     lambda: LAMBDA,
     palette: labelledPalette(usable, names),
+  };
+}
+
+/**
+ * The model's verdict on one object. It overrules the default rules only for objects like those
+ * the person overruled them on: it adds an object the rules rejected when each of its features
+ * lies within the range of the labelled colonies, and drops one they kept when each lies within
+ * the range of the objects the person removed (both widened by RANGE_MARGIN standard
+ * deviations). Beyond them it would only extrapolate (colonies of another size or colour than the
+ * lab ever checked), and the default rules stand.
+ */
+export function isColony(model: LearnedModel, f: CandidateFeatures): boolean {
+  const byDefault = f.verdict === 'colony';
+  const range = byDefault ? model.removedRange : model.colonyRange;
+  if (!range || !within(model, range, featureVector(f))) return byDefault;
+  return colonyProbability(model, f) >= 0.5;
+}
+
+function within(model: LearnedModel, range: FeatureRange, x: readonly number[]): boolean {
+  return x.every(
+    (v, k) =>
+      v >= range.low[k]! - RANGE_MARGIN * model.sd[k]! &&
+      v <= range.high[k]! + RANGE_MARGIN * model.sd[k]!,
+  );
+}
+
+function rangeOf(labels: readonly CandidateLabel[]): FeatureRange | null {
+  if (labels.length === 0) return null;
+  const rows = labels.map((l) => featureVector(l.features!));
+  return {
+    low: FEATURE_NAMES.map((_, k) => sig(Math.min(...rows.map((r) => r[k]!)))),
+    high: FEATURE_NAMES.map((_, k) => sig(Math.max(...rows.map((r) => r[k]!)))),
   };
 }
 

@@ -1,5 +1,5 @@
 import { FEATURE_NAMES, MODEL_VERSION, ModelError } from './learned-model.ts';
-import type { LearnedModel, Palette } from './types.ts';
+import type { FeatureRange, LearnedModel, Palette } from './types.ts';
 
 /**
  * The learned model as a file: JSON with its fields in a fixed order, so the same model always
@@ -15,6 +15,8 @@ export function modelToJson(m: LearnedModel): string {
     features: m.features,
     mean: m.mean,
     sd: m.sd,
+    colonyRange: { low: m.colonyRange.low, high: m.colonyRange.high },
+    removedRange: m.removedRange && { low: m.removedRange.low, high: m.removedRange.high },
     intercept: m.intercept,
     weights: m.weights,
     lambda: m.lambda,
@@ -69,6 +71,8 @@ export function parseModel(text: string): LearnedModel {
     features: [...FEATURE_NAMES],
     mean: numbers(raw.mean, 'mean', n),
     sd: numbers(raw.sd, 'sd', n),
+    colonyRange: range(raw.colonyRange, 'colonyRange', n),
+    removedRange: raw.removedRange === null ? null : range(raw.removedRange, 'removedRange', n),
     intercept: finite(raw.intercept, 'intercept'),
     weights: numbers(raw.weights, 'weights', n),
     lambda: finite(raw.lambda, 'lambda'),
@@ -103,6 +107,11 @@ function palette(v: unknown): Palette {
     throw new ModelError('damaged model: the two palette colours share one name');
   }
   return { version: 1, colours: [colours[0]!, colours[1]!] };
+}
+
+function range(v: unknown, field: string, n: number): FeatureRange {
+  if (!isRecord(v)) throw new ModelError(`damaged model: "${field}" is not an object`);
+  return { low: numbers(v.low, `${field}.low`, n), high: numbers(v.high, `${field}.high`, n) };
 }
 
 function numbers(v: unknown, field: string, length: number): number[] {

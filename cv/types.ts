@@ -148,6 +148,11 @@ export interface CandidateFeatures {
   verdict: CandidateVerdict;
 }
 
+export interface FeatureRange {
+  low: number[];
+  high: number[];
+}
+
 /**
  * A per-experiment model learned from checked plates (learned-model.ts): which objects are
  * colonies (logistic regression over standardised features) and the two colours (a palette of
@@ -163,6 +168,13 @@ export interface LearnedModel {
   features: string[];
   mean: number[];
   sd: number[];
+  /**
+   * Where the model may overrule the default rules: each feature's smallest and largest value
+   * among the labelled colonies (to add an object the rules rejected) and among the objects the
+   * rules kept and the person removed (to drop one they kept; null when none was removed).
+   */
+  colonyRange: FeatureRange;
+  removedRange: FeatureRange | null;
   intercept: number;
   weights: number[];
   /** The L2 penalty it was fitted with. */
