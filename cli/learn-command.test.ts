@@ -83,7 +83,6 @@ describe('rivalplate learn and count --model', () => {
   ])(
     'refuses %s, naming the line and field',
     async (_, edit, message) => {
-      const bad = join(dir, 'checked.jsonl');
       const good = await readFile(jsonl, 'utf8');
       const first = good.split('\n')[0]!;
       const file = join(dir, 'bad.jsonl');
