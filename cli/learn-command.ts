@@ -80,8 +80,11 @@ export async function run(args: string[], io: CommandIo): Promise<number> {
     const colours = model.palette
       ? `colours ${model.palette.colours.map((c) => `"${c.name}"`).join(' and ')}`
       : 'colours sorted as by default (the file does not name two colours on measured colonies)';
+    const colonies = core.decidesColonies(model)
+      ? 'it decides which objects are colonies'
+      : `too few colonies to overrule the default rules on which objects are colonies (${core.coloniesNeeded(model)} needed): it sorts the colours only`;
     io.out(
-      `learned from ${model.plates} checked plates: ${model.examples.colonies} colonies and ${model.examples.other} other objects; ${colours}\n`,
+      `learned from ${model.plates} checked plates: ${model.examples.colonies} colonies and ${model.examples.other} other objects; ${colours}; ${colonies}\n`,
     );
   } catch (e) {
     if (e instanceof CorrectedFileError || e instanceof CheckedPlateError) {

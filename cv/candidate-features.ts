@@ -11,6 +11,8 @@ import type { CandidateFeatures, CandidateVerdict } from './types.ts';
  * - shape: elongation = area / (π·halfWidth²) (about 1 for any round colony, 2 for a fused pair,
  *   large for a stroke), and the ridge variation of its blob (measure.ts, candidates.ts);
  * - the distance from the dish wall in mm;
+ * - how many objects the default rules kept on the plate (a stray object is a larger share of a
+ *   sparse plate's colonies than of a crowded one's);
  * - what the default rules said (`colony` or `rejected`; an object of neither palette colour is a
  *   colony candidate here, the colour is decided apart).
  *
@@ -56,6 +58,7 @@ export function candidateFeatures(input: FeatureInput): CandidateFeatures[] {
         ridgeVariation: round(byId.get(r.component)?.ridgeVariation ?? 0, 3),
         wallMm: round(input.wallMm(r.x, r.y), 2),
         verdict: input.verdict.get(r.id) ?? 'rejected',
+        plateColonies: input.verdict.size,
       };
     });
 }

@@ -22,6 +22,7 @@ function object(
     ridgeVariation: 0,
     wallMm: 10,
     verdict,
+    plateColonies: 3,
   };
 }
 

@@ -1,7 +1,13 @@
 import { describe, expect, it } from 'vitest';
 import { createRng } from '../fixtures/prng.ts';
 import type { CandidateLabel } from './labels.ts';
-import { colonyProbability, learnModel, ModelError } from './learned-model.ts';
+import {
+  colonyProbability,
+  decidesColonies,
+  isColony,
+  learnModel,
+  ModelError,
+} from './learned-model.ts';
 import { fitLogistic } from './logistic.ts';
 import { modelToJson, parseModel } from './model-file.ts';
 import type { CandidateFeatures } from './types.ts';
@@ -21,6 +27,7 @@ function labelled(rng: () => number, colony: boolean, cls: string | null): Candi
     elongation: 1 + 0.3 * rng(),
     ridgeVariation: 0.1 * rng(),
     wallMm: 40 * rng(),
+    plateColonies: 100,
     verdict: colony ? (rng() < 0.8 ? 'colony' : 'rejected') : rng() < 0.1 ? 'colony' : 'rejected',
   };
   return { kind: colony ? 'kept' : 'rejected', colony, cls, features, x: 0, y: 0 };
@@ -75,6 +82,16 @@ describe('the learned model', () => {
     expect(() => learnModel(none, 1, ['red', 'white'])).toThrow(/no checked colony/);
   });
 
+  it('from too few colonies it sorts colours only and leaves colony or not to the default rules', () => {
+    const all = labels(4);
+    const few = [...all.filter((l) => !l.colony), ...all.filter((l) => l.colony).slice(0, 30)];
+    const model = learnModel(few, 1, ['red', 'white']);
+    expect(decidesColonies(model)).toBe(false);
+    for (const l of few)
+      expect(isColony(model, l.features!)).toBe(l.features!.verdict === 'colony');
+    expect(decidesColonies(learnModel(all, 3, ['red', 'white']))).toBe(true);
+  });
+
   it('one colour name gives no palette: colours are sorted as by default', () => {
     expect(learnModel(labels(3), 1, ['red']).palette).toBeNull();
   });
@@ -91,7 +108,7 @@ describe('the model file', () => {
   it.each([
     ['cut short', good.slice(0, 200), /not JSON/],
     ['another kind of file', '{"version": 1, "colours": []}', /"format" is not "rivalplate-model"/],
-    ['a weight lost', edit((m) => (m.weights as number[]).pop()), /"weights" must hold 10 numbers/],
+    ['a weight lost', edit((m) => (m.weights as number[]).pop()), /"weights" must hold 11 numbers/],
     [
       'a weight not a number',
       edit((m) => ((m.weights as unknown[])[2] = 'x')),

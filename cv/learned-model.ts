@@ -28,6 +28,7 @@ export const MODEL_VERSION = 1;
 const LAMBDA = 1;
 /** The default rules' verdict as prior log-odds: 0.88 for what they keep, 0.12 for the rest. */
 const PRIOR_LOGIT = 2;
+const EVENTS_PER_FEATURE = 5;
 /** How far past the labelled range of a feature the model still decides, in its SDs. */
 const RANGE_MARGIN = 0.5;
 /** Beyond this distance from the wall (mm), the wall no longer matters. */
@@ -44,7 +45,11 @@ export const FEATURE_NAMES = [
   'ridge_variation',
   'wall_mm',
   'default_colony',
+  'log_plate_colonies',
 ] as const;
+
+/** The plate's crowding describes the plate, not the object: it bounds nothing (isColony). */
+const PLATE_FEATURE = FEATURE_NAMES.indexOf('log_plate_colonies');
 
 export function featureVector(f: CandidateFeatures): number[] {
   return [
@@ -58,6 +63,7 @@ export function featureVector(f: CandidateFeatures): number[] {
     f.ridgeVariation,
     Math.min(f.wallMm, WALL_CAP_MM),
     f.verdict === 'colony' ? 1 : 0,
+    Math.log1p(f.plateColonies),
   ];
 }
 
@@ -111,6 +117,20 @@ export function learnModel(
 }
 
 /**
+ * Whether the model learned from enough colonies to overrule the default rules at all: at least
+ * EVENTS_PER_FEATURE labelled colonies per feature (the events-per-variable rule for logistic
+ * regression; 5 is the relaxed bound of Vittinghoff & McCulloch 2007, Am. J. Epidemiol.
+ * 165:710, cited from memory). With fewer, it only names and sorts the colours.
+ */
+export function decidesColonies(model: LearnedModel): boolean {
+  return model.examples.colonies >= coloniesNeeded(model);
+}
+
+export function coloniesNeeded(model: LearnedModel): number {
+  return EVENTS_PER_FEATURE * model.features.length;
+}
+
+/**
  * The model's verdict on one object. It overrules the default rules only for objects like those
  * the person overruled them on: it adds an object the rules rejected when each of its features
  * lies within the range of the labelled colonies, and drops one they kept when each lies within
@@ -120,6 +140,7 @@ export function learnModel(
  */
 export function isColony(model: LearnedModel, f: CandidateFeatures): boolean {
   const byDefault = f.verdict === 'colony';
+  if (!decidesColonies(model)) return byDefault;
   const range = byDefault ? model.removedRange : model.colonyRange;
   if (!range || !within(model, range, featureVector(f))) return byDefault;
   return colonyProbability(model, f) >= 0.5;
@@ -128,8 +149,9 @@ export function isColony(model: LearnedModel, f: CandidateFeatures): boolean {
 function within(model: LearnedModel, range: FeatureRange, x: readonly number[]): boolean {
   return x.every(
     (v, k) =>
-      v >= range.low[k]! - RANGE_MARGIN * model.sd[k]! &&
-      v <= range.high[k]! + RANGE_MARGIN * model.sd[k]!,
+      k === PLATE_FEATURE ||
+      (v >= range.low[k]! - RANGE_MARGIN * model.sd[k]! &&
+        v <= range.high[k]! + RANGE_MARGIN * model.sd[k]!),
   );
 }
 

@@ -146,6 +146,8 @@ export interface CandidateFeatures {
   /** Distance from the dish wall in mm. */
   wallMm: number;
   verdict: CandidateVerdict;
+  /** Objects the default rules kept on this plate: how crowded the plate is. */
+  plateColonies: number;
 }
 
 export interface FeatureRange {
