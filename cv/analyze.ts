@@ -9,6 +9,7 @@ import { deltaESlope, edgeWidthMm } from './focus.ts';
 import { segmentForeground } from './foreground.ts';
 import { frameForDish, inscribedDish, toOriginal, type WorkingFrame } from './frame.ts';
 import { checkImage } from './image-input.ts';
+import { decidesColonies } from './learned-model.ts';
 import { learnedCandidates } from './learned-select.ts';
 import type { Keep } from './mat-scope.ts';
 import { withMats } from './mat-scope.ts';
@@ -157,8 +158,10 @@ function runPipeline(
       deltaLab: roundLab(samples[i]!.deltaLab),
     };
   });
-  // A learned model has already judged each object a colony: its colour is the nearer one.
-  const outlier = (i: number) => !options.model && classes.outlier[i]!;
+  // A learned model that decides colonies has already judged each object one: its colour is the
+  // nearer one. A model that only sorts colours leaves the default rules' judgement as it is.
+  const judged = options.model !== undefined && decidesColonies(options.model);
+  const outlier = (i: number) => !judged && classes.outlier[i]!;
   const colonies = all.filter((_, i) => !outlier(i));
   const neither = all.filter((_, i) => outlier(i));
   stage('classify', 0.95);
