@@ -84,7 +84,7 @@ export async function run(args: string[], io: CommandIo): Promise<number> {
       ? 'it decides which objects are colonies'
       : `too few colonies to overrule the default rules on which objects are colonies (${core.coloniesNeeded(model)} needed): it sorts the colours only`;
     io.out(
-      `learned from ${model.plates} checked plates: ${model.examples.colonies} colonies and ${model.examples.other} other objects; ${colours}; ${colonies}\n`,
+      `learned from ${model.plates} checked ${model.plates === 1 ? 'plate' : 'plates'}: ${model.examples.colonies} colonies and ${model.examples.other} other objects; ${colours}; ${colonies}\n`,
     );
   } catch (e) {
     if (e instanceof CorrectedFileError || e instanceof CheckedPlateError) {
