@@ -15,6 +15,7 @@ const PLATE_FLAG_LABELS: Record<string, string> = {
   ink: 'writing on the lid',
   'out-of-focus': 'out of focus',
   'one-colour': 'one colour only',
+  'learned-differs': 'learning disagrees',
 };
 
 const RESULT_FLAG_LABELS: Record<string, string> = {
@@ -84,6 +85,8 @@ export function plateFlagSentence(flag: PlateFlagCode): string {
       return `${counted(num(flag.colonies), 'blob', 'blobs')} of neither marker colour left out: check them.`;
     case 'one-colour':
       return `One colour only: ${String(flag.reason ?? '')}`;
+    case 'learned-differs':
+      return `What the experiment learned disagrees with the usual rules here (${counted(num(flag.added), 'object', 'objects')} added, ${num(flag.dropped)} dropped): check the colonies.`;
     default: {
       // A remark added to the analysis after this list was written: shown with its numbers.
       const { kind, ...values } = flag;
