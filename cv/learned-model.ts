@@ -21,13 +21,16 @@ import type {
  * - the colour: the nearest class mean in colour relative to the agar (ΔL*, Δa*, Δb*), one mean
  *   per colour name the person used, with its spread, as a palette (classify.ts sorts by it).
  *
- * The model file is a few hundred bytes; the same labels in the same order give the same model.
+ * It overrules the default rules only where the labels showed objects like the one at hand, and
+ * only once it has seen enough colonies (isColony, decidesColonies). The model file is under 2 KB;
+ * the same labels in the same order give the same model.
  */
 export const MODEL_VERSION = 1;
 /** The L2 penalty on standardised weights: enough to keep a handful of plates from overfitting. */
 const LAMBDA = 1;
 /** The default rules' verdict as prior log-odds: 0.88 for what they keep, 0.12 for the rest. */
 const PRIOR_LOGIT = 2;
+/** Labelled colonies needed per feature before the model decides colony or not (decidesColonies). */
 const EVENTS_PER_FEATURE = 5;
 /** How far past the labelled range of a feature the model still decides, in its SDs. */
 const RANGE_MARGIN = 0.5;
