@@ -6,10 +6,12 @@
 import { writeFile } from 'node:fs/promises';
 import { basename } from 'node:path';
 import { parseArgs } from 'node:util';
+import type { LearnedModel } from '../cv/index.ts';
 import { type PlateScore, type Summary, scorePlate, summarise } from './accuracy-score.ts';
 import { countBatch, type Outcome } from './count-batch.ts';
 import type { CommandIo } from './io.ts';
 import { LabelError, type LabelledPhoto, readLabelledFolder } from './labelled-folder.ts';
+import { type CheckedPlate, CheckedPlateError, learnFromPlates } from './learn-from-plates.ts';
 import { loadCvCore } from './opencv-quiet.ts';
 import { UsageError, wholeNumber } from './options.ts';
 
@@ -25,6 +27,10 @@ Options:
   --plates            also print one line per photo
   --json-out FILE     write every figure, per photo and per batch, as JSON
   --dish-mm N         inner dish diameter in mm (default 90)
+  --learn-first N     a learning trial: in each batch, correct the first N photos from their
+                      labels (the visible colonies with their colours), learn a model from them
+                      (as rivalplate learn does), and score the other photos before and after
+                      (rows BATCH and BATCH+learned)
   -h, --help          show this help
 
 Exit status: 0 scored, 1 a photo could not be counted, 2 usage or truth-file error.
@@ -39,7 +45,13 @@ interface PlateRow {
 }
 
 export async function run(args: string[], io: CommandIo): Promise<number> {
-  let options: { dir: string; plates: boolean; jsonOut?: string; dishMm: number };
+  let options: {
+    dir: string;
+    plates: boolean;
+    jsonOut?: string;
+    dishMm: number;
+    learnFirst: number;
+  };
   try {
     const { values, positionals } = parseArgs({
       args,
@@ -48,6 +60,7 @@ export async function run(args: string[], io: CommandIo): Promise<number> {
         plates: { type: 'boolean' },
         'json-out': { type: 'string' },
         'dish-mm': { type: 'string' },
+        'learn-first': { type: 'string' },
         help: { type: 'boolean', short: 'h' },
       },
     });
@@ -61,6 +74,9 @@ export async function run(args: string[], io: CommandIo): Promise<number> {
       plates: Boolean(values.plates),
       ...(values['json-out'] ? { jsonOut: values['json-out'] } : {}),
       dishMm: values['dish-mm'] ? wholeNumber(values['dish-mm'], '--dish-mm', 20) : 90,
+      learnFirst: values['learn-first']
+        ? wholeNumber(values['learn-first'], '--learn-first', 1)
+        : 0,
     };
   } catch (e) {
     if (e instanceof UsageError || e instanceof TypeError) {
@@ -79,35 +95,66 @@ export async function run(args: string[], io: CommandIo): Promise<number> {
   }
   const core = await loadCvCore();
   const rows: PlateRow[] = [];
+  const learnedRows: PlateRow[] = [];
   const batches = [...new Set(labelled.map((l) => l.batch))].sort();
   for (const batch of batches) {
     const members = labelled.filter((l) => l.batch === batch);
-    const { outcomes } = await countBatch(
-      core,
-      members.map((m) => m.photo),
-      {
-        dishMm: options.dishMm,
-        onPhoto: (i, n, file) => io.status?.(`[${batch} ${i}/${n}] ${basename(file)}`),
-      },
-    );
-    for (const [i, o] of outcomes.entries()) rows.push(plateRow(members[i]!, o));
+    const teach = members.slice(0, options.learnFirst);
+    const scored = members.slice(teach.length);
+    const count = async (model?: LearnedModel) => {
+      const { outcomes } = await countBatch(
+        core,
+        scored.map((m) => m.photo),
+        {
+          dishMm: options.dishMm,
+          ...(model ? { model } : {}),
+          onPhoto: (i, n, file) => io.status?.(`[${batch} ${i}/${n}] ${basename(file)}`),
+        },
+      );
+      return outcomes.map((o, i) => plateRow(scored[i]!, o));
+    };
+    rows.push(...(await count()));
+    if (teach.length === 0) continue;
+    try {
+      const model = await learnFromPlates(
+        core,
+        teach.map(correctedFromTruth),
+        colourNames(teach),
+        options.dishMm,
+      );
+      learnedRows.push(...(await count(model)).map((r) => ({ ...r, batch: `${batch}+learned` })));
+    } catch (e) {
+      if (!(e instanceof CheckedPlateError || e instanceof core.ModelError)) throw e;
+      io.err(`rivalplate accuracy: batch ${batch}: nothing learned: ${e.message}`);
+    }
   }
   io.status?.('');
-  const summaries = batches.map((b) => ({
-    batch: b,
-    ...summarise(rows.filter((r) => r.batch === b).map((r) => r.score)),
-  }));
+  const summaries = [...batches, ...batches.map((b) => `${b}+learned`)].flatMap((b) => {
+    const own = [...rows, ...learnedRows].filter((r) => r.batch === b);
+    return own.length ? [{ batch: b, ...summarise(own.map((r) => r.score)) }] : [];
+  });
   // Over all: each batch keeps its own colour mapping (names are prefixed with the batch).
-  const all = summarise(rows.map((r) => withBatchNames(r.score, r.batch)));
+  const overAll = (list: readonly PlateRow[]) =>
+    summarise(list.map((r) => withBatchNames(r.score, r.batch)));
+  const all = overAll(rows);
+  const totals = [
+    { batch: 'all', ...all },
+    ...(learnedRows.length ? [{ batch: 'all+learned', ...overAll(learnedRows) }] : []),
+  ];
   const silent = rows.filter(
     (r) => r.score.detected === 0 && r.score.visible > 0 && r.flags.length === 0,
   );
-  if (options.plates) io.out(plateTable(rows));
-  io.out(summaryTable([...summaries, { batch: 'all', ...all }], silent.length));
+  if (options.plates) io.out(plateTable([...rows, ...learnedRows]));
+  if (options.learnFirst) {
+    io.out(
+      `The first ${options.learnFirst} photos of each batch were corrected from their labels and learned from; every figure is on the other photos.\n`,
+    );
+  }
+  io.out(summaryTable([...summaries, ...totals], silent.length));
   if (options.jsonOut) {
     await writeFile(
       options.jsonOut,
-      `${JSON.stringify({ plates: rows, batches: summaries, all, silentZeros: silent.map((s) => s.photo) }, null, 1)}\n`,
+      `${JSON.stringify({ plates: [...rows, ...learnedRows], batches: summaries, all, ...(learnedRows.length ? { allLearned: totals[1] } : {}), silentZeros: silent.map((s) => s.photo) }, null, 1)}\n`,
     );
   }
   const failed = rows.filter((r) => r.error);
@@ -125,6 +172,19 @@ function withBatchNames(s: PlateScore, batch: string): PlateScore {
     detectedByClass: named(s.detectedByClass),
     visibleByClass: named(s.visibleByClass),
   };
+}
+
+/** A labelled photo as a person would leave it after checking: its visible colonies. */
+function correctedFromTruth(l: LabelledPhoto): CheckedPlate {
+  return {
+    photo: l.photo,
+    where: l.truthFile,
+    colonies: l.colonies.filter((c) => c.visible).map(({ x, y, cls }) => ({ x, y, cls })),
+  };
+}
+
+function colourNames(labelled: readonly LabelledPhoto[]): string[] {
+  return [...new Set(labelled.flatMap((l) => l.colonies.map((c) => c.cls)))];
 }
 
 function plateRow(label: LabelledPhoto, o: Outcome): PlateRow {

@@ -1,4 +1,4 @@
-import type { Palette, PlateAnalysis } from '../cv/index.ts';
+import type { LearnedModel, Palette, PlateAnalysis } from '../cv/index.ts';
 import { decodePhoto } from './decode-image.ts';
 import type { loadCvCore } from './opencv-quiet.ts';
 
@@ -13,6 +13,8 @@ export interface BatchOptions {
   dishMm: number;
   /** Classify against this palette; without it the batch's own palette is learned. */
   palette?: Palette;
+  /** Decide colonies (and, when it holds them, colours) with this experiment's learned model. */
+  model?: LearnedModel;
   /** Called before each photo with its place in the batch (1-based). */
   onPhoto?: (index: number, total: number, file: string) => void;
 }
@@ -33,7 +35,7 @@ export async function countBatch(
     options.onPhoto?.(i + 1, files.length, file);
     outcomes.push(await countOne(core, file, options));
   }
-  let palette = options.palette;
+  let palette = options.palette ?? options.model?.palette ?? undefined;
   if (!palette) {
     const learned = core.learnPalette(
       outcomes.flatMap((o) => ('analysis' in o ? [o.analysis] : [])),
@@ -54,6 +56,7 @@ async function countOne(core: CvCore, file: string, options: BatchOptions): Prom
     const analysis = await core.analyzePlate(photo.pixels, {
       dishDiameterMm: options.dishMm,
       ...(options.palette ? { palette: options.palette } : {}),
+      ...(options.model ? { model: options.model } : {}),
     });
     const original = { width: photo.width, height: photo.height, decodedScale: photo.scale };
     return { file, analysis, original, ms: performance.now() - started };

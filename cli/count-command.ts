@@ -2,10 +2,10 @@
  * `rivalplate count [options] FILE|FOLDER...`: counts the colonies on plate photos with the same
  * analysis core the app runs in its worker.
  */
-import { readdir, stat, writeFile } from 'node:fs/promises';
+import { readdir, readFile, stat, writeFile } from 'node:fs/promises';
 import { extname, join } from 'node:path';
 import { parseArgs } from 'node:util';
-import type { Palette } from '../cv/index.ts';
+import type { LearnedModel, Palette } from '../cv/index.ts';
 import { type CountableRange, DEFAULT_COUNTABLE_RANGE } from '../fitness/countable-range.ts';
 import { countBatch } from './count-batch.ts';
 import {
@@ -37,6 +37,8 @@ Options:
                          palette's order, so the columns mean the same in every batch
   --palette FILE         classify against this palette (from --save-palette)
   --save-palette FILE    write the palette learned from this batch
+  --model FILE           decide colonies and colours with an experiment's learned model (from
+                         rivalplate learn); counts are named by its colours unless --names
   --out FILE             write the results to FILE instead of standard output
   --range NAME|MIN-MAX   countable range per plate: bam (25–250, default), sm9215 (30–300),
                          iso7218 (10–300), or MIN-MAX
@@ -51,9 +53,10 @@ const PHOTO_EXTENSIONS = new Set(['.jpg', '.jpeg', '.png', '.webp']);
 
 interface Options {
   format: 'json' | 'csv' | 'text';
-  /** Names of colour class 0 and 1. */
-  names: [string, string];
+  /** Names of colour class 0 and 1 (default: the model's colours, or colour_1, colour_2). */
+  names?: [string, string];
   palette?: string;
+  model?: string;
   savePalette?: string;
   out?: string;
   range: CountableRange;
@@ -88,9 +91,25 @@ export async function run(args: string[], io: CommandIo): Promise<number> {
     }
   }
 
+  let model: LearnedModel | undefined;
+  if (options.model) {
+    try {
+      model = core.parseModel(await readFile(options.model, 'utf8'));
+    } catch (e) {
+      io.err(`rivalplate count: ${options.model}: ${(e as Error).message}`);
+      return 2;
+    }
+  }
+  const names =
+    options.names ??
+    (model?.palette
+      ? [model.palette.colours[0].name, model.palette.colours[1].name]
+      : DEFAULT_NAMES);
+
   const batch = await countBatch(core, files, {
     dishMm: options.dishMm,
     ...(palette ? { palette } : {}),
+    ...(model ? { model } : {}),
     onPhoto: (i, n, file) => io.status?.(`[${i}/${n}] ${file}`.slice(0, 100)),
   });
   if (files.length > 0) io.status?.('');
@@ -104,7 +123,7 @@ export async function run(args: string[], io: CommandIo): Promise<number> {
   const records = outcomes.map((o) =>
     'analysis' in o ? countRecord(o.file, o.original, o.analysis, o.ms, options.range) : o,
   );
-  const text = render(records, options.format, options.names);
+  const text = render(records, options.format, names);
   if (options.out) await writeFile(options.out, text);
   else io.out(text);
   let failed = 0;
@@ -127,6 +146,7 @@ function parseOptions(args: string[]): Options {
       names: { type: 'string' },
       palette: { type: 'string' },
       'save-palette': { type: 'string' },
+      model: { type: 'string' },
       out: { type: 'string' },
       range: { type: 'string' },
       'dish-mm': { type: 'string' },
@@ -134,10 +154,12 @@ function parseOptions(args: string[]): Options {
     },
   });
   if (values.json && values.csv) throw new UsageError('choose one of --json and --csv');
+  if (values.palette && values.model) throw new UsageError('choose one of --palette and --model');
   return {
     format: values.json ? 'json' : values.csv ? 'csv' : 'text',
-    names: values.names === undefined ? DEFAULT_NAMES : parseNames(values.names),
+    ...(values.names === undefined ? {} : { names: parseNames(values.names) }),
     ...(values.palette ? { palette: values.palette } : {}),
+    ...(values.model ? { model: values.model } : {}),
     ...(values['save-palette'] ? { savePalette: values['save-palette'] } : {}),
     ...(values.out ? { out: values.out } : {}),
     range: values.range ? parseRange(values.range) : DEFAULT_COUNTABLE_RANGE,

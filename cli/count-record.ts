@@ -20,6 +20,8 @@ export interface CountRecord {
   total: number;
   countable: { status: CountableStatus; range: string };
   flags: PlateAnalysis['flags'];
+  /** The learned model that decided the plate (count --model), absent for the default rules. */
+  model?: { plates: number };
   ms: number;
 }
 
@@ -58,6 +60,7 @@ export function countRecord(
     total,
     countable: { status: countableStatus(total, range), range: range.source },
     flags: a.flags,
+    ...(a.model ? { model: a.model } : {}),
     ms: Math.round(ms),
   };
 }

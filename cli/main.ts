@@ -15,6 +15,10 @@ const COMMANDS: Record<string, Command> = {
     summary: 'count the colonies of each marker colour on plate photos',
     load: () => import('./count-command.ts'),
   },
+  learn: {
+    summary: "learn which objects are colonies, and the colours, from a lab's checked plates",
+    load: () => import('./learn-command.ts'),
+  },
   accuracy: {
     summary: 'score the counter on a folder of photos labelled by hand',
     load: () => import('./accuracy-command.ts'),

@@ -1,5 +1,6 @@
 import { modelAgar, WALL_ZONE_MM } from './agar.ts';
 import { resizeRegion } from './banded-resize.ts';
+import { candidateFeatures } from './candidate-features.ts';
 import { selectCandidates } from './candidates.ts';
 import { classify } from './classify.ts';
 import { now } from './clock.ts';
@@ -8,6 +9,8 @@ import { deltaESlope, edgeWidthMm } from './focus.ts';
 import { segmentForeground } from './foreground.ts';
 import { frameForDish, inscribedDish, toOriginal, type WorkingFrame } from './frame.ts';
 import { checkImage } from './image-input.ts';
+import { decidesColonies } from './learned-model.ts';
+import { learnedCandidates } from './learned-select.ts';
 import type { Keep } from './mat-scope.ts';
 import { withMats } from './mat-scope.ts';
 import { measureRegions } from './measure.ts';
@@ -104,7 +107,7 @@ function runPipeline(
     agar.rim,
     split.ridge,
   );
-  const { candidates, rejected } = selectCandidates(
+  const { candidates: byDefault, rejected } = selectCandidates(
     measured.regions,
     measured.components,
     split.typicalRadius,
@@ -115,13 +118,31 @@ function runPipeline(
   );
   // The person looks there: a colony under writing shares the stroke's blob and may go with it.
   if (rejected.strokes > 0) flags.push({ kind: 'ink', pieces: rejected.strokes });
+  // Learning's hook: every object considered, with its features, only when asked for.
+  const considered =
+    options.withCandidates || options.model
+      ? candidateFeatures({
+          regions: measured.regions,
+          components: measured.components,
+          verdict: new Map(byDefault.map((c) => [c.region.id, 'colony' as const])),
+          mmPerPx: frame.mmPerPx,
+          scale: frame.scale,
+          wallMm: (x, y) => (1 - ellipseRadius(dishW, x, y)) * dishW.r * frame.mmPerPx,
+          toOriginal: (x, y) => toOriginal(frame, x, y),
+        })
+      : null;
+  const learned = options.model
+    ? learnedCandidates(options.model, considered!, measured.regions, byDefault)
+    : null;
+  if (learned?.flag) flags.push(learned.flag);
+  const candidates = learned?.candidates ?? byDefault;
   stage('measure', 0.85);
 
   const samples = candidates.map((c) => ({
     lab: c.region.lab,
     deltaLab: subtract(c.region.lab, c.region.backgroundLab),
   }));
-  const classes = classify(samples, options.palette);
+  const classes = classify(samples, options.model?.palette ?? options.palette);
   const all: Colony[] = candidates.map((c, i) => {
     const [x, y] = toOriginal(frame, c.region.x, c.region.y);
     const area = c.region.area / frame.scale ** 2;
@@ -138,8 +159,12 @@ function runPipeline(
       deltaLab: roundLab(samples[i]!.deltaLab),
     };
   });
-  const colonies = all.filter((_, i) => !classes.outlier[i]);
-  const neither = all.filter((_, i) => classes.outlier[i]);
+  // A learned model that decides colonies has already judged each object one: its colour is the
+  // nearer one. A model that only sorts colours leaves the default rules' judgement as it is.
+  const judged = options.model !== undefined && decidesColonies(options.model);
+  const outlier = (i: number) => !judged && classes.outlier[i]!;
+  const colonies = all.filter((_, i) => !outlier(i));
+  const neither = all.filter((_, i) => outlier(i));
   stage('classify', 0.95);
   flags.push(
     ...plateDoubts({
@@ -174,6 +199,8 @@ function runPipeline(
     flags,
     edgeWidthMm: edge === null ? null : round(edge, 3),
     timings,
+    ...(options.withCandidates ? { candidates: considered! } : {}),
+    ...(options.model ? { model: { plates: options.model.plates } } : {}),
   };
 }
 

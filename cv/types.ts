@@ -95,7 +95,9 @@ export type QualityFlag =
   /** More colony-sized objects set aside (writing, shading, neither colour) than counted. */
   | { kind: 'many-rejected'; setAside: number; counted: number }
   /** This share of the colonies lies near the detection threshold: the count leans on it. */
-  | { kind: 'unstable-count'; share: number };
+  | { kind: 'unstable-count'; share: number }
+  /** The experiment's learned model and the default rules disagree on many objects: look. */
+  | { kind: 'learned-differs'; added: number; dropped: number };
 
 export interface PlateAnalysis {
   width: number;
@@ -120,6 +122,72 @@ export interface PlateAnalysis {
   edgeWidthMm: number | null;
   /** Milliseconds per stage. */
   timings: Record<string, number>;
+  /** Every object considered, kept or not, with its features: only with `withCandidates`. */
+  candidates?: CandidateFeatures[];
+  /** The experiment's learned model that decided this plate, or absent for the default rules. */
+  model?: { plates: number };
+}
+
+/** What the default rules made of a considered object. */
+export type CandidateVerdict = 'colony' | 'rejected';
+
+/** One considered object's features (candidate-features.ts); x, y in original pixels. */
+export interface CandidateFeatures {
+  /** The region's id within this analysis. */
+  id: number;
+  x: number;
+  y: number;
+  /** Equivalent radius in original pixels. */
+  r: number;
+  /** Mean colour minus local agar, L*a*b*, and mean ΔE*ab per pixel. */
+  dL: number;
+  da: number;
+  db: number;
+  dE: number;
+  /** Equivalent radius √(area/π) in mm. */
+  radiusMm: number;
+  /** area / (π·halfWidth²): 1 for a disc. */
+  elongation: number;
+  ridgeVariation: number;
+  /** Distance from the dish wall in mm. */
+  wallMm: number;
+  verdict: CandidateVerdict;
+  /** Objects the default rules kept on this plate: how crowded the plate is. */
+  plateColonies: number;
+}
+
+export interface FeatureRange {
+  low: number[];
+  high: number[];
+}
+
+/**
+ * A per-experiment model learned from checked plates (learned-model.ts): which objects are
+ * colonies (logistic regression over standardised features) and the two colours (a palette of
+ * the labelled colonies' mean colours, named as the lab names them).
+ */
+export interface LearnedModel {
+  format: 'rivalplate-model';
+  version: 1;
+  /** Checked plates it was learned from. */
+  plates: number;
+  /** Labelled objects: colonies and not. */
+  examples: { colonies: number; other: number };
+  features: string[];
+  mean: number[];
+  sd: number[];
+  /**
+   * Where the model may overrule the default rules: each feature's smallest and largest value
+   * among the labelled colonies (to add an object the rules rejected) and among the objects the
+   * rules kept and the person removed (to drop one they kept; null when none was removed).
+   */
+  colonyRange: FeatureRange;
+  removedRange: FeatureRange | null;
+  intercept: number;
+  weights: number[];
+  /** The L2 penalty it was fitted with. */
+  lambda: number;
+  palette: Palette | null;
 }
 
 export interface AnalyzeOptions {
@@ -129,6 +197,10 @@ export interface AnalyzeOptions {
   palette?: Palette;
   /** Dish inner diameter in mm (default 90), used to turn mm sizes into pixels. */
   dishDiameterMm?: number;
+  /** Also return every considered object with its features (`candidates`). */
+  withCandidates?: boolean;
+  /** Decide colonies and colours with this learned model instead of the default rules. */
+  model?: LearnedModel;
   /** Report progress between stages (0..1). */
   onProgress?: (stage: string, fraction: number) => void;
 }

@@ -22,6 +22,9 @@ describe('flag codes in words', () => {
     );
     expect(plateFlagSentence({ kind: 'glare', fraction: 0.124 })).toContain('12%');
     expect(plateFlagSentence({ kind: 'new-thing', count: 2 })).toBe('new thing: count 2');
+    expect(plateFlagSentence({ kind: 'learned-differs', added: 1, dropped: 7 })).toBe(
+      'What the experiment learned disagrees with the usual rules here (1 object added, 7 dropped): check the colonies.',
+    );
   });
 
   it('an assay names each remark once, however many of its plates carry it', () => {

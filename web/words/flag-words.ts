@@ -18,6 +18,7 @@ const PLATE_FLAG_LABELS: Record<string, string> = {
   'nothing-found': 'nothing counted, something there',
   'many-rejected': 'most objects set aside',
   'unstable-count': 'count leans on the threshold',
+  'learned-differs': 'learning disagrees',
 };
 
 const RESULT_FLAG_LABELS: Record<string, string> = {
@@ -102,6 +103,8 @@ export function plateFlagSentence(flag: PlateFlagCode): string {
       return `${counted(num(flag.setAside), 'object', 'objects')} set aside as writing, shading or of neither colour, more than the ${counted(num(flag.counted), 'colony', 'colonies')} counted: check what was set aside.`;
     case 'unstable-count':
       return `${Math.round(num(flag.share) * 100)}% of the colonies are barely darker or lighter than the agar: a stricter reading would drop them. Check the faint ones.`;
+    case 'learned-differs':
+      return `What the experiment learned disagrees with the usual rules here (${counted(num(flag.added), 'object', 'objects')} added, ${num(flag.dropped)} dropped): check the colonies.`;
     default: {
       // A remark added to the analysis after this list was written: shown with its numbers.
       const { kind, ...values } = flag;

@@ -1,0 +1,59 @@
+import type { CandidateLabel, LearnedModel } from '../cv/index.ts';
+import { decodePhoto } from './decode-image.ts';
+import type { loadCvCore } from './opencv-quiet.ts';
+
+type CvCore = Awaited<ReturnType<typeof loadCvCore>>;
+
+export interface CheckedPlate {
+  photo: string;
+  /** Where the plate was given, for messages (e.g. "corrected.jsonl: line 3"). */
+  where: string;
+  /** The final colonies, in the upright photo's full-resolution pixels. */
+  colonies: readonly { x: number; y: number; cls: string }[];
+}
+
+export class CheckedPlateError extends Error {
+  override name = 'CheckedPlateError';
+}
+
+/**
+ * Reads each checked plate with the default analysis, labels every object it considered from the
+ * final colonies (cv labels.ts) and learns the experiment's model from all of them. A photo that
+ * cannot be read, or a colony outside its photo, is refused with the plate's place and field.
+ */
+export async function learnFromPlates(
+  core: CvCore,
+  plates: readonly CheckedPlate[],
+  names: readonly string[],
+  dishMm: number,
+  onPlate?: (index: number, total: number, file: string) => void,
+): Promise<LearnedModel> {
+  const labels: CandidateLabel[] = [];
+  for (const [i, plate] of plates.entries()) {
+    onPlate?.(i + 1, plates.length, plate.photo);
+    let photo: Awaited<ReturnType<typeof decodePhoto>>;
+    try {
+      photo = await decodePhoto(plate.photo);
+    } catch (e) {
+      throw new CheckedPlateError(`${plate.where}: "file" ${plate.photo}: ${(e as Error).message}`);
+    }
+    plate.colonies.forEach((c, k) => {
+      if (c.x > photo.width || c.y > photo.height) {
+        throw new CheckedPlateError(
+          `${plate.where}: "colonies[${k}]" at (${c.x}, ${c.y}) lies outside the ${photo.width} × ${photo.height} photo`,
+        );
+      }
+    });
+    const analysis = await core.analyzePlate(photo.pixels, {
+      dishDiameterMm: dishMm,
+      withCandidates: true,
+    });
+    const final = plate.colonies.map((c) => ({
+      x: c.x * photo.scale,
+      y: c.y * photo.scale,
+      cls: c.cls,
+    }));
+    labels.push(...core.labelsFromCorrections(analysis.candidates ?? [], final));
+  }
+  return core.learnModel(labels, plates.length, names);
+}
