@@ -1,3 +1,4 @@
+import { nearestPairs } from '../cv/nearest-pairs.ts';
 import type { TruthColony } from './labelled-folder.ts';
 
 /**
@@ -38,25 +39,12 @@ export function scorePlate(
   truth: readonly TruthColony[],
   detections: readonly Detected[],
 ): PlateScore {
-  const candidates: { t: number; d: number; dist: number }[] = [];
-  truth.forEach((c, t) => {
-    const limit = Math.max(MATCH_MIN_PX, MATCH_REACH * c.r);
-    detections.forEach((det, d) => {
-      const dist = Math.hypot(det.x - c.x, det.y - c.y);
-      if (dist <= limit) candidates.push({ t, d, dist });
-    });
-  });
-  candidates.sort((a, b) => a.dist - b.dist || a.t - b.t || a.d - b.d);
-  const usedT = new Set<number>();
-  const usedD = new Set<number>();
+  const matched = nearestPairs(truth, detections, MATCH_REACH, MATCH_MIN_PX);
   const pairs: [string, string][] = [];
   let invisibleMatches = 0;
-  for (const p of candidates) {
-    if (usedT.has(p.t) || usedD.has(p.d)) continue;
-    usedT.add(p.t);
-    usedD.add(p.d);
-    const c = truth[p.t]!;
-    if (c.visible) pairs.push([detections[p.d]!.cls, c.cls]);
+  for (const [t, d] of matched) {
+    const c = truth[t]!;
+    if (c.visible) pairs.push([detections[d]!.cls, c.cls]);
     else invisibleMatches++;
   }
   const visible = truth.filter((c) => c.visible);

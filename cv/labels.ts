@@ -1,3 +1,4 @@
+import { nearestPairs } from './nearest-pairs.ts';
 import type { CandidateFeatures } from './types.ts';
 
 /**
@@ -47,22 +48,8 @@ export function labelsFromCorrections(
   final: readonly FinalColony[],
   analysisCls?: (id: number) => string | undefined,
 ): CandidateLabel[] {
-  const pairs: { c: number; f: number; dist: number }[] = [];
-  candidates.forEach((cand, c) => {
-    const reach = Math.max(MATCH_MIN_PX, MATCH_REACH * cand.r);
-    final.forEach((col, f) => {
-      const dist = Math.hypot(col.x - cand.x, col.y - cand.y);
-      if (dist <= reach) pairs.push({ c, f, dist });
-    });
-  });
-  pairs.sort((a, b) => a.dist - b.dist || a.c - b.c || a.f - b.f);
-  const colonyOf = new Map<number, number>();
-  const usedF = new Set<number>();
-  for (const p of pairs) {
-    if (colonyOf.has(p.c) || usedF.has(p.f)) continue;
-    colonyOf.set(p.c, p.f);
-    usedF.add(p.f);
-  }
+  const colonyOf = nearestPairs(candidates, final, MATCH_REACH, MATCH_MIN_PX);
+  const usedF = new Set(colonyOf.values());
   const labels: CandidateLabel[] = candidates.map((features, c) => {
     const f = colonyOf.get(c);
     const byDefault = features.verdict === 'colony';
