@@ -22,15 +22,17 @@ import {
  * - Slivers and satellites: thin pieces the watershed cuts off the edge of a colony in a touching
  *   group, and small blobs hugging a bigger colony (its blurred rim, cut loose by thresholding).
  * - Strokes (marker-pen writing on the lid or the base, scratches, a lamp's line reflection):
- *   blobs far longer than they are thick and of even thickness, recognised by shape alone, never
- *   by colour (pens come in every colour, and so do colonies). Even thickness is read from the
+ *   blobs far longer than they are thick and of even thickness, recognised by their shape, not
+ *   their colour (pens come in every colour, and so do colonies). Even thickness is read from the
  *   ridge of the distance map (its local maxima, the medial axis): along a band of even width the
  *   ridge holds one value, so its coefficient of variation is near 0 (corners and junctions of
  *   writing add a little); along a chain of touching discs of radius R it follows
  *   √(R² − x²), whose coefficient of variation is about 0.28, and a single disc's ridge is one
  *   point. A long blob whose ridge varies less than STROKE_RIDGE_VARIATION is a band. The
  *   pieces of the same writing that shape cannot tell are found by the pen's colour and
- *   thickness, learned from those bands (writing.ts).
+ *   thickness, learned from those bands, or as dark, colourless ink where the plate's own round
+ *   colonies are not of that colour (writing.ts). A round blob that touches nothing is never
+ *   taken for writing.
  * - Grey shades: regions darker than the agar with hardly any tint of their own against it (the
  *   soft edge of an ink stroke, the shadowed side of a droplet, shading under condensation, the
  *   dim rim round lid glare). A colony of the agar's own hue, only darker (deep red on pink

@@ -7,7 +7,8 @@ import type { Lab } from './types.ts';
  * (candidates.ts), their colour and thickness say what this plate's pen looks like, and the
  * pieces of the same writing that shape alone cannot tell (letters cut by the dish edge, strokes
  * joined to the wall's arc or to each other) are recognised by being of that colour and no
- * thicker than that pen. Nothing is assumed about the ink's colour: it is learned on each plate.
+ * thicker than that pen. The pen's colour is learned on each plate; the only prior is for the
+ * usual dark, colourless marker (isDarkInk), which the plate's own colonies can veto.
  * A colony of the pen's colour is kept when it is clearly thicker than the pen's line. When the
  * plate's round blobs (colonies beyond doubt) share the pen's colour, colour cannot tell writing
  * from colonies on this plate (or the "strokes" were chains of colonies), and no pen is learned.
