@@ -166,7 +166,9 @@ export function selectCandidates(
       rejected.shades++;
       return false;
     }
-    const colonySized = r.area >= SHADE_AREA * minArea && r.contrast >= SHADE_CONTRAST * threshold;
+    const colonySized =
+      r.area >= SHADE_AREA * minArea &&
+      (r.contrast >= SHADE_CONTRAST * threshold || (comp !== undefined && isRound(comp)));
     if (!isGreyShade(r) || (colonySized && !nearGlare(r))) return true;
     rejected.shades++;
     return false;

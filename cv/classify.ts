@@ -88,10 +88,12 @@ export function classify(samples: readonly ColourSample[], palette?: Palette): C
 
 /** Further than OUTLIER_SPREADS spreads from both palette colours: of neither marker colour. */
 function isNeither(f: Point, palette: Palette): boolean {
-  return palette.colours.every(
-    (c) =>
-      distance(f, colourFeature(c.deltaLab)) / Math.max(MIN_SPREAD, c.spread) > OUTLIER_SPREADS,
-  );
+  return palette.colours.every((c) => spreadsApart(f, c) > OUTLIER_SPREADS);
+}
+
+/** How far a colour feature lies from a palette colour, in that colour's spreads. */
+export function spreadsApart(f: Point, c: PaletteColour): number {
+  return distance(f, colourFeature(c.deltaLab)) / Math.max(MIN_SPREAD, c.spread);
 }
 
 /** This plate's own two colours, when its colonies show two (cluster.ts), else null. */

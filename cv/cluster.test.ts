@@ -22,6 +22,19 @@ describe('kmeans2 and the one-or-two-colours decision', () => {
     expect([...c.sizes].sort((a, b) => a - b)).toEqual([3, 97]);
   });
 
+  it('a stray object (one blob of ink far from both colours) does not hide a 50:50 split', () => {
+    // The farthest-point start seeds a centre on the stray; it must be set aside, not taken as
+    // the second colour of a plate whose two real colours are plain.
+    const pts: Point[] = [
+      ...cloud([-28, 27, -1], 120, 12),
+      ...cloud([6, -2, -2], 120, 3, 1),
+      [-20, 10, -60],
+    ];
+    const c = kmeans2(pts)!;
+    expect(isTwoColours(c)).toBe(true);
+    expect([...c.sizes].sort((a, b) => a - b)).toEqual([120, 121]);
+  });
+
   it('keeps one colour as one, however spread', () => {
     const c = kmeans2(cloud([2.5, 0, -2.5], 150, 4));
     expect(c === null || !isTwoColours(c)).toBe(true);

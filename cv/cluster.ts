@@ -27,7 +27,53 @@ export interface TwoClusters {
 export const MIN_SEPARATION = 7;
 const MIN_ASHMAN_D = 4;
 
+/**
+ * Below this size a cluster is a stray (a blob of ink, a tinted droplet), not a colour: the
+ * farthest-point start seeds a centre on the single most unusual object, so strays are set aside
+ * and the split is made again without them (at most MAX_STRAY_ROUNDS times). Set-aside points
+ * are then given to the nearer centre; they do not count in the spreads or in D.
+ */
+const MIN_CLUSTER = 3;
+const MAX_STRAY_ROUNDS = 4;
+
 export function kmeans2(points: readonly Point[], iterations = 25): TwoClusters | null {
+  let kept = points.map((_, i) => i);
+  for (let round = 0; round <= MAX_STRAY_ROUNDS; round++) {
+    const fit = lloyd2(
+      kept.map((i) => points[i]!),
+      iterations,
+    );
+    if (!fit) return null;
+    const strays = new Set(kept.filter((_, j) => fit.sizes[fit.assignment[j]!]! < MIN_CLUSTER));
+    if (strays.size === 0 || round === MAX_STRAY_ROUNDS || kept.length - strays.size < 2) {
+      return withAllPoints(points, kept, fit);
+    }
+    kept = kept.filter((i) => !strays.has(i));
+  }
+  return null;
+}
+
+/** The split made on `kept`, with every point of `points` assigned to its nearer centre. */
+function withAllPoints(
+  points: readonly Point[],
+  kept: readonly number[],
+  fit: TwoClusters,
+): TwoClusters {
+  if (kept.length === points.length) return fit;
+  const assignment = new Int8Array(points.length);
+  points.forEach((p, i) => {
+    assignment[i] = dist2(p, fit.centres[0]) <= dist2(p, fit.centres[1]) ? 0 : 1;
+  });
+  kept.forEach((i, j) => {
+    assignment[i] = fit.assignment[j]!;
+  });
+  const sizes: [number, number] = [0, 0];
+  for (const k of assignment) sizes[k as 0 | 1]++;
+  return { ...fit, assignment, sizes };
+}
+
+/** Lloyd's algorithm for two clusters from the farthest-point start. */
+function lloyd2(points: readonly Point[], iterations: number): TwoClusters | null {
   if (points.length < 2) return null;
   const mean = centroid(points);
   const a = farthestFrom(points, mean);

@@ -2,6 +2,44 @@ import { describe, expect, it } from 'vitest';
 import { generatePlate } from '../fixtures/plate-generator.ts';
 import { analyzePlate } from './analyze.ts';
 import { classifyWithPalette, learnPalette, paletteFromExamples } from './palette.ts';
+import type { Colony, Lab, PlateAnalysis } from './types.ts';
+
+/** A plate's analysis holding colonies of the given colours relative to the agar (ΔL*, Δa*, Δb*). */
+function plateOf(groups: { delta: Lab; n: number }[]): PlateAnalysis {
+  const agar: Lab = [55, 30, 0];
+  const colonies: Colony[] = groups.flatMap(({ delta, n }) =>
+    Array.from({ length: n }, (_, i) => {
+      const wobble = Math.sin(i * 2.4) * 1.5; // a fixed spread, the same on every run
+      const d: Lab = [delta[0] + wobble, delta[1] - wobble, delta[2] + 0.5 * wobble];
+      return {
+        x: i,
+        y: 0,
+        r: 5,
+        area: 80,
+        cls: 0 as const,
+        confidence: 1,
+        split: false,
+        count: 1,
+        lab: [agar[0] + d[0], agar[1] + d[1], agar[2] + d[2]] as Lab,
+        deltaLab: d,
+      };
+    }),
+  );
+  return {
+    width: 100,
+    height: 100,
+    scale: 1,
+    dish: null,
+    colonies,
+    neither: [],
+    counts: {},
+    classes: [],
+    agarLab: agar,
+    flags: [],
+    edgeWidthMm: null,
+    timings: {},
+  };
+}
 
 describe('palettes', () => {
   it('taught by one colony of each colour, classify a 97:3 plate right', async () => {
@@ -26,6 +64,27 @@ describe('palettes', () => {
     const oneColour = await analyzePlate(generatePlate({ seed: 65, colonies: [0, 90] }).image);
     expect(learnPalette([oneColour])).toBeNull();
   }, 60_000);
+
+  it('one plate that split glare from colonies does not drag the batch palette', () => {
+    const dark: Lab = [-25, 15, -1];
+    const pale: Lab = [6, -3, -1];
+    const glare: Lab = [30, -18, -6];
+    const good = [60, 50, 40].map((n) =>
+      plateOf([
+        { delta: dark, n },
+        { delta: pale, n },
+      ]),
+    );
+    // The largest plate of the batch, whose second "colour" is pieces of a glare arc.
+    const bad = plateOf([
+      { delta: dark, n: 270 },
+      { delta: glare, n: 70 },
+    ]);
+    const palette = learnPalette([...good, bad])!;
+    const learnedPale = palette.colours.find((c) => c.deltaLab[0] > 0)!;
+    expect(Math.abs(learnedPale.deltaLab[0] - pale[0])).toBeLessThan(2);
+    expect(Math.abs(learnedPale.deltaLab[1] - pale[1])).toBeLessThan(2);
+  });
 
   it('re-sorting keeps image flags and recounts the colony flags', async () => {
     const a = await analyzePlate(generatePlate({ seed: 66, colonies: [0, 90] }).image);

@@ -1,7 +1,14 @@
-import { classify, paletteFrom, paletteFromSamples } from './classify.ts';
+import {
+  classify,
+  colourFeature,
+  OUTLIER_SPREADS,
+  paletteFrom,
+  paletteFromSamples,
+  spreadsApart,
+} from './classify.ts';
 import { deltaE76 } from './colour.ts';
 import { colonyFlags, countsByClass, imageFlags } from './summary.ts';
-import type { Colony, Palette, PlateAnalysis } from './types.ts';
+import type { Colony, Palette, PaletteColour, PlateAnalysis } from './types.ts';
 
 /**
  * Palettes: the two marker colours of an experiment, so every plate is judged against the same
@@ -41,18 +48,17 @@ const MIN_TEACHING_SHARE = 0.1;
  * change between plates cannot blur the two colours into one): colours are paired with those of
  * the medoid plate (the one closest to all others, so one odd plate cannot lead) by the smaller
  * total distance, then averaged, weighted by colony numbers; spreads are pooled as root mean
- * squares.
+ * squares. A plate whose pair does not match the medoid's (either colour further than
+ * OUTLIER_SPREADS of the medoid colour's spreads: it split glare from colonies, or one colour by
+ * shade) is left out rather than averaged in.
  */
 function mergePalettes(parts: readonly { palette: Palette; weight: number }[]): Palette {
   const ref = medoid(parts.map((p) => p.palette));
   const sums = [0, 1].map(() => ({ w: 0, delta: [0, 0, 0], spread2: 0 }));
   for (const { palette, weight } of parts) {
     const [a, b] = palette.colours;
-    const straight =
-      deltaE76(a.deltaLab, ref.colours[0].deltaLab) + deltaE76(b.deltaLab, ref.colours[1].deltaLab);
-    const swapped =
-      deltaE76(a.deltaLab, ref.colours[1].deltaLab) + deltaE76(b.deltaLab, ref.colours[0].deltaLab);
-    const ordered = straight <= swapped ? [a, b] : [b, a];
+    const ordered = pairing(palette, ref).swapped ? [b, a] : [a, b];
+    if (ordered.some((c, k) => !isNearColour(c, ref.colours[k as 0 | 1]))) continue;
     ordered.forEach((c, k) => {
       const s = sums[k]!;
       s.w += weight;
@@ -69,6 +75,10 @@ function mergePalettes(parts: readonly { palette: Palette; weight: number }[]): 
     };
   });
   return { version: 1, colours: [colours[0]!, colours[1]!] };
+}
+
+function isNearColour(c: PaletteColour, ref: PaletteColour): boolean {
+  return spreadsApart(colourFeature(c.deltaLab), ref) <= OUTLIER_SPREADS;
 }
 
 export function paletteFromExamples(a: Colony, b: Colony, names?: [string, string]): Palette {
