@@ -119,7 +119,8 @@ export function selectCandidates(
   for (const c of components) {
     const v = componentVerdict(c, minArea, typicalRadius);
     verdict.set(c.id, v);
-    if (v !== 'keep') rejected[v]++;
+    // A blob too thin to hold a single seed region could never have been counted: no rejection.
+    if (v !== 'keep' && c.regions > 0) rejected[v]++;
   }
   const roundIds = new Set(components.filter(isRound).map((c) => c.id));
   const roundBlobs = regions.filter((r) => roundIds.has(r.component));

@@ -45,6 +45,7 @@ export function segmentForeground(
     const disc = k(cv.getStructuringElement(cv.MORPH_ELLIPSE, new cv.Size(size, size)));
     cv.morphologyEx(mask, mask, cv.MORPH_OPEN, disc);
     clearThinAlongWall(cv, k, mask, agar.wallBand, frame);
+    cutFromWall(cv, k, mask, agar, frame);
   });
   withMats((k) => {
     const lighter = k(lighterThanAgar(cv, k, agar));
@@ -73,6 +74,41 @@ function clearThinAlongWall(
   const opened = k(new cv.Mat());
   cv.morphologyEx(mask, opened, cv.MORPH_OPEN, disc);
   opened.copyTo(mask, wallBand);
+}
+
+/**
+ * A blob that runs along the wall for more than WALL_RUN_MM is the wall's own ring (a meniscus or
+ * reflection too thick for the opening above) with whatever touches it: writing near the rim,
+ * colonies at the wall. Judged as one blob, nothing in it would look like a stroke or a colony,
+ * so its part inside the wall band is cut away and what touched it is judged on its own. The run
+ * is measured as the blob's pixels on the counting area's outermost ring (`rim`), one pixel per
+ * pixel of wall length; a colony at the wall touches it over at most its own diameter.
+ */
+const WALL_RUN_MM = 6;
+function cutFromWall(cv: OpenCv, k: Keep, mask: Mat, agar: AgarModel, frame: WorkingFrame): void {
+  const labels = k(new cv.Mat());
+  const n = cv.connectedComponents(mask, labels, 8, cv.CV_32S);
+  const onRim = k(new cv.Mat());
+  cv.bitwise_and(mask, agar.rim, onRim);
+  const run = new Int32Array(n);
+  const rim = onRim.data;
+  const l = labels.data32S;
+  for (let i = 0; i < rim.length; i++) if (rim[i]) run[l[i]!]!++;
+  const limit = WALL_RUN_MM / frame.mmPerPx;
+  const long = [...run.keys()].filter((id) => id > 0 && run[id]! > limit);
+  if (long.length === 0) return;
+  const along = k(cv.Mat.zeros(labels.rows, labels.cols, cv.CV_8UC1));
+  const one = k(new cv.Mat());
+  const lo = k(new cv.Mat(labels.rows, labels.cols, cv.CV_32S, [0, 0, 0, 0]));
+  const hi = k(new cv.Mat(labels.rows, labels.cols, cv.CV_32S, [0, 0, 0, 0]));
+  for (const id of long) {
+    lo.setTo([id, 0, 0, 0]);
+    hi.setTo([id, 0, 0, 0]);
+    cv.inRange(labels, lo, hi, one);
+    cv.bitwise_or(along, one, along);
+  }
+  cv.bitwise_and(along, agar.wallBand, along);
+  cv.subtract(mask, along, mask);
 }
 
 /**
