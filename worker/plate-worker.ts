@@ -11,8 +11,15 @@ import {
   paletteFromExamples,
 } from '../cv/index.ts';
 import { loadOpenCv } from '../cv/opencv.ts';
-import type { AnalyzeOptions, Colony, Palette, PlateAnalysis } from '../cv/types.ts';
+import type {
+  AnalyzeOptions,
+  Colony,
+  LearnedModel,
+  Palette,
+  PlateAnalysis,
+} from '../cv/types.ts';
 import { decodePhoto } from './decode.ts';
+import { type FitResult, fitExperimentModel, type TeachingPlate } from './learning.ts';
 import { analysisToOriginal, dishToDecoded } from './rescale.ts';
 
 export interface AnalyseRequest {
@@ -22,6 +29,8 @@ export interface AnalyseRequest {
   palette?: Palette;
   /** A dish placed by the person, in original photo pixels. */
   dish?: AnalyzeOptions['dish'];
+  /** The experiment's learned model (read with learning.ts's readModelText); absent: the defaults. */
+  model?: LearnedModel;
 }
 
 export interface AnalyseResult {
@@ -52,9 +61,13 @@ const api = {
     onProgress?.('opencv', 0.1);
     await loadOpenCv();
     const options: AnalyzeOptions = {
+      // Every object considered comes back with its features: once the plate is checked they
+      // teach the experiment's model without the photo.
+      withCandidates: true,
       onProgress: (stage, fraction) => onProgress?.(stage, 0.15 + 0.85 * fraction),
     };
     if (request.palette) options.palette = request.palette;
+    if (request.model) options.model = request.model;
     if (request.dish) options.dish = dishToDecoded(request.dish, decoded.k);
     const analysis = await analyzePlate(decoded.image, options);
     return {
@@ -99,6 +112,11 @@ const api = {
   async learnPalette(analyses: PlateAnalysis[]): Promise<Palette | null> {
     await loadOpenCv();
     return learnPalette(analyses);
+  },
+
+  /** The experiment's model refitted from all its checked plates (no opencv needed). */
+  async fitModel(plates: TeachingPlate[], names: [string, string]): Promise<FitResult> {
+    return fitExperimentModel(plates, names);
   },
 };
 
