@@ -115,7 +115,7 @@ const experiment = object<Experiment>({
     }),
   ),
   // The model's text is bounded here; what it says is checked where it is used (records.ts).
-  learning: object({ enabled: bool, model: nullable(str) }),
+  learning: object({ enabled: bool, model: nullable(str), since: nullable(isoTime) }),
 });
 
 const candidate = object<CandidateRecord>({

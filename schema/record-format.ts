@@ -29,7 +29,8 @@ const STEPS: ((kind: RecordKind, record: Raw) => Raw)[] = [
   // 2 → 3: experiments learn from their checked plates (on, nothing learned yet); readings from
   // before were made by the default analysis and kept no candidates to learn from.
   (kind, record) => {
-    if (kind === 'experiments') return { ...record, learning: { enabled: true, model: null } };
+    if (kind === 'experiments')
+      return { ...record, learning: { enabled: true, model: null, since: null } };
     if (kind === 'analyses') return { ...record, learnedFrom: null, candidates: null };
     return record;
   },

@@ -79,10 +79,12 @@ export interface LearningRecord {
   enabled: boolean;
   /** The model file's text; null before a checked plate taught one, or after a reset. */
   model: string | null;
+  /** The last reset (ISO 8601): readings from before it no longer teach. Null: never reset. */
+  since: string | null;
 }
 
 /** Learning as an experiment from before learning starts: on, nothing learned yet. */
-export const LEARNING_UNSET: LearningRecord = { enabled: true, model: null };
+export const LEARNING_UNSET: LearningRecord = { enabled: true, model: null, since: null };
 
 /** One competition culture: a test line against the marked reference. */
 export interface Assay extends Stamp {

@@ -6,7 +6,7 @@
  */
 // The modules themselves, not the core's index: the app's thread must not pull in opencv.js.
 import { type FinalColony, labelsFromCorrections } from '../cv/labels.ts';
-import { learnModel, ModelError } from '../cv/learned-model.ts';
+import { coloniesNeeded, decidesColonies, learnModel, ModelError } from '../cv/learned-model.ts';
 import { modelToJson, parseModel } from '../cv/model-file.ts';
 import type { CandidateFeatures, LearnedModel } from '../cv/types.ts';
 
@@ -47,12 +47,27 @@ export function fitExperimentModel(
   }
 }
 
-export type ReadModel = { ok: true; model: LearnedModel } | { ok: false; error: string };
+export type ReadModel =
+  | {
+      ok: true;
+      model: LearnedModel;
+      /** It decides which objects are colonies; until then it only names and sorts the colours. */
+      decides: boolean;
+      /** Labelled colonies it needs to decide which objects are colonies. */
+      coloniesNeeded: number;
+    }
+  | { ok: false; error: string };
 
 /** A stored model file, checked by the core's reader; a damaged or newer one says why. */
 export function readModelText(text: string): ReadModel {
   try {
-    return { ok: true, model: parseModel(text) };
+    const model = parseModel(text);
+    return {
+      ok: true,
+      model,
+      decides: decidesColonies(model),
+      coloniesNeeded: coloniesNeeded(model),
+    };
   } catch (e) {
     if (e instanceof ModelError) return { ok: false, error: e.message };
     throw e;

@@ -53,7 +53,7 @@ describe('analysisToOriginal', () => {
     expect(out.counts).toEqual(decoded.counts);
   });
 
-  it('scales the considered objects\' positions and radii, and leaves their sizes in mm', () => {
+  it("scales the considered objects' positions and radii, and leaves their sizes in mm", () => {
     const candidate = {
       id: 7,
       x: 120,

@@ -39,7 +39,7 @@ export function experiment(id = 'mf-exp'): Experiment {
       { name: 'white', hex: '#efe6cf' },
     ],
     palette: null,
-    learning: { enabled: true, model: null },
+    learning: { enabled: true, model: null, since: null },
   };
 }
 

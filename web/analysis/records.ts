@@ -6,12 +6,7 @@ import type {
   PaletteRecord,
   Stamp,
 } from '../../schema/records.ts';
-import type {
-  CandidateFeatures,
-  Colony,
-  Palette,
-  PlateAnalysis,
-} from '../../worker/types.ts';
+import type { CandidateFeatures, Colony, Palette, PlateAnalysis } from '../../worker/types.ts';
 import { NEUTRAL_LOOKS } from '../bench/colours.ts';
 
 /** The stored record of one analysis (original photo pixels), colonies numbered in found order. */

@@ -43,7 +43,9 @@ describe('record formats', () => {
     const [listed] = await store.unreadable();
     expect(listed).toMatchObject({ kind: 'assays', id: 'mf-L1-r2', raw: newer });
     expect(listed!.reason).toMatch(
-      new RegExp(`format: written by a newer version of the app \\(record format ${RECORD_FORMAT + 1}`),
+      new RegExp(
+        `format: written by a newer version of the app \\(record format ${RECORD_FORMAT + 1}`,
+      ),
     );
   });
 
@@ -93,7 +95,7 @@ describe('record formats', () => {
     expect(await store.get('experiments', 'kx-exp')).toEqual({
       ...experiment,
       format: RECORD_FORMAT,
-      learning: { enabled: true, model: null },
+      learning: { enabled: true, model: null, since: null },
     });
     expect(await store.get('analyses', 'kx-a1')).toEqual({
       ...analysis,
