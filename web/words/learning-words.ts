@@ -1,5 +1,5 @@
 import type { LearningRecord } from '../../schema/records.ts';
-import type { ReadModel } from '../../worker/learning.ts';
+import type { FitResult, ReadModel } from '../../worker/learning.ts';
 import { counted } from './counted.ts';
 
 /**
@@ -32,4 +32,11 @@ export function learningSentence(learning: LearningRecord, read: ReadModel | nul
 /** Why a refit left the experiment with nothing learned. */
 export function notLearnedSentence(reason: string): string {
   return `Nothing learned from the checked plates yet: ${reason}.`;
+}
+
+/** What a refit after a checked plate gave. */
+export function refitSentence(fit: FitResult): string {
+  return fit.ok
+    ? `Checked. The experiment has now ${readByWords(fit.plates)}; the next plates are read with it.`
+    : notLearnedSentence(fit.reason);
 }
