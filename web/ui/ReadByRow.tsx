@@ -26,7 +26,7 @@ export function ReadByRow({
   return (
     <section className="card stack" aria-label="What read this plate">
       <p style={{ margin: 0 }} data-testid="read-by">
-        Read by {readByWords(analysis.learnedFrom)}.
+        Read by: {readByWords(analysis.learnedFrom)}.
       </p>
       {now.error && (
         <p className="banner alarm">
