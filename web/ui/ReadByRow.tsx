@@ -1,6 +1,6 @@
 import type { Analysis, Experiment } from '../../schema/records.ts';
 import { modelForReading } from '../analysis/learning.ts';
-import { readByWords } from '../words/learning-words.ts';
+import { readByWords, rereadLabel } from '../words/learning-words.ts';
 import { ConfirmButton } from './ConfirmButton.tsx';
 
 /**
@@ -22,7 +22,7 @@ export function ReadByRow({
   onReread: () => void;
 }) {
   const now = modelForReading(experiment);
-  const label = `Re-read with ${readByWords(now.model?.plates ?? null)}`;
+  const label = rereadLabel(now.model?.plates ?? null);
   return (
     <section className="card stack" aria-label="What read this plate">
       <p style={{ margin: 0 }} data-testid="read-by">

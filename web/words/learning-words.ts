@@ -14,6 +14,13 @@ export function readByWords(learnedFrom: number | null): string {
     : `learned from ${counted(learnedFrom, 'checked plate', 'checked plates')}`;
 }
 
+/** The button that reads a plate again with what the experiment has learned now. */
+export function rereadLabel(learnedFrom: number | null): string {
+  return learnedFrom === null
+    ? 'Re-read with the default analysis'
+    : `Re-read with what ${counted(learnedFrom, 'checked plate', 'checked plates')} taught`;
+}
+
 /** The experiment's learning, in a sentence or two. */
 export function learningSentence(learning: LearningRecord, read: ReadModel | null): string {
   if (!learning.enabled)
