@@ -14,6 +14,7 @@ import { generatePlate } from '../fixtures/plate-generator.ts';
 import type { GeneratedImage, PlateTruth } from '../fixtures/plate-types.ts';
 import { varietyScene } from '../fixtures/scene-variety.ts';
 import type { Analysis, Experiment, Plate } from '../schema/records.ts';
+import { restoreRecord } from '../schema/restore.ts';
 import {
   modelForReading,
   refitModel,
@@ -25,6 +26,7 @@ import type { PlateWorker } from '../web/analysis/plate-reading.ts';
 import { analysisRecord } from '../web/analysis/records.ts';
 import { WorkerBridge } from '../web/analysis/worker-bridge.ts';
 import { newExperiment } from '../web/bench/experiments.ts';
+import { backupJson, readBackup } from '../web/exchange/backup.ts';
 import { labAccuracy } from '../web/review/lab-accuracy.ts';
 import { markChecked } from '../web/review/mark-checked.ts';
 import { openIdbStore } from '../web/storage/idb-store.ts';
@@ -173,6 +175,14 @@ describe('learning in the app', () => {
     const read = readModelText(learned.learning.model!);
     expect(read.ok && read.model.plates).toBe(1);
     expect(read.ok && read.decides).toBe(true);
+    // The model is part of the experiment: it goes into a backup, and a phone that pulls the
+    // experiment from the lab server (JSON through the one restore gate) reads with it too.
+    expect(learned.learning.model!.length).toBeLessThan(4096);
+    const { batch } = readBackup(await backupJson(store), 'backup.json');
+    const restored = batch.experiments!.find((e) => e.id === experiment.id)!;
+    expect(restored.learning).toEqual(learned.learning);
+    const pulled = restoreRecord('experiments', JSON.parse(JSON.stringify(learned)), 'the server');
+    expect(pulled.ok && modelForReading(pulled.record).model?.plates).toBe(1);
 
     const second = generated(702, 120);
     const b = await readNewPlate(store, experiment.id, second.image);
