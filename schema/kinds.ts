@@ -30,6 +30,7 @@ import type {
   Analysis,
   Assay,
   BinaryData,
+  CandidateRecord,
   ColonyRecord,
   Corrections,
   Edit,
@@ -113,6 +114,24 @@ const experiment = object<Experiment>({
       source: oneOf('taught', 'learned'),
     }),
   ),
+  // The model's text is bounded here; what it says is checked where it is used (records.ts).
+  learning: object({ enabled: bool, model: nullable(str), since: nullable(isoTime) }),
+});
+
+const candidate = object<CandidateRecord>({
+  x: num,
+  y: num,
+  r: num,
+  dL: num,
+  da: num,
+  db: num,
+  dE: num,
+  radiusMm: num,
+  elongation: num,
+  ridgeVariation: num,
+  wallMm: num,
+  colony: bool,
+  plateColonies: count,
 });
 
 const assay = object<Assay>({
@@ -169,6 +188,8 @@ const analysis = object<Analysis>({
   flags: list(object({ kind: nameText, values: codeValues, detail: nullable(str) })),
   paletteUsed: bool,
   ms: num,
+  learnedFrom: nullable(count),
+  candidates: nullable(list(candidate)),
 });
 
 const corrections = object<Corrections>({

@@ -8,7 +8,7 @@
 import { SchemaError } from './check.ts';
 import type { RecordKind } from './records.ts';
 
-export const RECORD_FORMAT = 2;
+export const RECORD_FORMAT = 3;
 
 type Raw = Record<string, unknown>;
 
@@ -26,6 +26,14 @@ function canonicalTime(value: unknown): unknown {
 const STEPS: ((kind: RecordKind, record: Raw) => Raw)[] = [
   // 1 → 2: times are compared as text to find the latest edit, so all take one form.
   (_kind, record) => ({ ...record, updatedAt: canonicalTime(record.updatedAt) }),
+  // 2 → 3: experiments learn from their checked plates (on, nothing learned yet); readings from
+  // before were made by the default analysis and kept no candidates to learn from.
+  (kind, record) => {
+    if (kind === 'experiments')
+      return { ...record, learning: { enabled: true, model: null, since: null } };
+    if (kind === 'analyses') return { ...record, learnedFrom: null, candidates: null };
+    return record;
+  },
 ];
 
 /** The record at the current format; throws a SchemaError for one from a newer app. */

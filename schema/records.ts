@@ -64,7 +64,27 @@ export interface Experiment extends Stamp {
    */
   markerColours: [MarkerColour, MarkerColour];
   palette: PaletteRecord | null;
+  learning: LearningRecord;
 }
+
+/**
+ * What the experiment learned from its checked plates. The model is kept as the text of a model
+ * file, byte for byte what `rivalplate learn` writes (a couple of kilobytes), so it travels in the
+ * backup and with sync as it is, and the same file can be used with `rivalplate count --model`.
+ * Its contents are checked where it is used (the analysis core's model-file reader), so a
+ * damaged one is reported and the plate read with the default analysis.
+ */
+export interface LearningRecord {
+  /** Each checked plate refits the model, and later plates are read with it. */
+  enabled: boolean;
+  /** The model file's text; null before a checked plate taught one, or after a reset. */
+  model: string | null;
+  /** The last reset (ISO 8601): readings from before it no longer teach. Null: never reset. */
+  since: string | null;
+}
+
+/** Learning as an experiment from before learning starts: on, nothing learned yet. */
+export const LEARNING_UNSET: LearningRecord = { enabled: true, model: null, since: null };
 
 /** One competition culture: a test line against the marked reference. */
 export interface Assay extends Stamp {
@@ -188,6 +208,36 @@ export interface Analysis extends Stamp {
   /** Classified against the experiment's palette rather than this plate alone. */
   paletteUsed: boolean;
   ms: number;
+  /** Checked plates the experiment's model had learned from when it read this plate; null: the default analysis. */
+  learnedFrom: number | null;
+  /**
+   * Every object the analysis considered, kept or not, with what it measured: a checked plate
+   * teaches the model from these and its final colonies, without the photo. Null on readings
+   * from before learning.
+   */
+  candidates: CandidateRecord[] | null;
+}
+
+/**
+ * One object the analysis considered (the analysis core's candidate features), in original photo
+ * pixels; colour relative to the local agar in CIE L*a*b*, sizes in mm.
+ */
+export interface CandidateRecord {
+  x: number;
+  y: number;
+  r: number;
+  dL: number;
+  da: number;
+  db: number;
+  dE: number;
+  radiusMm: number;
+  elongation: number;
+  ridgeVariation: number;
+  wallMm: number;
+  /** The default rules kept it as a colony. */
+  colony: boolean;
+  /** Objects the default rules kept on the plate. */
+  plateColonies: number;
 }
 
 export type Edit =

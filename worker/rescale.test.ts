@@ -53,6 +53,28 @@ describe('analysisToOriginal', () => {
     expect(out.counts).toEqual(decoded.counts);
   });
 
+  it("scales the considered objects' positions and radii, and leaves their sizes in mm", () => {
+    const candidate = {
+      id: 7,
+      x: 120,
+      y: 60,
+      r: 5,
+      dL: -12,
+      da: 3,
+      db: -18,
+      dE: 21,
+      radiusMm: 0.6,
+      elongation: 1.1,
+      ridgeVariation: 0.2,
+      wallMm: 9,
+      verdict: 'rejected' as const,
+      plateColonies: 40,
+    };
+    const out = analysisToOriginal({ ...decoded, candidates: [candidate] }, 2, 4800, 3600);
+    expect(out.candidates).toEqual([{ ...candidate, x: 240, y: 120, r: 10 }]);
+    expect(analysisToOriginal(decoded, 2, 4800, 3600).candidates).toBeUndefined();
+  });
+
   it('a dish placed in original pixels round-trips through the decoded copy', () => {
     const d = { cx: 2000, cy: 1500, rx: 1300, ry: 1290, angleDeg: 0 };
     const back = dishToDecoded(d, 2);

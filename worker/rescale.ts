@@ -31,6 +31,10 @@ export function analysisToOriginal(
       r: c.r * k,
       area: c.area * k * k,
     })),
+    // Sizes in mm stay as they are: only pixel positions and radii scale.
+    ...(a.candidates && {
+      candidates: a.candidates.map((f) => ({ ...f, x: f.x * k, y: f.y * k, r: f.r * k })),
+    }),
   };
 }
 

@@ -3,11 +3,13 @@
  * directly; it takes these types from here, so there is still only one definition of each.
  */
 export type {
+  CandidateFeatures,
   Colony,
   ColonyClass,
   ColourClass,
   Dish,
   Lab,
+  LearnedModel,
   Palette,
   PlateAnalysis,
   QualityFlag,

@@ -39,6 +39,7 @@ export function experiment(id = 'mf-exp'): Experiment {
       { name: 'white', hex: '#efe6cf' },
     ],
     palette: null,
+    learning: { enabled: true, model: null, since: null },
   };
 }
 
@@ -140,6 +141,8 @@ export function analysis(id: string, plateId: string, colonies: number): Analysi
     flags: [],
     paletteUsed: false,
     ms: 1800,
+    learnedFrom: null,
+    candidates: null,
   };
 }
 

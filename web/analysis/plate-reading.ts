@@ -5,6 +5,7 @@ import type { Palette } from '../../worker/types.ts';
 import type { RecordStore } from '../storage/record-store.ts';
 import { newStamp, revised } from '../storage/stamp.ts';
 import { inNamedOrder } from './class-order.ts';
+import { modelForReading } from './learning.ts';
 import { analysisRecord, paletteOf, plateAnalysisOf } from './records.ts';
 import type { WorkerBridge } from './worker-bridge.ts';
 
@@ -22,7 +23,8 @@ export interface ReadOptions {
  * analysis replacing the plate's earlier ones, and no corrections (they belonged to the old
  * colonies). Without a palette, the reading's two colours are put in the order of the
  * experiment's names. The palette itself is learned from checked plates only (teach.ts), never
- * from a reading nobody has looked at.
+ * from a reading nobody has looked at. While the experiment learns, the plate is read with its
+ * model (learning.ts); a model that cannot be read leaves the default analysis to read it.
  */
 export async function readPlate(
   store: RecordStore,
@@ -33,6 +35,7 @@ export async function readPlate(
   options: ReadOptions = {},
 ): Promise<Analysis> {
   const palette = experiment.palette ? paletteOf(experiment.palette) : undefined;
+  const { model } = modelForReading(experiment);
   const onProgress = options.onProgress && proxy(options.onProgress);
   const result = await worker.call(
     (api) =>
@@ -42,13 +45,16 @@ export async function readPlate(
           name: photo.name,
           ...(palette && { palette }),
           ...(options.dish && { dish: options.dish }),
+          ...(model && { model }),
         },
         onProgress,
       ),
     options.signal,
   );
-  const read = analysisRecord(result.analysis, newStamp(), plate.id, photo.id, Boolean(palette));
-  const analysis = palette ? read : inNamedOrder(read, experiment.markerColours);
+  // A model's own colours are named as the experiment names them, in that order.
+  const sorted = Boolean(palette ?? model?.palette);
+  const read = analysisRecord(result.analysis, newStamp(), plate.id, photo.id, sorted);
+  const analysis = sorted ? read : inNamedOrder(read, experiment.markerColours);
   const [old, oldCorrections] = await Promise.all([
     store.children('analyses', plate.id),
     store.children('corrections', plate.id),

@@ -1,11 +1,12 @@
 import type {
   Analysis,
+  CandidateRecord,
   ClassRecord,
   ColonyRecord,
   PaletteRecord,
   Stamp,
 } from '../../schema/records.ts';
-import type { Colony, Palette, PlateAnalysis } from '../../worker/types.ts';
+import type { CandidateFeatures, Colony, Palette, PlateAnalysis } from '../../worker/types.ts';
 import { NEUTRAL_LOOKS } from '../bench/colours.ts';
 
 /** The stored record of one analysis (original photo pixels), colonies numbered in found order. */
@@ -54,7 +55,37 @@ export function analysisRecord(
     flags: a.flags.map(({ kind, ...values }) => ({ kind, values, detail: null })),
     paletteUsed,
     ms: Object.values(a.timings).reduce((s, t) => s + t, 0),
+    learnedFrom: a.model?.plates ?? null,
+    candidates: a.candidates?.map(candidateRecord) ?? null,
   };
+}
+
+function candidateRecord(f: CandidateFeatures): CandidateRecord {
+  const { x, y, r, dL, da, db, dE, radiusMm, elongation, ridgeVariation, wallMm } = f;
+  return {
+    x,
+    y,
+    r,
+    dL,
+    da,
+    db,
+    dE,
+    radiusMm,
+    elongation,
+    ridgeVariation,
+    wallMm,
+    colony: f.verdict === 'colony',
+    plateColonies: f.plateColonies,
+  };
+}
+
+/** The analysis core's view of stored candidates; ids number them in stored order. */
+export function candidateFeaturesOf(records: readonly CandidateRecord[]): CandidateFeatures[] {
+  return records.map(({ colony, ...f }, id) => ({
+    ...f,
+    id,
+    verdict: colony ? 'colony' : 'rejected',
+  }));
 }
 
 /** The analysis core's view of a stored colony; null for one added by hand (no measured colour). */

@@ -47,6 +47,8 @@ async function twoExperiments() {
       flags: [],
       paletteUsed: false,
       ms: 1,
+      learnedFrom: null,
+      candidates: null,
     };
     const corrections: Corrections = {
       ...newStamp(),

@@ -1,4 +1,9 @@
-import { type Experiment, type MarkerColour, UNNAMED_MARKERS } from '../../schema/records.ts';
+import {
+  type Experiment,
+  LEARNING_UNSET,
+  type MarkerColour,
+  UNNAMED_MARKERS,
+} from '../../schema/records.ts';
 import { newStamp } from '../storage/stamp.ts';
 
 export type ExperimentDraft = Pick<
@@ -31,6 +36,7 @@ export function newExperiment(
     ...draft,
     demo,
     palette: null,
+    learning: { ...LEARNING_UNSET },
   };
 }
 

@@ -22,4 +22,9 @@ describe('a plate with a warning is not checked with one tap', () => {
       plateWarnings([{ kind: 'glare', values: { fraction: 0.12 }, detail: null }], 80),
     ).toEqual(['lid glare']);
   });
+
+  it('learning that disagrees with the default rules is a whole-plate warning, named in words', () => {
+    const flag = { kind: 'learned-differs', values: { added: 9, dropped: 4 }, detail: null };
+    expect(plateWarnings([flag], 80)).toEqual(['learning disagrees']);
+  });
 });

@@ -1,8 +1,9 @@
 /**
- * A zip archive of text files, stored without compression (method 0), per the ZIP file format
+ * A zip archive of files, stored without compression (method 0), per the ZIP file format
  * specification (PKWARE APPNOTE.TXT, §4.3–4.4): a local header and the bytes of each file, then the
  * central directory and its end record. Names are UTF-8 (general purpose flag bit 11). Enough for
- * a handful of small tables; every unzip tool and spreadsheet reads it.
+ * a handful of tables, or photos (already compressed: storing them loses nothing); every unzip tool
+ * and spreadsheet reads it. No ZIP64: the whole archive stays under 4 GiB.
  */
 const CRC_TABLE = (() => {
   const table = new Uint32Array(256);
@@ -21,16 +22,17 @@ export function crc32(bytes: Uint8Array): number {
   return (c ^ 0xffffffff) >>> 0;
 }
 
-export function zipStore(
-  files: readonly { name: string; text: string }[],
-): Uint8Array<ArrayBuffer> {
+/** A file to zip: text (written as UTF-8) or bytes as they are. */
+export type ZipFile = { name: string; text: string } | { name: string; bytes: Uint8Array };
+
+export function zipStore(files: readonly ZipFile[]): Uint8Array<ArrayBuffer> {
   const encoder = new TextEncoder();
   const parts: Uint8Array[] = [];
   const central: Uint8Array[] = [];
   let offset = 0;
   for (const file of files) {
     const name = encoder.encode(file.name);
-    const data = encoder.encode(file.text);
+    const data = 'bytes' in file ? file.bytes : encoder.encode(file.text);
     const crc = crc32(data);
     const local = new DataView(new ArrayBuffer(30));
     local.setUint32(0, 0x04034b50, true);

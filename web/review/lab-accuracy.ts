@@ -1,28 +1,33 @@
 import type { RecordStore } from '../storage/record-store.ts';
 import { type CountAccuracy, countAccuracy, type ReviewedPlate } from './accuracy.ts';
-import { correctedColonies } from './edits.ts';
+import { checkedReading } from './checked-reading.ts';
 
 /**
  * How far the automatic counts were from the corrected ones, over every plate the person has
- * marked as checked (demo plates excluded: they would flatter or spoil the lab's own figure).
+ * marked as checked (demo plates excluded: they would flatter or spoil the lab's own figure):
+ * over all of them, and apart for the plates the default analysis read and those read with what
+ * their experiment had learned, so the lab sees whether learning helps.
  */
-export async function labAccuracy(store: RecordStore): Promise<CountAccuracy | null> {
+export interface LabAccuracy {
+  all: CountAccuracy;
+  /** Read by the default analysis (before anything was learned, or with learning off). */
+  byDefault: CountAccuracy | null;
+  /** Read with a model learned from the experiment's checked plates. */
+  learned: CountAccuracy | null;
+}
+
+export async function labAccuracy(store: RecordStore): Promise<LabAccuracy | null> {
   const [experiments, plates] = await Promise.all([store.all('experiments'), store.all('plates')]);
   const demo = new Set(experiments.filter((e) => e.demo).map((e) => e.id));
-  const reviewed: ReviewedPlate[] = [];
+  const byDefault: ReviewedPlate[] = [];
+  const learned: ReviewedPlate[] = [];
   for (const plate of plates) {
-    if (!plate.reviewed || !plate.photoId || demo.has(plate.experimentId)) continue;
-    const analysis = (await store.children('analyses', plate.id))
-      .sort((a, b) => a.updatedAt.localeCompare(b.updatedAt))
-      .at(-1);
-    if (!analysis) continue;
-    const corrections = (await store.children('corrections', plate.id)).find(
-      (c) => c.analysisId === analysis.id,
-    );
-    reviewed.push({
-      found: analysis.colonies,
-      corrected: correctedColonies(analysis.colonies, corrections?.edits ?? []),
-    });
+    if (demo.has(plate.experimentId)) continue;
+    const reading = await checkedReading(store, plate);
+    if (!reading) continue;
+    const reviewed = { found: reading.analysis.colonies, corrected: reading.corrected };
+    (reading.analysis.learnedFrom === null ? byDefault : learned).push(reviewed);
   }
-  return countAccuracy(reviewed);
+  const all = countAccuracy([...byDefault, ...learned]);
+  return all && { all, byDefault: countAccuracy(byDefault), learned: countAccuracy(learned) };
 }

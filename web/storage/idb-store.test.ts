@@ -19,6 +19,7 @@ function experiment(): Experiment {
       { name: 'white', hex: '#efe3d3' },
     ],
     palette: null,
+    learning: { enabled: true, model: null, since: null },
   };
 }
 

@@ -8,7 +8,8 @@ import { readFileSync } from 'node:fs';
 import { resolve } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { RECORD_FORMAT } from '../../schema/record-format.ts';
-import type { Assay } from '../../schema/records.ts';
+import type { Analysis, Assay, Experiment } from '../../schema/records.ts';
+import { restoreRecord } from '../../schema/restore.ts';
 import { readBackup } from '../exchange/backup.ts';
 import { openIdbStore } from './idb-store.ts';
 
@@ -42,7 +43,77 @@ describe('record formats', () => {
     const [listed] = await store.unreadable();
     expect(listed).toMatchObject({ kind: 'assays', id: 'mf-L1-r2', raw: newer });
     expect(listed!.reason).toMatch(
-      /format: written by a newer version of the app \(record format 3/,
+      new RegExp(
+        `format: written by a newer version of the app \\(record format ${RECORD_FORMAT + 1}`,
+      ),
     );
+  });
+
+  it('reads an experiment and a reading of format 2 (before learning) with learning on and nothing learned', async () => {
+    const store = await openIdbStore(`format-${++stores}`);
+    // As the app of format 2 wrote them: no learning, no candidates, no note of what read the plate.
+    const experiment = {
+      id: 'kx-exp',
+      revision: 3,
+      updatedAt: '2026-05-11T08:30:00.000Z',
+      format: 2,
+      name: 'Kestrel brook isolates',
+      demo: false,
+      lines: ['K1', 'K2'],
+      referenceName: 'KB-anc',
+      transferDilution: 100,
+      defaultDilutionFold: 1e5,
+      defaultVolumeUl: 100,
+      markerColours: [
+        { name: 'pink', hex: '#d0607a' },
+        { name: 'cream', hex: '#efe3d3' },
+      ],
+      palette: null,
+    };
+    const analysis = {
+      id: 'kx-a1',
+      revision: 1,
+      updatedAt: '2026-05-11T08:40:00.000Z',
+      format: 2,
+      plateId: 'kx-p1',
+      photoId: 'kx-ph1',
+      width: 4000,
+      height: 3000,
+      agarLab: [80, 1, 12],
+      dish: null,
+      colonies: [],
+      classes: [
+        { cls: 0, name: 'pink', hex: '#d0607a', deltaLab: [-10, 20, 2] },
+        { cls: 1, name: 'cream', hex: '#efe3d3', deltaLab: [2, 0, 5] },
+      ],
+      flags: [],
+      paletteUsed: false,
+      ms: 900,
+    };
+    await store.put('experiments', experiment as unknown as Experiment);
+    await store.put('analyses', analysis as unknown as Analysis);
+    expect(await store.get('experiments', 'kx-exp')).toEqual({
+      ...experiment,
+      format: RECORD_FORMAT,
+      learning: { enabled: true, model: null, since: null },
+    });
+    expect(await store.get('analyses', 'kx-a1')).toEqual({
+      ...analysis,
+      format: RECORD_FORMAT,
+      learnedFrom: null,
+      candidates: null,
+    });
+    expect(await store.unreadable()).toEqual([]);
+  });
+
+  it('refuses an experiment whose model is not text, naming the field', () => {
+    const { batch } = readBackup(readFileSync(FILE, 'utf8'), 'backup-format-1.json');
+    const experiment = batch.experiments![0]!;
+    const bad = { ...experiment, learning: { enabled: true, model: { weights: [] } } };
+    const r = restoreRecord('experiments', bad, 'backup.json, experiments[0]');
+    expect(r).toEqual({
+      ok: false,
+      error: expect.stringMatching(/^backup\.json, experiments\[0\]: learning\.model: /),
+    });
   });
 });

@@ -4,6 +4,7 @@ import type { ExperimentData } from '../bench/experiment-data.ts';
 import { counted } from '../words/counted.ts';
 import { AssayCard } from './AssayCard.tsx';
 import { AssayForm } from './AssayForm.tsx';
+import { LearningCard } from './LearningCard.tsx';
 import { PaletteCard } from './PaletteCard.tsx';
 
 export function AssaysTab({ data }: { data: ExperimentData }) {
@@ -18,6 +19,7 @@ export function AssaysTab({ data }: { data: ExperimentData }) {
   return (
     <>
       <PaletteCard data={data} />
+      <LearningCard data={data} />
       {adding ? (
         <AssayForm data={data} onClose={() => setAdding(false)} />
       ) : (

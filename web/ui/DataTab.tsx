@@ -8,6 +8,7 @@ import { backupJson, newerOnly, readBackup } from '../exchange/backup.ts';
 import { platesCsv, resultsCsv } from '../exchange/competition-csv.ts';
 import { saveBlob } from '../exchange/download.ts';
 import { assaysFromCsv } from '../exchange/import-csv.ts';
+import { checkedPlatesExport } from '../exchange/learning-export.ts';
 import { zipStore } from '../exchange/zip.ts';
 import { fitnessInputs } from '../results/assay-inputs.ts';
 import { experimentFitness } from '../results/experiment-fitness.ts';
@@ -150,6 +151,37 @@ export function DataTab({ data }: { data: ExperimentData }) {
             }
           >
             Tables for R or a spreadsheet (zip)
+          </button>
+          <button
+            type="button"
+            className="btn"
+            data-testid="export-checked"
+            onClick={() =>
+              checkedPlatesExport(store, data.experiment)
+                .then(({ files, plates, skipped }) => {
+                  if (plates === 0)
+                    return say(
+                      false,
+                      ['No checked plate with its photo on this phone yet.', ...skipped].join('\n'),
+                      'export',
+                    );
+                  saveBlob(
+                    new Blob([zipStore(files)], { type: 'application/zip' }),
+                    `${name}-checked-plates.zip`,
+                  );
+                  say(
+                    true,
+                    [
+                      `Saved ${name}-checked-plates.zip (${counted(plates, 'checked plate', 'checked plates')} with their photos): unzip it and run rivalplate learn corrected.jsonl --out model.json.`,
+                      ...skipped.map((s) => `Left out ${s}.`),
+                    ].join('\n'),
+                    'export',
+                  );
+                })
+                .catch(failed)
+            }
+          >
+            Checked plates for learning (zip)
           </button>
           <button
             type="button"

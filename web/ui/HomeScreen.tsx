@@ -7,7 +7,7 @@ import { saving } from '../app/write-failure.ts';
 import { experimentRecordIds } from '../bench/delete.ts';
 import { installDemo } from '../demo/install-demo.ts';
 import { labAccuracy } from '../review/lab-accuracy.ts';
-import { counted } from '../words/counted.ts';
+import { AccuracyCard } from './AccuracyCard.tsx';
 import { ConfirmButton } from './ConfirmButton.tsx';
 import { NewExperimentForm } from './NewExperimentForm.tsx';
 import { StorageCard } from './StorageCard.tsx';
@@ -117,24 +117,7 @@ export function HomeScreen() {
           </ul>
         </section>
 
-        <section className="card" aria-label="Counting accuracy">
-          <h2>How good is the automatic count?</h2>
-          {accuracy.state === 'ready' && accuracy.value ? (
-            <p data-testid="accuracy">
-              On <b>{counted(accuracy.value.plates, 'checked plate', 'checked plates')}</b> of your
-              own, you corrected <b>{(accuracy.value.correctionFraction * 100).toFixed(1)}%</b> of
-              the colonies ({counted(accuracy.value.corrections, 'colony', 'colonies')} added,
-              removed or switched, of {counted(accuracy.value.correctedTotal, 'colony', 'colonies')}
-              ); median error of a plate's total:{' '}
-              {(accuracy.value.medianTotalError * 100).toFixed(1)}%.
-            </p>
-          ) : (
-            <p className="muted">
-              Mark plates as checked after correcting them, and the figure for your lab's plates
-              appears here.
-            </p>
-          )}
-        </section>
+        <AccuracyCard accuracy={accuracy.state === 'ready' ? accuracy.value : null} />
         <SyncCard />
         <StorageCard />
         <UnreadableCard />

@@ -22,9 +22,11 @@ import {
 import { useCorrections } from '../review/use-corrections.ts';
 import { frameFor } from '../review/view.ts';
 import { counted } from '../words/counted.ts';
+import { refitSentence } from '../words/learning-words.ts';
 import { ConfirmButton } from './ConfirmButton.tsx';
 import { NextPlateButton } from './NextPlateButton.tsx';
 import { PlateFlags } from './PlateFlags.tsx';
+import { ReadByRow } from './ReadByRow.tsx';
 import { ReviewMore } from './ReviewMore.tsx';
 import { ReviewView } from './ReviewView.tsx';
 import { TallyBar } from './TallyBar.tsx';
@@ -43,7 +45,8 @@ export function ReviewPanel({
   busy: boolean;
   /** The plate the experiment needs after this one, offered once this one is checked. */
   next: PlatePlace | null;
-  onReread: (dish: DishRecord) => void;
+  /** Reads the photo again: inside a dish the person moved, or as found. */
+  onReread: (dish?: DishRecord) => void;
   /** A photo taken for the next plate straight from this plate's check. */
   onNextPhoto: (next: PlatePlace, photo: Blob, name: string) => void;
 }) {
@@ -76,7 +79,9 @@ export function ReviewPanel({
       .catch(failed('Picture not saved'));
 
   const check = () =>
-    void markChecked(store, worker, experiment, plate).catch(failed('Not marked checked'));
+    void markChecked(store, worker, experiment, plate)
+      .then((fit) => fit && setMessage(refitSentence(fit)))
+      .catch(failed('Not marked checked'));
   // In a run of plates one tap checks this plate and opens the camera for the next (the
   // camera may only be opened from the tap itself); cancelling the camera stays here.
   const nextCamera = useRef<HTMLInputElement>(null);
@@ -227,6 +232,13 @@ export function ReviewPanel({
           )}
         </div>
       </TallyBar>
+      <ReadByRow
+        analysis={analysis}
+        experiment={experiment}
+        touched={plate.reviewed || corr.stack.edits.length > 0}
+        busy={busy}
+        onReread={() => onReread()}
+      />
       <ReviewMore
         counts={counts}
         found={countsByClass(analysis.colonies)}
