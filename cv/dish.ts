@@ -25,8 +25,18 @@ const RAYS = 120;
  * which keep a colony growing against the wall.
  */
 export const AGAR_FRACTION = 1;
+/** The agar's diameter when none is given: the common 90 mm Petri dish (common practice). */
+export const DEFAULT_DISH_MM = 90;
 
-export function detectDish(cv: OpenCv, image: RgbaImage): Dish | null {
+/**
+ * `dishDiameterMm`, the agar's diameter, sets how far along a ray the walk must see the edge hold
+ * before it takes it (EDGE_RUN_MM in that dish's pixels).
+ */
+export function detectDish(
+  cv: OpenCv,
+  image: RgbaImage,
+  dishDiameterMm = DEFAULT_DISH_MM,
+): Dish | null {
   return withMats((keep) => {
     const scale = steppedScale(PREVIEW_SIDE / Math.max(image.width, image.height));
     const whole = { x: 0, y: 0, width: image.width, height: image.height };
@@ -46,7 +56,7 @@ export function detectDish(cv: OpenCv, image: RgbaImage): Dish | null {
 
     const circle = houghDish(cv, keep, gray);
     if (!circle) return null;
-    const ellipse = refineEllipse(cv, keep, small, circle) ?? {
+    const ellipse = refineEllipse(cv, keep, small, circle, dishDiameterMm) ?? {
       cx: circle.x,
       cy: circle.y,
       rx: circle.r,
@@ -108,7 +118,6 @@ function houghDish(cv: OpenCv, keep: Keep, gray: Mat): { x: number; y: number; r
 const EDGE_DELTA_E = 12;
 const EDGE_RUN_MM = 5;
 const EDGE_SUSTAIN = 0.6;
-const DISH_MM = 90;
 
 type Ellipse = { cx: number; cy: number; rx: number; ry: number; angleDeg: number };
 
@@ -117,6 +126,7 @@ function refineEllipse(
   keep: Keep,
   rgba: Mat,
   c: { x: number; y: number; r: number },
+  dishDiameterMm: number,
 ): Ellipse | null {
   const rgb = keep(new cv.Mat());
   cv.cvtColor(rgba, rgb, cv.COLOR_RGBA2RGB);
@@ -127,7 +137,7 @@ function refineEllipse(
   let radius = c.r;
   let fit: Ellipse | null = null;
   for (let pass = 0; pass < 3; pass++) {
-    const points = edgePoints(lab, centre, radius);
+    const points = edgePoints(lab, centre, radius, dishDiameterMm);
     const next = robustEllipse(cv, keep, points);
     if (!next) break;
     fit = next;
@@ -146,7 +156,12 @@ function refineEllipse(
   return fit;
 }
 
-function edgePoints(lab: Mat, c: { x: number; y: number }, radius: number): [number, number][] {
+function edgePoints(
+  lab: Mat,
+  c: { x: number; y: number },
+  radius: number,
+  dishDiameterMm: number,
+): [number, number][] {
   const d = lab.data;
   const w = lab.cols;
   const h = lab.rows;
@@ -159,7 +174,7 @@ function edgePoints(lab: Mat, c: { x: number; y: number }, radius: number): [num
     return [(d[i]! * 100) / 255, d[i + 1]! - 128, d[i + 2]! - 128];
   };
   const step = 0.5;
-  const runSamples = Math.max(3, Math.round((EDGE_RUN_MM * radius) / (DISH_MM / 2) / step));
+  const runSamples = Math.max(3, Math.round((EDGE_RUN_MM * radius) / (dishDiameterMm / 2) / step));
   const points: [number, number][] = [];
   for (let i = 0; i < RAYS; i++) {
     const t = (2 * Math.PI * i) / RAYS;
