@@ -4,7 +4,7 @@ import { candidateFeatures } from './candidate-features.ts';
 import { selectCandidates } from './candidates.ts';
 import { classify } from './classify.ts';
 import { now } from './clock.ts';
-import { detectDish, ellipseRadius, givenDish } from './dish.ts';
+import { DEFAULT_DISH_MM, detectDish, ellipseRadius, givenDish } from './dish.ts';
 import { deltaESlope, edgeWidthMm } from './focus.ts';
 import { segmentForeground } from './foreground.ts';
 import { frameForDish, inscribedDish, toOriginal, type WorkingFrame } from './frame.ts';
@@ -33,7 +33,6 @@ import type {
  * σ ≈ 0.14 mm passes 0.5.
  */
 const BLURRED_EDGE_MM = 0.5;
-const DEFAULT_DISH_MM = 90;
 const SMOOTHING_MM = 0.07;
 
 /**
@@ -70,15 +69,11 @@ function runPipeline(
 
   // The photo stays in JavaScript memory: the dish is found on a preview and the working image
   // made from it band by band, so the full-size pixels never enter the WASM heap.
-  let dish: Dish | null = options.dish ? givenDish(options.dish) : detectDish(cv, image);
+  const dishMm = options.dishDiameterMm ?? DEFAULT_DISH_MM;
+  let dish: Dish | null = options.dish ? givenDish(options.dish) : detectDish(cv, image, dishMm);
   if (!dish) flags.push({ kind: 'dish-not-found' });
   const geometry = dish ?? inscribedDish(image.width, image.height);
-  const frame = frameForDish(
-    geometry,
-    image.width,
-    image.height,
-    options.dishDiameterMm ?? DEFAULT_DISH_MM,
-  );
+  const frame = frameForDish(geometry, image.width, image.height, dishMm);
   stage('dish', 0.2);
 
   const rgb = keep(workingImage(cv, image, frame));
@@ -113,6 +108,7 @@ function runPipeline(
     split.typicalRadius,
     frame.mmPerPx,
     fg.threshold,
+    fg.faintThreshold,
     (r) => (1 - ellipseRadius(dishW, r.x, r.y)) * dishW.r * frame.mmPerPx < WALL_ZONE_MM,
     (r) => agar.glareZone.data[Math.floor(r.y) * agar.glareZone.cols + Math.floor(r.x)]! > 0,
   );

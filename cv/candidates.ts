@@ -84,6 +84,8 @@ const SHADE_CONTRAST = 3;
 /** Glare fringe: within this colour difference of the agar in a*, b*. */
 const GLARE_FRINGE_TINT = 3;
 const CLUMP_ELONGATION = 2.0;
+/** A faint disc is at least this many minimum colonies (about 0.8 mm across). */
+const FAINT_AREA = 3;
 /** A blob whose area is at most this many times its largest disc is round (one colony or a pair). */
 const ROUND_BLOB = 2.2;
 const WALL_THINNESS = 0.35;
@@ -109,6 +111,7 @@ export function selectCandidates(
   typicalRadius: number,
   mmPerPx: number,
   threshold: number,
+  faintThreshold: number,
   nearWall: (r: RegionStats) => boolean,
   nearGlare: (r: RegionStats) => boolean,
 ): CandidateResult {
@@ -143,9 +146,10 @@ export function selectCandidates(
     // A region no different from the agar on average is agar enclosed by something else (the
     // inside of a pen letter, a filled ring) or a fringe of ringing round a dark colony, whose
     // pixels stray both ways: its mean colour must differ from the agar as much as its pixels do.
+    const needed = isFaintDisc(r, minArea) ? faintThreshold : threshold;
     if (
-      r.contrast < threshold ||
-      deltaE76(r.lab, r.backgroundLab) < MEAN_DIFFERENCE * threshold ||
+      r.contrast < needed ||
+      deltaE76(r.lab, r.backgroundLab) < MEAN_DIFFERENCE * needed ||
       (r.area < 2 * minArea && r.contrast < SMALL_CONTRAST * threshold)
     ) {
       rejected.specks++;
@@ -272,6 +276,11 @@ function isColonyOnStroke(
  */
 function strokeHalfWidth(c: ComponentStats): number {
   return 2 * c.meanDistance;
+}
+
+/** A region big and round enough to be judged against the faint threshold (foreground.ts). */
+function isFaintDisc(r: RegionStats, minArea: number): boolean {
+  return r.area >= FAINT_AREA * minArea && r.area <= ROUND_BLOB * Math.PI * r.halfWidth ** 2;
 }
 
 /** Lighter than the agar and untinted: the fading edge of lid glare, next to a glare patch. */

@@ -25,6 +25,8 @@ const RING_COLONY_MAX_MM = 4;
 export interface Foreground {
   mask: Mat;
   threshold: number;
+  /** The lower threshold a large, round, faint disc must clear (see addFaintDiscs). */
+  faintThreshold: number;
 }
 
 export function segmentForeground(
@@ -47,12 +49,14 @@ export function segmentForeground(
     clearThinAlongWall(cv, k, mask, agar.wallBand, frame);
     cutFromWall(cv, k, mask, agar, frame);
   });
+  const faintThreshold = Math.max(FAINT_MIN_CONTRAST, FAINT_MULTIPLE * noise);
+  withMats((k) => addFaintDiscs(cv, k, mask, agar, frame, faintThreshold));
   withMats((k) => {
     const lighter = k(lighterThanAgar(cv, k, agar));
     fillColonyHoles(cv, mask, lighter, Math.PI * (RING_COLONY_MAX_MM / 2 / frame.mmPerPx) ** 2);
   });
   cutLightFromDark(cv, mask, agar);
-  return { mask, threshold };
+  return { mask, threshold, faintThreshold };
 }
 
 /**
@@ -74,6 +78,76 @@ function clearThinAlongWall(
   const opened = k(new cv.Mat());
   cv.morphologyEx(mask, opened, cv.MORPH_OPEN, disc);
   opened.copyTo(mask, wallBand);
+}
+
+/**
+ * Large faint colonies (a pale colony only a few ΔE lighter than the agar, 1–3 mm across) stay
+ * under the pixel threshold, which must hold against single-pixel noise. Over a disc that size the
+ * noise averages out, so a lower threshold is safe where what clears it is a round patch at least
+ * FAINT_MIN_MM across: the lower mask is opened with a disc that size (noise specks and thin
+ * texture go) and each remaining outline up to FAINT_MAX_MM across that is round is added: it fills at least FAINT_FILL of
+ * its smallest enclosing circle (a digital disc a few pixels across fills about 0.8, an ellipse
+ * of axes 2:1 or a crescent 0.5 or less; the isoperimetric quotient is biased low on outlines
+ * that small).
+ */
+const FAINT_MULTIPLE = 2.5;
+const FAINT_MIN_CONTRAST = 2;
+const FAINT_MIN_MM = 0.8;
+const FAINT_FILL = 0.65;
+/** Larger than this (mm across) a faint patch is lighting or a smear, not a colony. */
+const FAINT_MAX_MM = 5;
+/** A faint disc is added when the pixel threshold found less than this share of its square. */
+const FAINT_FOUND = 0.3;
+function addFaintDiscs(
+  cv: OpenCv,
+  k: Keep,
+  mask: Mat,
+  agar: AgarModel,
+  frame: WorkingFrame,
+  faintThreshold: number,
+): void {
+  // Averaged over a quarter of the smallest faint disc first: JPEG blocks and noise make the
+  // outline of a faint patch ragged at the pixel level.
+  const smooth = k(new cv.Mat());
+  cv.GaussianBlur(agar.deltaE, smooth, new cv.Size(0, 0), FAINT_MIN_MM / 4 / frame.mmPerPx);
+  const above = k(new cv.Mat());
+  cv.threshold(smooth, above, faintThreshold, 255, cv.THRESH_BINARY);
+  const low = k(new cv.Mat());
+  above.convertTo(low, cv.CV_8U);
+  cv.bitwise_and(low, agar.countMask, low);
+  const size = oddAtLeast(3, FAINT_MIN_MM / frame.mmPerPx);
+  const disc = k(cv.getStructuringElement(cv.MORPH_ELLIPSE, new cv.Size(size, size)));
+  cv.morphologyEx(low, low, cv.MORPH_OPEN, disc);
+  const contours = k(new cv.MatVector());
+  const hierarchy = k(new cv.Mat());
+  cv.findContours(low, contours, hierarchy, cv.RETR_EXTERNAL, cv.CHAIN_APPROX_SIMPLE);
+  const maxRadius = FAINT_MAX_MM / 2 / frame.mmPerPx;
+  for (let i = 0; i < contours.size(); i++) {
+    const c = k(contours.get(i));
+    const { center, radius } = cv.minEnclosingCircle(c);
+    const area = cv.contourArea(c);
+    if (area < FAINT_FILL * Math.PI * radius ** 2 || radius > maxRadius) continue;
+    // Round what the pixel threshold found, the lower one only grows a halo that would join
+    // neighbours: a disc is added where the pixel threshold found little of it.
+    if (foundShare(cv, k, mask, center, radius) < FAINT_FOUND)
+      cv.drawContours(mask, contours, i, [255, 0, 0, 0], -1);
+  }
+}
+
+/** The share of the mask inside the square round a circle (clipped to the image). */
+function foundShare(
+  cv: OpenCv,
+  k: Keep,
+  mask: Mat,
+  centre: { x: number; y: number },
+  radius: number,
+): number {
+  const x0 = Math.max(0, Math.floor(centre.x - radius));
+  const y0 = Math.max(0, Math.floor(centre.y - radius));
+  const x1 = Math.min(mask.cols, Math.ceil(centre.x + radius));
+  const y1 = Math.min(mask.rows, Math.ceil(centre.y + radius));
+  if (x1 <= x0 || y1 <= y0) return 1;
+  return cv.mean(k(mask.roi(new cv.Rect(x0, y0, x1 - x0, y1 - y0))))[0]! / 255;
 }
 
 /**

@@ -139,6 +139,7 @@ export interface OpenCv {
     maxRadius: number,
   ): void;
   fitEllipse(points: Mat): RotatedRect;
+  minEnclosingCircle(points: Mat): { center: { x: number; y: number }; radius: number };
   ellipse(
     img: Mat,
     center: { x: number; y: number },
