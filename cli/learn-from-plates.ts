@@ -18,8 +18,11 @@ export class CheckedPlateError extends Error {
 
 /**
  * Reads each checked plate with the default analysis, labels every object it considered from the
- * final colonies (cv labels.ts) and learns the experiment's model from all of them. A photo that
- * cannot be read, or a colony outside its photo, is refused with the plate's place and field.
+ * final colonies (cv labels.ts) and learns the experiment's model from all of them. Where people
+ * had to add colonies the search never considered, the plates are read once more with the search
+ * widened as far as that asks (cv searchReach), and the model is learned from that reading, so it
+ * has seen the fainter objects it will be shown. A photo that cannot be read, or a colony outside
+ * its photo, is refused with the plate's place and field.
  */
 export async function learnFromPlates(
   core: CvCore,
@@ -28,6 +31,20 @@ export async function learnFromPlates(
   dishMm: number,
   onPlate?: (index: number, total: number, file: string) => void,
 ): Promise<LearnedModel> {
+  const first = await labelPlates(core, plates, dishMm, 1, onPlate);
+  const reach = core.searchReach(first);
+  if (reach >= 1) return core.learnModel(first, plates.length, names);
+  const wider = await labelPlates(core, plates, dishMm, reach, onPlate);
+  return core.learnModel(wider, plates.length, names, reach);
+}
+
+async function labelPlates(
+  core: CvCore,
+  plates: readonly CheckedPlate[],
+  dishMm: number,
+  searchReach: number,
+  onPlate?: (index: number, total: number, file: string) => void,
+): Promise<CandidateLabel[]> {
   const labels: CandidateLabel[] = [];
   for (const [i, plate] of plates.entries()) {
     onPlate?.(i + 1, plates.length, plate.photo);
@@ -47,6 +64,7 @@ export async function learnFromPlates(
     const analysis = await core.analyzePlate(photo.pixels, {
       dishDiameterMm: dishMm,
       withCandidates: true,
+      searchReach,
     });
     const final = plate.colonies.map((c) => ({
       x: c.x * photo.scale,
@@ -55,5 +73,5 @@ export async function learnFromPlates(
     }));
     labels.push(...core.labelsFromCorrections(analysis.candidates ?? [], final));
   }
-  return core.learnModel(labels, plates.length, names);
+  return labels;
 }

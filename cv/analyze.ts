@@ -85,7 +85,10 @@ function runPipeline(
     flags.push({ kind: 'glare', fraction: round(agar.glareFraction, 3) });
   stage('background', 0.45);
 
-  const fg = segmentForeground(cv, keep, agar, frame);
+  const reach =
+    options.searchReach ??
+    (options.model && decidesColonies(options.model) ? options.model.reach : 1);
+  const fg = segmentForeground(cv, keep, agar, frame, reach);
   stage('foreground', 0.6);
   const split = splitTouching(cv, keep, rgb, fg.mask, frame);
   stage('split', 0.75);

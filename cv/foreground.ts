@@ -34,13 +34,16 @@ export function segmentForeground(
   keep: Keep,
   agar: AgarModel,
   frame: WorkingFrame,
+  reach = 1,
 ): Foreground {
   const noise = medianWithin(agar.deltaE, agar.countMask);
   const threshold = Math.max(MIN_CONTRAST, NOISE_MULTIPLE * noise);
+  // A learned model may widen the search (reach < 1): the mask is drawn with lower thresholds,
+  // while the thresholds handed on to the default rules stay as they are.
   const mask = keep(new cv.Mat());
   withMats((k) => {
     const above = k(new cv.Mat());
-    cv.threshold(agar.deltaE, above, threshold, 255, cv.THRESH_BINARY);
+    cv.threshold(agar.deltaE, above, reach * threshold, 255, cv.THRESH_BINARY);
     above.convertTo(mask, cv.CV_8U);
     cv.bitwise_and(mask, agar.countMask, mask);
     const size = oddAtLeast(3, 0.2 / frame.mmPerPx);
@@ -50,7 +53,7 @@ export function segmentForeground(
     cutFromWall(cv, k, mask, agar, frame);
   });
   const faintThreshold = Math.max(FAINT_MIN_CONTRAST, FAINT_MULTIPLE * noise);
-  withMats((k) => addFaintDiscs(cv, k, mask, agar, frame, faintThreshold));
+  withMats((k) => addFaintDiscs(cv, k, mask, agar, frame, reach * faintThreshold));
   withMats((k) => {
     const lighter = k(lighterThanAgar(cv, k, agar));
     fillColonyHoles(cv, mask, lighter, Math.PI * (RING_COLONY_MAX_MM / 2 / frame.mmPerPx) ** 2);

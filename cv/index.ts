@@ -5,7 +5,13 @@
 export { analyzePlate } from './analyze.ts';
 export { MAX_PIXELS, PlateImageError } from './image-input.ts';
 export { type CandidateLabel, labelsFromCorrections } from './labels.ts';
-export { coloniesNeeded, decidesColonies, learnModel, ModelError } from './learned-model.ts';
+export {
+  coloniesNeeded,
+  decidesColonies,
+  learnModel,
+  ModelError,
+  searchReach,
+} from './learned-model.ts';
 export { modelToJson, parseModel } from './model-file.ts';
 export { loadOpenCv, provideOpenCvModule } from './opencv.ts';
 export { classifyWithPalette, learnPalette, paletteFromExamples } from './palette.ts';

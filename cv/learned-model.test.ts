@@ -6,7 +6,9 @@ import {
   decidesColonies,
   isColony,
   learnModel,
+  MIN_REACH,
   ModelError,
+  searchReach,
 } from './learned-model.ts';
 import { fitLogistic } from './logistic.ts';
 import { modelToJson, parseModel } from './model-file.ts';
@@ -121,6 +123,11 @@ describe('the model file', () => {
     ],
     ['features renamed', edit((m) => ((m.features as string[])[0] = 'L')), /"features" must be/],
     [
+      'a reach past the limit',
+      edit((m) => (m.reach = 0.1)),
+      /"reach" is not a number from 0.6 to 1/,
+    ],
+    [
       'a palette colour without a name',
       edit((m) => {
         (m.palette as { colours: { name: string }[] }).colours[1]!.name = '';
@@ -132,9 +139,43 @@ describe('the model file', () => {
     expect(() => parseModel(text)).toThrow(message);
   });
 
+  it('keeps the reach, and reads a file from before the reach as searched with the defaults', () => {
+    expect(parseModel(edit((m) => (m.reach = 0.8))).reach).toBe(0.8);
+    expect(parseModel(edit((m) => delete m.reach)).reach).toBe(1);
+  });
+
   it('refuses a newer version, saying so', () => {
     expect(() => parseModel(edit((m) => (m.version = 2)))).toThrow(
       /model version 2 was made by a newer Rivalplate; this one reads version 1/,
     );
+  });
+});
+
+describe('how far the candidate search reaches', () => {
+  const colony = (kind: CandidateLabel['kind']): CandidateLabel => ({
+    kind,
+    colony: true,
+    cls: 'red',
+    features: null,
+    x: 0,
+    y: 0,
+  });
+  const plate = (found: number, added: number) => [
+    ...Array.from({ length: found }, () => colony('kept')),
+    ...Array.from({ length: added }, () => colony('added')),
+  ];
+
+  it('lowers the thresholds by the share of colonies people had to add', () => {
+    // 20 of 100 checked colonies were never considered: the thresholds go to 0.8 of the defaults.
+    expect(searchReach(plate(80, 20))).toBe(0.8);
+    // Read already at 0.8 and 10 % still missed: 0.8 × 0.9.
+    expect(searchReach(plate(90, 10), 0.8)).toBe(0.72);
+  });
+
+  it('keeps the reach it was read with when nothing was added, and never goes past MIN_REACH', () => {
+    expect(searchReach(plate(50, 0))).toBe(1);
+    expect(searchReach(plate(50, 0), 0.9)).toBe(0.9);
+    expect(searchReach(plate(10, 90))).toBe(MIN_REACH);
+    expect(searchReach([])).toBe(1);
   });
 });

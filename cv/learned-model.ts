@@ -36,6 +36,8 @@ const EVENTS_PER_FEATURE = 5;
 const RANGE_MARGIN = 0.5;
 /** Beyond this distance from the wall (mm), the wall no longer matters. */
 const WALL_CAP_MM = 5;
+/** The candidate search reaches at most this far (a factor on the detection thresholds). */
+export const MIN_REACH = 0.6;
 
 export const FEATURE_NAMES = [
   'dL',
@@ -82,6 +84,7 @@ export function learnModel(
   labels: readonly CandidateLabel[],
   plates: number,
   names: readonly string[],
+  searched = 1,
 ): LearnedModel {
   const usable = labels.filter((l) => l.features !== null);
   const colonies = usable.filter((l) => l.colony).length;
@@ -115,8 +118,25 @@ export function learnModel(
     intercept: sig(fit.intercept),
     weights: fit.weights.map(sig),
     lambda: LAMBDA,
+    reach: searchReach(labels, searched),
     palette: labelledPalette(usable, names),
   };
+}
+
+/**
+ * How far the candidate search must reach, from the colonies people had to add where the search
+ * (run with thresholds × `searched`) had considered nothing: the thresholds are lowered in
+ * proportion to the share of checked colonies it missed, reach = searched × (1 − missed share),
+ * and never below MIN_REACH. A rule of thumb of this project, not a published method: a lower
+ * threshold finds more faint objects and more noise, and it is the model, fitted on plates read
+ * with that reach, that tells them apart (the default rules never see what only the wider search
+ * found). Plates where nothing was added keep the reach they were read with.
+ */
+export function searchReach(labels: readonly CandidateLabel[], searched = 1): number {
+  const colonies = labels.filter((l) => l.colony).length;
+  if (colonies === 0) return searched;
+  const missed = labels.filter((l) => l.kind === 'added').length / colonies;
+  return Math.round(Math.max(MIN_REACH, searched * (1 - missed)) * 1000) / 1000;
 }
 
 /**

@@ -21,6 +21,7 @@ const rejectsAll: LearnedModel = {
   intercept: -100,
   weights: Array(n).fill(0),
   lambda: 1,
+  reach: 1,
   palette: null,
 };
 

@@ -1,4 +1,4 @@
-import { FEATURE_NAMES, MODEL_VERSION, ModelError } from './learned-model.ts';
+import { FEATURE_NAMES, MIN_REACH, MODEL_VERSION, ModelError } from './learned-model.ts';
 import type { FeatureRange, LearnedModel, Palette } from './types.ts';
 
 /**
@@ -20,6 +20,7 @@ export function modelToJson(m: LearnedModel): string {
     intercept: m.intercept,
     weights: m.weights,
     lambda: m.lambda,
+    reach: m.reach,
     palette: m.palette && {
       version: 1,
       colours: [0, 1].map((k) => {
@@ -76,6 +77,7 @@ export function parseModel(text: string): LearnedModel {
     intercept: finite(raw.intercept, 'intercept'),
     weights: numbers(raw.weights, 'weights', n),
     lambda: finite(raw.lambda, 'lambda'),
+    reach: reachOf(raw.reach),
     palette: raw.palette === null ? null : palette(raw.palette),
   };
   if (model.sd.some((s) => s <= 0)) throw new ModelError('damaged model: "sd" holds a value ≤ 0');
@@ -137,4 +139,13 @@ function count(v: unknown, field: string): number {
 
 function isRecord(v: unknown): v is Record<string, unknown> {
   return typeof v === 'object' && v !== null && !Array.isArray(v);
+}
+
+/** A model written before the search could reach further searched with the defaults (1). */
+function reachOf(v: unknown): number {
+  if (v === undefined) return 1;
+  if (typeof v !== 'number' || !(v >= MIN_REACH && v <= 1)) {
+    throw new ModelError(`damaged model: "reach" is not a number from ${MIN_REACH} to 1`);
+  }
+  return v;
 }

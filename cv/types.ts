@@ -187,10 +187,21 @@ export interface LearnedModel {
   weights: number[];
   /** The L2 penalty it was fitted with. */
   lambda: number;
+  /**
+   * How far the candidate search reaches: the factor on the detection thresholds (1 = the
+   * defaults; lower finds fainter objects for the model to judge). See searchReach.
+   */
+  reach: number;
   palette: Palette | null;
 }
 
 export interface AnalyzeOptions {
+  /**
+   * The factor on the detection thresholds (0 < reach ≤ 1; default 1, or a learned model's reach
+   * when the model decides colonies). Objects only the wider search finds go to the model, not
+   * to the default rules.
+   */
+  searchReach?: number;
   /** Skip detection and use this dish (original pixels). */
   dish?: Pick<Dish, 'cx' | 'cy' | 'rx' | 'ry' | 'angleDeg'>;
   /** Classify against these two colours instead of clustering this plate alone. */

@@ -23,17 +23,20 @@ export type FitResult =
 
 /**
  * The experiment's model from every checked plate (labels from corrections, then the L2-regularised
- * logistic regression of cv/learned-model.ts), as the text of a model file. Labels that teach
+ * logistic regression of cv/learned-model.ts), as the text of a model file. `searched` is the
+ * reach of the model the plates were read with (1 for the defaults): the new model's reach starts
+ * from it (cv searchReach). Labels that teach
  * nothing (no colony on a measured object, or nothing that was not one) give a reason instead of
  * throwing across the worker boundary.
  */
 export function fitExperimentModel(
   plates: readonly TeachingPlate[],
   names: readonly [string, string],
+  searched = 1,
 ): FitResult {
   const labels = plates.flatMap((p) => labelsFromCorrections(p.candidates, p.final));
   try {
-    const model = learnModel(labels, plates.length, names);
+    const model = learnModel(labels, plates.length, names, searched);
     return {
       ok: true,
       model: modelToJson(model),

@@ -109,7 +109,11 @@ export const plateApi = {
   },
 
   /** The experiment's model refitted from all its checked plates (no opencv needed). */
-  async fitModel(plates: TeachingPlate[], names: [string, string]): Promise<FitResult> {
-    return fitExperimentModel(plates, names);
+  async fitModel(
+    plates: TeachingPlate[],
+    names: [string, string],
+    searched = 1,
+  ): Promise<FitResult> {
+    return fitExperimentModel(plates, names, searched);
   },
 };

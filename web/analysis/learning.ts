@@ -55,8 +55,13 @@ export async function refitModel(
     experiment.markerColours[0].name,
     experiment.markerColours[1].name,
   ];
+  // The plates since the last model were read with its reach; the new one starts from there.
+  const current = experiment.learning.model ? readModelText(experiment.learning.model) : null;
+  const searched = current?.ok ? current.model.reach : 1;
   const fit =
-    plates.length > 0 ? await worker.call<FitResult>((api) => api.fitModel(plates, names)) : null;
+    plates.length > 0
+      ? await worker.call<FitResult>((api) => api.fitModel(plates, names, searched))
+      : null;
   const model = fit?.ok ? fit.model : null;
   // Read again: the fit ran in the worker, and the record may have changed meanwhile.
   const latest = await store.get('experiments', experimentId);
