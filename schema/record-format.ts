@@ -8,7 +8,7 @@
 import { SchemaError } from './check.ts';
 import type { RecordKind } from './records.ts';
 
-export const RECORD_FORMAT = 2;
+export const RECORD_FORMAT = 3;
 
 type Raw = Record<string, unknown>;
 
@@ -26,6 +26,8 @@ function canonicalTime(value: unknown): unknown {
 const STEPS: ((kind: RecordKind, record: Raw) => Raw)[] = [
   // 1 → 2: times are compared as text to find the latest edit, so all take one form.
   (_kind, record) => ({ ...record, updatedAt: canonicalTime(record.updatedAt) }),
+  // 2 → 3: assays name the day or batch they were run in; older ones did not record it.
+  (kind, record) => (kind === 'assays' ? { ...record, block: record.block ?? null } : record),
 ];
 
 /** The record at the current format; throws a SchemaError for one from a newer app. */
