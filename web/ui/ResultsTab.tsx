@@ -7,6 +7,7 @@ import { counted } from '../words/counted.ts';
 import { AssayResults } from './AssayResults.tsx';
 import { GroupResults } from './GroupResults.tsx';
 import { ReciprocalResults } from './ReciprocalResults.tsx';
+import { SharedCurves } from './SharedCurves.tsx';
 import { TrajectoryCard } from './TrajectoryCard.tsx';
 
 export function ResultsTab({ data }: { data: ExperimentData }) {
@@ -89,6 +90,7 @@ export function ResultsTab({ data }: { data: ExperimentData }) {
           {a.trajectories.map((t) => (
             <TrajectoryCard key={t.line} trajectory={t} assays={a.assays} />
           ))}
+          <SharedCurves tests={a.sharedCurves} />
         </>
       )}
     </>
