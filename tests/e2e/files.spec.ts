@@ -116,3 +116,50 @@ test('a file that is not a photo, or an empty one, gets a message naming it and 
     .setInputFiles(resolve(ROOT, 'fixtures/demo/marrowfield-L2-day0.jpg'));
   await expect(page.getByTestId('tally')).toBeVisible({ timeout: 60_000 });
 });
+
+test('a stored record the app cannot read is listed on the start screen, which and why, and exported as it is', async ({
+  page,
+}) => {
+  await openApp(page);
+  // An assay as an app of a later record format would store it: this one must not half-read it.
+  const later = {
+    id: 'later-assay-1',
+    revision: 1,
+    updatedAt: '2026-05-01T08:00:00.000Z',
+    format: 99,
+    experimentId: 'later-exp',
+    line: 'L1',
+  };
+  await page.evaluate(
+    (record) =>
+      new Promise<void>((done, failed) => {
+        const open = indexedDB.open('rivalplate');
+        open.onerror = () => failed(open.error);
+        open.onsuccess = () => {
+          const tx = open.result.transaction('assays', 'readwrite');
+          tx.objectStore('assays').put(record);
+          tx.oncomplete = () => {
+            open.result.close();
+            done();
+          };
+          tx.onerror = () => failed(tx.error);
+        };
+      }),
+    later,
+  );
+  await page.reload();
+  const card = page.getByRole('region', { name: 'Unreadable records' });
+  await expect(card).toContainText('Records this phone cannot read');
+  await expect(card).toContainText('later-assay-1');
+  await expect(card).toContainText('written by a newer version of the app (record format 99');
+  const download = page.waitForEvent('download');
+  await card.getByRole('button', { name: 'Export them as they are' }).tap();
+  const file = JSON.parse(readFileSync(await (await download).path(), 'utf8')) as {
+    format: string;
+    records: { kind: string; id: string; raw: unknown }[];
+  };
+  expect(file.format).toBe('rivalplate-unreadable');
+  expect(file.records).toEqual([
+    expect.objectContaining({ kind: 'assays', id: 'later-assay-1', raw: later }),
+  ]);
+});
