@@ -55,6 +55,8 @@ test('the demo is one tap away, marked as demo data, with photos, counts and fit
   await expect(blocked.first()).toContainText('Generation 500 in blocks (day 1, day 2)');
   await expect(blocked.first().getByRole('row', { name: /^line 5 / })).toBeVisible();
   await expect(blocked.first()).toContainText('SD between blocks');
+  // Every pair of the six lines at each of the three generations, by Tukey's HSD.
+  await expect(page.getByTestId('tukey-pairs').locator('tbody tr')).toHaveCount(3 * 15);
   // Whether the six lines share one curve: one shared fit against six, by the F test.
   const shared = page.getByTestId('shared-curves');
   await expect(shared).toContainText(

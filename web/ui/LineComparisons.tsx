@@ -26,6 +26,8 @@ export function LineComparisons({
                 <tr>
                   <th>Generation</th>
                   <th>Lines</th>
+                  <th>ANOVA F (df)</th>
+                  <th>SS between / within</th>
                   <th>ANOVA p</th>
                   <th>Welch ANOVA p</th>
                   <th>Pairs apart (Tukey p &lt; 0.05)</th>
@@ -36,6 +38,16 @@ export function LineComparisons({
                   <tr key={g.generation}>
                     <td>{g.generation}</td>
                     <td>{g.lines.length}</td>
+                    <td>
+                      {g.anova
+                        ? `${g.anova.f.toFixed(2)} (${g.anova.dfBetween}, ${g.anova.dfWithin})`
+                        : '—'}
+                    </td>
+                    <td>
+                      {g.anova
+                        ? `${g.anova.ssBetween.toPrecision(3)} / ${g.anova.ssWithin.toPrecision(3)}`
+                        : '—'}
+                    </td>
                     <td>{pValue(g.anova?.p)}</td>
                     <td>{pValue(g.welch?.p)}</td>
                     <td style={{ textAlign: 'left' }}>
@@ -49,6 +61,39 @@ export function LineComparisons({
               </tbody>
             </table>
           </div>
+          {lab.byGeneration.some((g) => g.tukey) && (
+            <details>
+              <summary>Every pair of lines, Tukey's HSD (95% family-wise)</summary>
+              <div className="table-wrap">
+                <table className="results num" data-testid="tukey-pairs">
+                  <thead>
+                    <tr>
+                      <th>Generation</th>
+                      <th>Pair</th>
+                      <th>difference in W</th>
+                      <th>95% CI</th>
+                      <th>adjusted p</th>
+                    </tr>
+                  </thead>
+                  <tbody>
+                    {lab.byGeneration.flatMap((g) =>
+                      (g.tukey ?? []).map((t) => (
+                        <tr key={`${g.generation}:${t.first}-${t.second}`}>
+                          <td>{g.generation}</td>
+                          <td>
+                            {t.first} − {t.second}
+                          </td>
+                          <td>{fixed3(t.diff)}</td>
+                          <td>{interval(t.ci)}</td>
+                          <td>{pValue(t.pAdjusted)}</td>
+                        </tr>
+                      )),
+                    )}
+                  </tbody>
+                </table>
+              </div>
+            </details>
+          )}
           {lab.byGeneration.map(
             (g) =>
               g.blocked && (
