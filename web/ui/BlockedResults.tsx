@@ -4,7 +4,7 @@ import { fixed3, pValue } from '../results/format.ts';
 /**
  * The lines of one generation compared with the days or batches (blocks) taken into account:
  * the fixed-effects analysis aov(W ~ block + line) and the REML random-intercept model
- * lme(W ~ line, random = ~ 1 | block) (fitness/blocks.ts), with when to read which.
+ * lme(W ~ line, random = ~ 1 | block) (fitness/blocks.ts); `BlockedGuide` says when to read which.
  */
 export function BlockedResults({
   generation,
@@ -89,11 +89,6 @@ export function BlockedResults({
           </p>
         </>
       )}
-      <p className="muted">
-        Read the analysis of variance when these blocks are the days of interest and every line ran
-        in every block; read the mixed model when the blocks stand for days in general, when some
-        lines miss some blocks, or to weigh the day-to-day spread against the spread within a day.
-      </p>
     </div>
   );
 }
@@ -107,5 +102,16 @@ function AnovaCells({ row }: { row: AnovaRow }) {
       <td>{row.df > 0 ? row.f.toFixed(2) : '—'}</td>
       <td>{row.df > 0 ? pValue(row.p) : '—'}</td>
     </>
+  );
+}
+
+/** When to read which of the two blocked analyses (fitness/blocks.ts), said once under them. */
+export function BlockedGuide() {
+  return (
+    <p className="muted">
+      Read the analysis of variance when these blocks are the days of interest and every line ran in
+      every block; read the mixed model when the blocks stand for days in general, when some lines
+      miss some blocks, or to weigh the day-to-day spread against the spread within a day.
+    </p>
   );
 }

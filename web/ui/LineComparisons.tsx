@@ -1,6 +1,6 @@
 import type { LabComparisons } from '../../fitness/lab-comparisons.ts';
 import { fixed3, interval, pValue } from '../results/format.ts';
-import { BlockedResults } from './BlockedResults.tsx';
+import { BlockedGuide, BlockedResults } from './BlockedResults.tsx';
 
 /**
  * The lab's comparisons of its lines (fitness/lab-comparisons.ts): lines against each other within
@@ -100,6 +100,7 @@ export function LineComparisons({
                 <BlockedResults key={g.generation} generation={g.generation} blocked={g.blocked} />
               ),
           )}
+          {lab.byGeneration.some((g) => g.blocked) && <BlockedGuide />}
         </>
       )}
       {lab.vsAncestor.length > 0 && (
