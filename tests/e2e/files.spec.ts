@@ -60,6 +60,23 @@ test('a plate CSV is imported into an experiment and its fitness computed; a bad
   await expect(bothRow).toContainText(both!.meanW.toFixed(3));
   await shot(page, '50-imported-fitness');
 
+  // Corrected for the marker effect, a group's interval carries the controls' uncertainty: the
+  // app shows what the engine run on the file in Node gives (the engine is checked against R in
+  // fitness/marker-correction.test.ts).
+  const corrected = analyse(readCompetitionCsv(readFileSync(EXAMPLE, 'utf8')).assays, {
+    correctMarker: true,
+  }).groups.find((g) => g.group === 'L3-1000')!;
+  await page.getByTestId('correct-marker').tap();
+  await expect(page.getByTestId('marker-effect')).toContainText(
+    'The other assays were corrected by it',
+  );
+  const row = page.getByTestId('group-results').getByRole('row', { name: /^L3-1000 / });
+  const [low, high] = corrected.W.ci!;
+  await expect(row).toContainText(`${low.toFixed(3)}–${high.toFixed(3)}`);
+  await expect(row).toContainText(corrected.W.mean.toFixed(3));
+  await page.getByTestId('correct-marker').tap();
+  await expect(page.getByTestId('marker-effect')).toContainText('Not applied to the other assays');
+
   // The tidy tables as a zip: each file read back from the stored entries.
   await page.getByRole('link', { name: 'Files' }).tap();
   const download = page.waitForEvent('download');

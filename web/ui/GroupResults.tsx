@@ -10,10 +10,13 @@ import { LineComparisons } from './LineComparisons.tsx';
 export function GroupResults({
   analysis,
   unchecked,
+  onCorrect,
 }: {
   analysis: Analysis;
   /** Groups with an assay resting on photo counts nobody checked. */
   unchecked: ReadonlySet<string>;
+  /** Turns the marker correction on or off. */
+  onCorrect: (on: boolean) => void;
 }) {
   const m = analysis.markerEffect;
   const c = analysis.comparison;
@@ -66,8 +69,17 @@ export function GroupResults({
           <b>Marker effect</b> ({m.group}, n = {m.n}): mean W {fixed3(m.W.mean)}, 95% CI{' '}
           {interval(m.W.ci)}, p (W = 1) {pValue(m.W_vs_1?.p)}.{' '}
           {m.applied
-            ? 'The other assays were corrected by it.'
-            : 'Not applied to the other assays.'}
+            ? "The other assays were corrected by it (W divided by the controls' mean W, r less their mean r); intervals and tests carry the controls' uncertainty."
+            : 'Not applied to the other assays.'}{' '}
+          <button
+            type="button"
+            className="btn quiet"
+            data-testid="correct-marker"
+            aria-pressed={m.applied}
+            onClick={() => onCorrect(!m.applied)}
+          >
+            {m.applied ? 'Show uncorrected values' : 'Correct for the marker effect'}
+          </button>
         </p>
       )}
       {c?.W && (
