@@ -1,5 +1,6 @@
 import { defineConfig, devices } from '@playwright/test';
 import { CAMERA_FRAME } from './tests/e2e/camera-frame.ts';
+import { requiredChromium } from './tests/support/chromium.ts';
 
 /**
  * End-to-end tests of the bench app in the machine's Chromium (Debian's package; Playwright
@@ -13,7 +14,8 @@ process.env.RIVALPLATE_E2E_PORT ??= String(20_000 + (process.pid % 20_000));
 process.env.RIVALPLATE_E2E_SYNC_PORT ??= String(Number(process.env.RIVALPLATE_E2E_PORT) + 20_000);
 const PORT = Number(process.env.RIVALPLATE_E2E_PORT);
 export const E2E_DIST = 'tests/artifacts/e2e-dist';
-const CHROMIUM = process.env.RIVALPLATE_CHROMIUM ?? '/usr/bin/chromium';
+// Found by the lookup ensure-chromium.sh made before this run (tests/support/chromium.ts).
+const CHROMIUM = requiredChromium();
 // Flags seen to work for headless Debian Chromium on this machine (no GPU, no sandbox in CI).
 const CHROMIUM_ARGS = [
   '--headless',

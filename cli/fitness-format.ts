@@ -119,7 +119,7 @@ function blockedText(generation: number, b: BlockedComparison): string[] {
   return out;
 }
 
-function comparisonsText(c: LabComparisons): string[] {
+function comparisonsText(c: LabComparisons, corrected: boolean): string[] {
   const out: string[] = [];
   if (c.byGeneration.length > 0) {
     out.push('', 'Lines compared within each generation (W)');
@@ -156,16 +156,19 @@ function comparisonsText(c: LabComparisons): string[] {
   if (c.vsAncestor.length > 0) {
     out.push(
       '',
-      'Each line against the ancestor (W = 1), one-sample t-tests; Holm and Benjamini–Hochberg over all of them',
+      corrected
+        ? "Each line against the ancestor (W = 1), with the controls' uncertainty (delta method, Welch–Satterthwaite df); Holm and Benjamini–Hochberg over all of them"
+        : 'Each line against the ancestor (W = 1), one-sample t-tests; Holm and Benjamini–Hochberg over all of them',
     );
     out.push(
       table(
-        ['line', 'gen', 'n', 'mean W', 't', 'df', 'p', 'p Holm', 'p BH'],
+        ['line', 'gen', 'n', 'mean W', '95% CI', 't', 'df', 'p', 'p Holm', 'p BH'],
         c.vsAncestor.map((x) => [
           x.line,
           String(x.generation),
           String(x.n),
           f(x.meanW),
+          ci(x.ci),
           ...adjustedCells(x),
         ]),
       ),
@@ -174,16 +177,19 @@ function comparisonsText(c: LabComparisons): string[] {
   if (c.changes.length > 0) {
     out.push(
       '',
-      "Each line's change between measured generations, Welch t-tests; Holm and Benjamini–Hochberg over all of them",
+      corrected
+        ? "Each line's change between measured generations, Welch t-tests; intervals with the controls' uncertainty (delta method); Holm and Benjamini–Hochberg over all of them"
+        : "Each line's change between measured generations, Welch t-tests; Holm and Benjamini–Hochberg over all of them",
     );
     out.push(
       table(
-        ['line', 'from', 'to', 'diff W', 't', 'df', 'p', 'p Holm', 'p BH'],
+        ['line', 'from', 'to', 'diff W', '95% CI', 't', 'df', 'p', 'p Holm', 'p BH'],
         c.changes.map((x) => [
           x.line,
           String(x.from),
           String(x.to),
           f(x.diff),
+          ci(x.ci),
           ...adjustedCells(x),
         ]),
       ),
@@ -368,7 +374,7 @@ export function analysisText(a: Analysis, options: TextOptions): string {
       ),
     );
   }
-  out.push(...comparisonsText(a.comparisons));
+  out.push(...comparisonsText(a.comparisons, Boolean(a.markerEffect?.applied)));
   if (a.comparison) out.push('', comparisonText(a.comparison));
   for (const t of a.trajectories) {
     out.push('', `Trajectory of ${t.line} (${t.points.length} assays; w against generations)`);

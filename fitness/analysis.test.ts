@@ -107,6 +107,10 @@ describe('analyse', () => {
     expect(g.r_vs_0).toEqual(
       correctedMean(raw('L1-1000', 'r'), raw('marker-control', 'r'), 'difference').test,
     );
+    // So do the lab's comparisons of each line with the ancestor (lab-comparisons.ts).
+    const vs = fixed.comparisons.vsAncestor.find((x) => x.generation === 1000)!;
+    expect(vs.test).toEqual(expected.test);
+    expect(vs.ci).toEqual(expected.summary.ci);
     expect(() => analyse(evolved, { correctMarker: true })).toThrow(
       /no assay of group "marker-control"/,
     );

@@ -447,7 +447,10 @@ export function analyse(inputs: readonly AssayInput[], options: AnalysisOptions 
     markerEffect,
     reciprocal,
     comparison,
-    comparisons: labComparisons(tested),
+    comparisons: labComparisons(
+      tested,
+      options.correctMarker ? controls.map((a) => a.W) : undefined,
+    ),
     trajectories,
     sharedCurves,
   };

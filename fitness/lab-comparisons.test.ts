@@ -158,3 +158,125 @@ describe('labComparisons with blocks', () => {
     ]);
   });
 });
+
+// After the marker correction: an invented set of raw W, corrected by the controls' mean. Reference
+// values computed once with R 4.2.2 (Debian r-base-core), options(digits = 17), by this script:
+//   wc <- c(0.97, 1.01, 0.95, 0.99); mc <- mean(wc)
+//   ratio <- function(w) { R <- mean(w)/mc; u1 <- var(w)/length(w)/mean(w)^2
+//     u2 <- var(wc)/length(wc)/mc^2; se <- R*sqrt(u1 + u2)
+//     df <- (u1 + u2)^2/(u1^2/(length(w) - 1) + u2^2/(length(wc) - 1)); t <- (R - 1)/se
+//     c(R, R - qt(0.975, df)*se, R + qt(0.975, df)*se, t, df, 2*pt(-abs(t), df)) }
+//   chg <- function(b, a) { A <- a/mc; B <- b/mc; D <- mean(A) - mean(B)
+//     u <- c(var(A)/length(A), var(B)/length(B), D^2*var(wc)/length(wc)/mc^2)
+//     df <- sum(u)^2/sum(u^2/c(length(A) - 1, length(B) - 1, length(wc) - 1)); se <- sqrt(sum(u))
+//     c(D, D - qt(0.975, df)*se, D + qt(0.975, df)*se, t.test(a, b)$p.value) }
+// with p.adjust(p, "holm") and p.adjust(p, "BH") over each family.
+describe('labComparisons after the marker correction carry the controls’ uncertainty', () => {
+  const wc = [0.97, 1.01, 0.95, 0.99];
+  const mc = wc.reduce((s, w) => s + w, 0) / wc.length;
+  const raw: Record<string, [number[], number[]]> = {
+    L1: [
+      [1.08, 1.12, 1.05],
+      [1.19, 1.24, 1.15],
+    ],
+    L2: [
+      [1.02, 0.99, 1.06],
+      [1.1, 1.16, 1.13, 1.08],
+    ],
+  };
+  const corrected: LineValue[] = Object.entries(raw).flatMap(([line, gens]) =>
+    gens.flatMap((ws, i) =>
+      ws.map((w) => ({ line, generation: i === 0 ? 500 : 1000, W: w / mc, uncorrected: { W: w } })),
+    ),
+  );
+  const c = labComparisons(corrected, wc);
+
+  it('each line against the ancestor: delta-method SE with Welch–Satterthwaite df, as in R', () => {
+    const R: [string, number, number[], number, number, number, number][] = [
+      [
+        'L1',
+        500,
+        [1.1054421768707485, 1.0340542760833484, 1.1768300776581486],
+        3.8435975145183994,
+        0.015271683472413221,
+        0.030543366944826442,
+        0.020362244629884292,
+      ],
+      [
+        'L1',
+        1000,
+        [1.217687074829932, 1.1254602115432437, 1.3099139381166203],
+        3.4211300344752189,
+        0.0038208757097422654,
+        0.011462627129226795,
+        0.0076417514194845309,
+      ],
+      [
+        'L2',
+        500,
+        [1.0442176870748301, 0.97280199036184245, 1.1156333837878178],
+        3.6796600744552284,
+        0.1559424343371264,
+        0.1559424343371264,
+        0.1559424343371264,
+      ],
+      [
+        'L2',
+        1000,
+        [1.1403061224489794, 1.0827988897137815, 1.1978133551841774],
+        5.8291441042458558,
+        0.0010601021882411061,
+        0.0042404087529644245,
+        0.0042404087529644245,
+      ],
+    ];
+    for (const [line, generation, [m, lo, hi], df, p, holm, bh] of R) {
+      const x = c.vsAncestor.find((v) => v.line === line && v.generation === generation)!;
+      close(x.meanW, m!, 1e-12);
+      close(x.ci![0], lo!);
+      close(x.ci![1], hi!);
+      close(x.test!.df, df, 1e-9);
+      close(x.test!.p, p);
+      close(x.pHolm, holm);
+      close(x.pBH, bh);
+    }
+  });
+
+  it('each line’s change: interval with the controls’ term, Welch’s test, as in R', () => {
+    const R: [string, number, number, number, number, number, number][] = [
+      [
+        'L1',
+        0.11224489795918369,
+        0.016567343160049722,
+        0.20792245275831767,
+        0.031674850744978146,
+        0.041271550655087495,
+        0.031674850744978146,
+      ],
+      [
+        'L2',
+        0.096088435374149794,
+        0.023142101866310841,
+        0.16903476888198876,
+        0.020635775327543748,
+        0.041271550655087495,
+        0.031674850744978146,
+      ],
+    ];
+    for (const [line, diff, lo, hi, p, holm, bh] of R) {
+      const x = c.changes.find((v) => v.line === line)!;
+      close(x.diff, diff, 1e-12);
+      close(x.ci![0], lo);
+      close(x.ci![1], hi);
+      close(x.test!.p, p);
+      close(x.pHolm, holm);
+      close(x.pBH, bh);
+    }
+  });
+
+  it('the test of no change is the same as with the controls’ mean taken as known', () => {
+    // Under D = 0 the controls' term vanishes and the common divisor cancels from Welch's t.
+    const known = labComparisons(corrected.map(({ uncorrected: _, ...v }) => v));
+    for (const [i, x] of c.changes.entries()) close(x.test!.t, known.changes[i]!.test!.t, 1e-12);
+  });
+});

@@ -104,6 +104,7 @@ function comparisonsJson(c: LabComparisons) {
       generation: x.generation,
       n: x.n,
       mean_W: x.meanW,
+      ci: x.ci,
       ...adjustedJson(x),
     })),
     changes: c.changes.map((x) => ({
@@ -111,6 +112,7 @@ function comparisonsJson(c: LabComparisons) {
       from: x.from,
       to: x.to,
       diff_W: x.diff,
+      ci: x.ci,
       ...adjustedJson(x),
     })),
   };

@@ -295,6 +295,7 @@ function comparisonsTable(a: Analysis): TidyTable {
       line: x.line,
       term: 'W - 1',
       estimate: x.meanW - 1,
+      ...(x.ci ? { ci: [x.ci[0] - 1, x.ci[1] - 1] as [number, number] } : {}),
       ...tCells(x),
     });
   }
@@ -305,6 +306,7 @@ function comparisonsTable(a: Analysis): TidyTable {
       line: x.line,
       term: `${x.to}-${x.from}`,
       estimate: x.diff,
+      ...(x.ci ? { ci: x.ci } : {}),
       ...tCells(x),
     });
   }

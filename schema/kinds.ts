@@ -144,6 +144,7 @@ const assay = object<Assay>({
   testClass: classIndex,
   foldDilutionSinceStart: positive,
   days: positive,
+  block: nullable(nameText),
 });
 
 const sample = object<Sample>({

@@ -27,11 +27,13 @@ const STEPS: ((kind: RecordKind, record: Raw) => Raw)[] = [
   // 1 → 2: times are compared as text to find the latest edit, so all take one form.
   (_kind, record) => ({ ...record, updatedAt: canonicalTime(record.updatedAt) }),
   // 2 → 3: experiments learn from their checked plates (on, nothing learned yet); readings from
-  // before were made by the default analysis and kept no candidates to learn from.
+  // before were made by the default analysis and kept no candidates to learn from; assays name
+  // the day or batch they were run in, which older ones did not record.
   (kind, record) => {
     if (kind === 'experiments')
       return { ...record, learning: { enabled: true, model: null, since: null } };
     if (kind === 'analyses') return { ...record, learnedFrom: null, candidates: null };
+    if (kind === 'assays') return { ...record, block: record.block ?? null };
     return record;
   },
 ];

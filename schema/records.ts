@@ -98,6 +98,11 @@ export interface Assay extends Stamp {
   /** Total fold dilution between the start and end samples (1 = same flask, no transfer). */
   foldDilutionSinceStart: number;
   days: number;
+  /**
+   * The day or batch the assay was run in, so the blocked analysis can take it into account
+   * (fitness/blocks.ts); null when the lab did not record one. Added in record format 3.
+   */
+  block: string | null;
 }
 
 export type Timepoint = 'start' | 'end';

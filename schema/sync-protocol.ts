@@ -25,6 +25,7 @@ import {
   TEXT_BYTES,
 } from './check.ts';
 import { KINDS, RECORD_KINDS } from './kinds.ts';
+import { upgradeRecord } from './record-format.ts';
 import type { RecordKind, RecordsByKind } from './records.ts';
 
 /** The protocol version in the URL path (`/sync/v1/...`). */
@@ -239,6 +240,19 @@ const envelope = object<Omit<Change, 'body'>>({
 });
 
 /**
+ * A body an older app wrote, brought to the current format (record-format.ts) before its check,
+ * so a phone not yet updated can still push; one from a newer app is refused by name.
+ */
+function upgradeIn(kind: RecordKind, raw: unknown, where: string): unknown {
+  try {
+    return upgradeRecord(kind, raw);
+  } catch (e) {
+    if (e instanceof SchemaError) throw new SchemaError(`${where}.${e.field}`, e.problem);
+    throw e;
+  }
+}
+
+/**
  * One change: the envelope, then the body through the schema's check for its kind (the same check
  * the restore gate runs), with the field path named from the change down. The body must agree
  * with the envelope on id and revision, so the two never tell different stories.
@@ -252,7 +266,10 @@ export const checkChange: Check<Change> = (v, f) => {
       throw new SchemaError(`${where}.body`, 'must be null for a deletion');
     return { ...head, body: null };
   }
-  const body = KINDS[head.kind].check(raw, `${where}.body`) as RecordsByKind[RecordKind];
+  const body = KINDS[head.kind].check(
+    upgradeIn(head.kind, raw, `${where}.body`),
+    `${where}.body`,
+  ) as RecordsByKind[RecordKind];
   if (body.id !== head.id)
     throw new SchemaError(`${where}.body.id`, `must equal the change's id ${head.id}`);
   if (body.revision !== head.revision)

@@ -3,11 +3,13 @@
  * checked as RFC 6750 describes them; status codes are those of RFC 9110 (and 507 of RFC 4918).
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { RECORD_FORMAT } from '../schema/record-format.ts';
 import type { PullResponse, PushResponse, SyncErrorBody } from '../schema/sync-protocol.ts';
 import { SYNC_LIMITS } from '../schema/sync-protocol.ts';
 import { call, startTestServer, type TestServer } from '../tests/sync/harness.ts';
 import {
   analysis,
+  assay,
   benchSession,
   changeOf,
   experiment,
@@ -109,6 +111,41 @@ describe('push and pull', () => {
     expect(gone.json.accepted).toHaveLength(1);
     ({ json } = await pull(token));
     expect(json.records[0]!.heads).toMatchObject([{ deleted: true, body: null, revision: 3 }]);
+  });
+});
+
+describe('records of an older format', () => {
+  it('takes an assay pushed by an app of format 2 (no block) and serves it at the current format', async () => {
+    const token = await server.lab('format-2');
+    const { block: _unrecorded, ...older } = { ...assay('mf-L2-r1', 'L2', 1), format: 2 };
+    const pushed = await push(token, {
+      device: 'older-phone',
+      changes: [{ ...changeOf('assays', assay('mf-L2-r1', 'L2', 1)), body: older }],
+    });
+    expect(pushed.status).toBe(200);
+    const { json } = await pull(token);
+    expect(json.records[0]!.heads[0]!.body).toEqual({
+      ...older,
+      block: null,
+      format: RECORD_FORMAT,
+    });
+    const blocked = { ...assay('mf-L2-r2', 'L2', 2), block: 'day 2' };
+    expect(
+      (await push(token, { device: 'a', changes: [changeOf('assays', blocked)] })).status,
+    ).toBe(200);
+    const again = await pull(token);
+    expect(again.json.records.find((r) => r.id === 'mf-L2-r2')!.heads[0]!.body).toEqual(blocked);
+  });
+
+  it('refuses a body from a newer app by name, with the field path', async () => {
+    const token = await server.lab('format-newer');
+    const newer = { ...assay('mf-L2-r1', 'L2', 1), format: RECORD_FORMAT + 1 };
+    const refused = await push(token, {
+      device: 'a',
+      changes: [{ ...changeOf('assays', newer), body: newer }],
+    });
+    expect(refused.status).toBe(400);
+    expect(JSON.stringify(refused.json)).toContain('body.format: written by a newer version');
   });
 });
 

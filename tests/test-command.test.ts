@@ -5,9 +5,11 @@
  * drives it.
  */
 import { spawnSync } from 'node:child_process';
-import { existsSync, readdirSync, readFileSync } from 'node:fs';
+import { existsSync, mkdtempSync, readdirSync, readFileSync, symlinkSync } from 'node:fs';
+import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { describe, expect, it } from 'vitest';
+import { chromiumPath } from './support/chromium.ts';
 
 const ROOT = resolve(import.meta.dirname, '..');
 const scripts = (
@@ -66,5 +68,28 @@ describe('the test command', () => {
     );
     // Any executable stands in for the browser here: the script checks that it can run it.
     expect(ensure(process.execPath).status).toBe(0);
+  });
+
+  it('looks for chromium on PATH, and stops with what to do when there is none and no way to install', () => {
+    // A PATH of one folder holding only what the script itself runs: no browser, no apt-get.
+    const bin = mkdtempSync(join(tmpdir(), 'rivalplate-path-'));
+    const id = spawnSync('/bin/sh', ['-c', 'command -v id'], { encoding: 'utf8' }).stdout.trim();
+    symlinkSync(id, join(bin, 'id'));
+    const env = { PATH: bin, HOME: process.env.HOME ?? '/' };
+    const run = () =>
+      spawnSync('/bin/bash', [join(ROOT, 'tests/e2e/ensure-chromium.sh')], {
+        env,
+        encoding: 'utf8',
+      });
+    const absent = run();
+    expect(absent.status).toBe(1);
+    expect(absent.stderr).toContain(
+      'No chromium on PATH, and this shell cannot install it. Install it (Debian: apt-get install -y chromium)',
+    );
+    expect(chromiumPath(env)).toBeNull();
+    // Any executable named chromium stands in for the browser: the lookup only finds it.
+    symlinkSync(process.execPath, join(bin, 'chromium'));
+    expect(run().status).toBe(0);
+    expect(chromiumPath(env)).toBe(join(bin, 'chromium'));
   });
 });

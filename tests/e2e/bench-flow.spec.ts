@@ -28,6 +28,8 @@ test('set up, photograph, correct by tapping, type the other sample, see W; then
   await createExperiment(page, 'E2E pond run');
   await expect(page.getByRole('heading', { name: 'New assay' })).toBeVisible();
   await shot(page, '02-new-assay');
+  // The day the assay is run, for the blocked analysis.
+  await page.getByTestId('assay-block').fill('day 1');
   await page.getByRole('button', { name: 'Save assay' }).tap();
   const assay = page.getByTestId('assay-L1-g0-r1');
   await expect(assay).toBeVisible();
@@ -124,14 +126,14 @@ test('set up, photograph, correct by tapping, type the other sample, see W; then
     .trim()
     .split(/\r\n/);
   expect(csv[0]).toBe(
-    'assay,group,line,generation,replicate,sample,dilution_fold,volume_ul,test_colonies,reference_colonies,fold_dilution_since_start,days,test_marker',
+    'assay,group,line,generation,replicate,sample,dilution_fold,volume_ul,test_colonies,reference_colonies,fold_dilution_since_start,days,test_marker,block',
   );
   // The evolved line's colour, as learned from the photo, names its marker.
-  const marker = csv[1]!.split(',').at(-1)!;
+  const marker = csv[1]!.split(',').at(-2)!;
   expect(marker).toMatch(/^[a-z][a-z -]*$/);
   expect(csv.slice(1)).toEqual([
-    `L1 g0 r1,L1 g0,L1,0,1,start,100000,100,${corrected[1]},${corrected[0]},,1,${marker}`,
-    `L1 g0 r1,L1 g0,L1,0,1,end,10000000,100,180,95,100,1,${marker}`,
+    `L1 g0 r1,L1 g0,L1,0,1,start,100000,100,${corrected[1]},${corrected[0]},,1,${marker},day 1`,
+    `L1 g0 r1,L1 g0,L1,0,1,end,10000000,100,180,95,100,1,${marker},day 1`,
   ]);
   const resultsDownload = page.waitForEvent('download');
   await page.getByTestId('export-results').tap();

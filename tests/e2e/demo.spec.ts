@@ -48,6 +48,20 @@ test('the demo is one tap away, marked as demo data, with photos, counts and fit
     page.getByRole('img', { name: 'Relative fitness of line L1 over generations' }),
   ).toBeVisible();
   await shot(page, '22-demo-fitness');
+  // The demo's replicates were run on two days: each generation's lines are also compared with
+  // the day as a block, as aov(W ~ block + line) and as the REML mixed model.
+  const blocked = page.getByTestId('blocked-results');
+  await expect(blocked).toHaveCount(3);
+  await expect(blocked.first()).toContainText('Generation 500 in blocks (day 1, day 2)');
+  await expect(blocked.first().getByRole('row', { name: /^line 5 / })).toBeVisible();
+  await expect(blocked.first()).toContainText('SD between blocks');
+  // Every pair of the six lines at each of the three generations, by Tukey's HSD.
+  await expect(page.getByTestId('tukey-pairs').locator('tbody tr')).toHaveCount(3 * 15);
+  // Whether the six lines share one curve: one shared fit against six, by the F test.
+  const shared = page.getByTestId('shared-curves');
+  await expect(shared).toContainText(
+    /hyperbolic, one curve for L1, L2, L3, L4, L5, L6 against one per line: F\(10, \d+\) = \d/,
+  );
   const download = page.waitForEvent('download');
   await page
     .getByRole('region', { name: 'Line L1' })

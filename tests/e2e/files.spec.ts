@@ -60,6 +60,23 @@ test('a plate CSV is imported into an experiment and its fitness computed; a bad
   await expect(bothRow).toContainText(both!.meanW.toFixed(3));
   await shot(page, '50-imported-fitness');
 
+  // Corrected for the marker effect, a group's interval carries the controls' uncertainty: the
+  // app shows what the engine run on the file in Node gives (the engine is checked against R in
+  // fitness/marker-correction.test.ts).
+  const corrected = analyse(readCompetitionCsv(readFileSync(EXAMPLE, 'utf8')).assays, {
+    correctMarker: true,
+  }).groups.find((g) => g.group === 'L3-1000')!;
+  await page.getByTestId('correct-marker').tap();
+  await expect(page.getByTestId('marker-effect')).toContainText(
+    'The other assays were corrected by it',
+  );
+  const row = page.getByTestId('group-results').getByRole('row', { name: /^L3-1000 / });
+  const [low, high] = corrected.W.ci!;
+  await expect(row).toContainText(`${low.toFixed(3)}–${high.toFixed(3)}`);
+  await expect(row).toContainText(corrected.W.mean.toFixed(3));
+  await page.getByTestId('correct-marker').tap();
+  await expect(page.getByTestId('marker-effect')).toContainText('Not applied to the other assays');
+
   // The tidy tables as a zip: each file read back from the stored entries.
   await page.getByRole('link', { name: 'Files' }).tap();
   const download = page.waitForEvent('download');
@@ -115,4 +132,51 @@ test('a file that is not a photo, or an empty one, gets a message naming it and 
     .last()
     .setInputFiles(resolve(ROOT, 'fixtures/demo/marrowfield-L2-day0.jpg'));
   await expect(page.getByTestId('tally')).toBeVisible({ timeout: 60_000 });
+});
+
+test('a stored record the app cannot read is listed on the start screen, which and why, and exported as it is', async ({
+  page,
+}) => {
+  await openApp(page);
+  // An assay as an app of a later record format would store it: this one must not half-read it.
+  const later = {
+    id: 'later-assay-1',
+    revision: 1,
+    updatedAt: '2026-05-01T08:00:00.000Z',
+    format: 99,
+    experimentId: 'later-exp',
+    line: 'L1',
+  };
+  await page.evaluate(
+    (record) =>
+      new Promise<void>((done, failed) => {
+        const open = indexedDB.open('rivalplate');
+        open.onerror = () => failed(open.error);
+        open.onsuccess = () => {
+          const tx = open.result.transaction('assays', 'readwrite');
+          tx.objectStore('assays').put(record);
+          tx.oncomplete = () => {
+            open.result.close();
+            done();
+          };
+          tx.onerror = () => failed(tx.error);
+        };
+      }),
+    later,
+  );
+  await page.reload();
+  const card = page.getByRole('region', { name: 'Unreadable records' });
+  await expect(card).toContainText('Records this phone cannot read');
+  await expect(card).toContainText('later-assay-1');
+  await expect(card).toContainText('written by a newer version of the app (record format 99');
+  const download = page.waitForEvent('download');
+  await card.getByRole('button', { name: 'Export them as they are' }).tap();
+  const file = JSON.parse(readFileSync(await (await download).path(), 'utf8')) as {
+    format: string;
+    records: { kind: string; id: string; raw: unknown }[];
+  };
+  expect(file.format).toBe('rivalplate-unreadable');
+  expect(file.records).toEqual([
+    expect.objectContaining({ kind: 'assays', id: 'later-assay-1', raw: later }),
+  ]);
 });

@@ -6,18 +6,18 @@
  * until one person resolves it. The sync client runs here bundled on its own: the app's screens
  * for sync are not part of this test.
  */
-import { existsSync, rmSync, writeFileSync } from 'node:fs';
+import { rmSync, writeFileSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import { type Browser, type BrowserContext, chromium, type Page } from '@playwright/test';
 import { build } from 'vite';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Plate } from '../../schema/records.ts';
 import type { SyncStatus } from '../../web/sync/status.ts';
+import { requiredChromium } from '../support/chromium.ts';
 import type { BrowserPhone } from './browser/phone-entry.ts';
 import { startTestServer, type TestServer, tempDir } from './harness.ts';
 import { assay, experiment, plate, revised, sample } from './marrowfield.ts';
 
-const CHROMIUM = process.env.RIVALPLATE_CHROMIUM ?? '/usr/bin/chromium';
 type PhoneWindow = Window & {
   startPhone(): Promise<BrowserPhone>;
   requestBackgroundSync(): Promise<boolean>;
@@ -29,10 +29,7 @@ let server: TestServer;
 let browser: Browser;
 
 beforeAll(async () => {
-  if (!existsSync(CHROMIUM))
-    throw new Error(
-      `no Chromium at ${CHROMIUM}: run tests/e2e/ensure-chromium.sh, or set RIVALPLATE_CHROMIUM`,
-    );
+  const executablePath = requiredChromium();
   appDir = tempDir();
   await build({
     configFile: false,
@@ -55,7 +52,7 @@ beforeAll(async () => {
   // The page and the sync routes from one origin, as the server serves the real app.
   server = await startTestServer({ appDir });
   browser = await chromium.launch({
-    executablePath: CHROMIUM,
+    executablePath,
     args: [
       '--headless',
       '--no-sandbox',

@@ -57,6 +57,7 @@ export function assay(id: string, line = 'L1', replicate = 1): Assay {
     testClass: 0,
     foldDilutionSinceStart: 100,
     days: 1,
+    block: null,
   };
 }
 

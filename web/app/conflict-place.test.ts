@@ -25,6 +25,7 @@ describe('where a conflicted record sits', () => {
       testClass: 1,
       foldDilutionSinceStart: 100,
       days: 1,
+      block: '',
       startDilutionFold: 1e5,
       endDilutionFold: 1e7,
       volumeUl: 100,

@@ -1,3 +1,5 @@
+import { readdirSync, readFileSync } from 'node:fs';
+import { join, resolve } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import {
   dismissWriteFailure,
@@ -24,5 +26,17 @@ describe('saving: a write started from a tap', () => {
     expect(writeFailure()).toBeNull();
     expect(told).toBe(2);
     stop();
+  });
+
+  it('is the only way a screen writes: no write in web/ui is started and left unawaited', () => {
+    const ui = resolve(import.meta.dirname, '../ui');
+    const fired = readdirSync(ui)
+      .filter((f) => f.endsWith('.tsx'))
+      .flatMap((f) =>
+        readFileSync(join(ui, f), 'utf8')
+          .split('\n')
+          .flatMap((line, i) => (/void\s+store\./.test(line) ? [`${f}:${i + 1}`] : [])),
+      );
+    expect(fired).toEqual([]);
   });
 });

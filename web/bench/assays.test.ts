@@ -44,6 +44,14 @@ describe('fast assay entry', () => {
     });
   });
 
+  it('an assay keeps the block it was run in, blank as none; the next assay carries it over', () => {
+    expect(newAssay(e, nextAssayDraft(e, [], [], [])).assay.block).toBeNull();
+    expect(newAssay(e, { ...nextAssayDraft(e, [], [], []), block: '   ' }).assay.block).toBeNull();
+    const run = newAssay(e, { ...nextAssayDraft(e, [], [], []), block: ' day 3 ' });
+    expect(run.assay.block).toBe('day 3');
+    expect(nextAssayDraft(e, [run.assay], run.plates, run.samples).block).toBe('day 3');
+  });
+
   it('an assay has a start and an end sample with one plate each, all tied to it', () => {
     const a = newAssay(e, nextAssayDraft(e, [], [], []));
     expect(a.samples.map((s) => s.timepoint)).toEqual(['start', 'end']);

@@ -6,6 +6,8 @@ export type AssayDraft = Pick<
   Assay,
   'line' | 'generation' | 'replicate' | 'group' | 'testClass' | 'foldDilutionSinceStart' | 'days'
 > & {
+  /** The day or batch the assay is run in; blank when the lab does not record one. */
+  block: string;
   startDilutionFold: number;
   endDilutionFold: number;
   volumeUl: number;
@@ -29,6 +31,7 @@ export function newAssay(experiment: Experiment, draft: AssayDraft): NewAssay {
     testClass: draft.testClass,
     foldDilutionSinceStart: draft.foldDilutionSinceStart,
     days: draft.days,
+    block: draft.block.trim() || null,
   };
   const sample = (timepoint: Timepoint): Sample => ({
     ...newStamp(),
@@ -121,6 +124,8 @@ export function nextAssayDraft(
     testClass: last?.testClass ?? 1,
     foldDilutionSinceStart: last?.foldDilutionSinceStart ?? experiment.transferDilution,
     days: last?.days ?? 1,
+    // Replicates are usually run on one day: the last assay's block carries over.
+    block: last?.block ?? '',
     startDilutionFold: firstPlate('start')?.dilutionFold ?? experiment.defaultDilutionFold,
     endDilutionFold:
       firstPlate('end')?.dilutionFold ??

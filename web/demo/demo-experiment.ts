@@ -73,6 +73,8 @@ export function demoSeed(photoNames: readonly string[]): DemoSeed {
           testClass: 1,
           foldDilutionSinceStart: TRANSFER,
           days: 1,
+          // The invented lab ran replicate 1 of every line on one day and replicate 2 on the next.
+          block: `day ${replicate}`,
           startDilutionFold: DILUTION,
           endDilutionFold: DILUTION,
           volumeUl: 100,

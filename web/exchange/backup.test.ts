@@ -26,6 +26,7 @@ async function seeded() {
     testClass: 1,
     foldDilutionSinceStart: 100,
     days: 1,
+    block: '',
     startDilutionFold: 1e5,
     endDilutionFold: 1e5,
     volumeUl: 100,

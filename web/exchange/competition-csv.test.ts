@@ -2,6 +2,7 @@ import 'fake-indexeddb/auto';
 import { readFileSync } from 'node:fs';
 import { resolve } from 'node:path';
 import { describe, expect, it } from 'vitest';
+import { analyse } from '../../fitness/analysis.ts';
 import { REQUIRED_COLUMNS, readCompetitionCsv } from '../../fitness/competition-csv.ts';
 import type { ExperimentData } from '../bench/experiment-data.ts';
 import { newExperiment } from '../bench/experiments.ts';
@@ -32,9 +33,9 @@ function dataOf(batch: ReturnType<typeof assaysFromCsv>['batch']): ExperimentDat
 }
 
 describe('plate CSV in the fitness engine format', () => {
-  it('has exactly the columns the fitness engine requires, plus days and test_marker', () => {
+  it('has exactly the columns the fitness engine requires, plus days, test_marker and block', () => {
     const header = platesCsv([]).trim().split(',');
-    expect(header).toEqual([...REQUIRED_COLUMNS, 'days', 'test_marker']);
+    expect(header).toEqual([...REQUIRED_COLUMNS, 'days', 'test_marker', 'block']);
   });
 
   it('round-trips the shipped example: import, export, and the fitness reader sees the same plates', () => {
@@ -77,6 +78,34 @@ describe('plate CSV in the fitness engine format', () => {
         ['red', 'colour 1'],
       ]),
     );
+  });
+
+  it('carries the block column through import, storage records and export into the blocked analysis', () => {
+    // The shipped example with a block per replicate (an invented two-day schedule).
+    const [head, ...rows] = readFileSync(EXAMPLE, 'utf8').trim().split('\n');
+    const replicateAt = head!.split(',').indexOf('replicate');
+    const text = [
+      `${head},block`,
+      ...rows.map((r) => `${r},day ${r.split(',')[replicateAt]}`),
+    ].join('\n');
+    const imported = assaysFromCsv(text, 'blocks.csv', experiment);
+    const blocks = new Set(imported.batch.assays!.map((a) => a.block));
+    expect(blocks).toEqual(new Set(['day 1', 'day 2', 'day 3', 'day 4']));
+    const inputs = fitnessInputs(dataOf(imported.batch)).inputs;
+    const exported = readCompetitionCsv(platesCsv(inputs)).assays;
+    expect(exported.map((a) => a.block)).toEqual(inputs.map((a) => a.block));
+    // The app's inputs give the blocked analysis the command gives from the file itself.
+    const fromApp = analyse(inputs).comparisons.byGeneration;
+    const fromFile = analyse(readCompetitionCsv(text).assays).comparisons.byGeneration;
+    expect(fromApp.length).toBeGreaterThan(0);
+    expect(fromApp.every((g) => g.blocked !== null)).toBe(true);
+    for (const [i, g] of fromApp.entries()) {
+      const a = g.blocked!.anova;
+      const b = fromFile[i]!.blocked!.anova;
+      if ('reason' in a || 'reason' in b) throw new Error(`generation ${g.generation}: no aov`);
+      expect(a.line.f).toBeCloseTo(b.line.f, 10);
+      expect(a.block.ss).toBeCloseTo(b.block.ss, 12);
+    }
   });
 
   it('a malformed CSV is refused whole, naming the file and the row', () => {

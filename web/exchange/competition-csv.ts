@@ -4,7 +4,7 @@ import { REQUIRED_COLUMNS } from '../../fitness/competition-csv.ts';
 import { toCsv } from '../../fitness/csv-write.ts';
 
 /** The fitness engine's tidy CSV (README "Fitness from a CSV"): one row per counted plate. */
-const PLATE_COLUMNS = [...REQUIRED_COLUMNS, 'days', 'test_marker'] as const;
+const PLATE_COLUMNS = [...REQUIRED_COLUMNS, 'days', 'test_marker', 'block'] as const;
 
 export function platesCsv(inputs: readonly AssayInput[]): string {
   const rows = inputs.flatMap((a) =>
@@ -24,6 +24,7 @@ export function platesCsv(inputs: readonly AssayInput[]): string {
         sample === 'end' ? a.foldDilutionSinceStart : null,
         a.days,
         a.testMarker ?? null,
+        a.block ?? null,
       ]),
     ),
   );

@@ -46,6 +46,7 @@ export function assaysFromCsv(
       testClass: a.testMarker ? markers.classes.get(a.testMarker)! : 1,
       foldDilutionSinceStart: a.foldDilutionSinceStart,
       days: a.days,
+      block: a.block ?? '',
       startDilutionFold: first('start').dilutionFold,
       endDilutionFold: first('end').dilutionFold,
       volumeUl: first('start').volumeMl * 1000,

@@ -111,6 +111,7 @@ export function fitnessInputs(data: ExperimentData, checkedOnly = false): Fitnes
       // The colour the evolved line carried: with both colours among a line's assays (a
       // reciprocal design), the engine averages the two halves.
       testMarker: looks[assay.testClass].name,
+      ...(assay.block ? { block: assay.block } : {}),
       start,
       end,
     });

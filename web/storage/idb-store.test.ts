@@ -34,6 +34,7 @@ function assay(experimentId: string, line: string): Assay {
     testClass: 1,
     foldDilutionSinceStart: 100,
     days: 1,
+    block: null,
   };
 }
 

@@ -1,7 +1,8 @@
 /**
  * Records of an older format are upgraded on reading, from a backup file of the format the app
- * wrote before records carried one (fixtures/backup-format-1.json) and from IndexedDB; a record
- * from a newer app is refused by name and listed, never half-read.
+ * wrote before records carried one (fixtures/backup-format-1.json), from one of format 2 (assays
+ * without a block, fixtures/backup-format-2.json) and from IndexedDB; a record from a newer app
+ * is refused by name and listed, never half-read.
  */
 import 'fake-indexeddb/auto';
 import { readFileSync } from 'node:fs';
@@ -14,6 +15,7 @@ import { readBackup } from '../exchange/backup.ts';
 import { openIdbStore } from './idb-store.ts';
 
 const FILE = resolve(import.meta.dirname, '../../fixtures/backup-format-1.json');
+const FILE_2 = resolve(import.meta.dirname, '../../fixtures/backup-format-2.json');
 let stores = 0;
 
 describe('record formats', () => {
@@ -35,6 +37,7 @@ describe('record formats', () => {
     expect(await store.get('assays', old.id)).toEqual({
       ...old,
       updatedAt: '2026-03-02T09:01:00.000Z',
+      block: null,
       format: RECORD_FORMAT,
     });
     const newer = { ...old, id: 'mf-L1-r2', format: RECORD_FORMAT + 1 };
@@ -42,10 +45,8 @@ describe('record formats', () => {
     expect(await store.get('assays', 'mf-L1-r2')).toBeUndefined();
     const [listed] = await store.unreadable();
     expect(listed).toMatchObject({ kind: 'assays', id: 'mf-L1-r2', raw: newer });
-    expect(listed!.reason).toMatch(
-      new RegExp(
-        `format: written by a newer version of the app \\(record format ${RECORD_FORMAT + 1}`,
-      ),
+    expect(listed!.reason).toContain(
+      `format: written by a newer version of the app (record format ${RECORD_FORMAT + 1}`,
     );
   });
 
@@ -115,5 +116,31 @@ describe('record formats', () => {
       ok: false,
       error: expect.stringMatching(/^backup\.json, experiments\[0\]: learning\.model: /),
     });
+  });
+
+  it('reads a backup of format 2 whole: assays gain a null block, nothing else changes', () => {
+    const text = readFileSync(FILE_2, 'utf8');
+    const before = JSON.parse(text) as { records: Record<string, Record<string, unknown>[]> };
+    const { batch, count } = readBackup(text, 'backup-format-2.json');
+    expect(count).toBe(5);
+    const assay = batch.assays![0]!;
+    expect(assay).toEqual({ ...before.records.assays![0], block: null, format: RECORD_FORMAT });
+    expect(batch.plates![0]).toEqual({ ...before.records.plates![0], format: RECORD_FORMAT });
+  });
+
+  it('upgrades an assay stored at format 2 to one with a null block; a named block is kept', async () => {
+    const store = await openIdbStore(`format-${++stores}`);
+    const doc = JSON.parse(readFileSync(FILE_2, 'utf8')) as { records: { assays: Assay[] } };
+    // Stored as the app of format 2 stored it: no block field.
+    const old = doc.records.assays[0]!;
+    await store.put('assays', old);
+    expect(await store.get('assays', old.id)).toEqual({
+      ...old,
+      block: null,
+      format: RECORD_FORMAT,
+    });
+    await store.put('assays', { ...old, id: 'mf-L1-r3', block: 'day 2', format: RECORD_FORMAT });
+    expect((await store.get('assays', 'mf-L1-r3'))?.block).toBe('day 2');
+    expect(await store.unreadable()).toEqual([]);
   });
 });

@@ -38,7 +38,9 @@ export function AssayCard({
           className="btn quiet"
           title="Swap which colour is the evolved line"
           onClick={() =>
-            void store.put('assays', revised(assay, { testClass: otherClass(assay.testClass) }))
+            saving('the swapped test colour', () =>
+              store.put('assays', revised(assay, { testClass: otherClass(assay.testClass) })),
+            )
           }
         >
           test <span className="dot" style={{ background: test.hex }} /> {test.name} · ref{' '}
@@ -48,6 +50,7 @@ export function AssayCard({
       <p className="muted" style={{ margin: '4px 0 8px' }}>
         {assay.foldDilutionSinceStart}-fold between samples · {assay.days} day
         {assay.days === 1 ? '' : 's'} · group {assay.group}
+        {assay.block && ` · block ${assay.block}`}
       </p>
       <div className="plates">
         {samples.map((s) => {

@@ -131,6 +131,15 @@ export function AssayForm({ data, onClose }: { data: ExperimentData; onClose: ()
         <NumberField label="Days" value={draft.days} onChange={set('days')} />
       </div>
       <label className="field">
+        Block: the day or batch it is run in (optional)
+        <input
+          value={draft.block ?? ''}
+          data-testid="assay-block"
+          placeholder="e.g. day 1"
+          onChange={(e) => set('block')(e.target.value)}
+        />
+      </label>
+      <label className="field">
         Group (blank: line and generation)
         <input
           value={draft.group ?? ''}

@@ -11,7 +11,7 @@ import { assaysFromCsv } from '../exchange/import-csv.ts';
 import { checkedPlatesExport } from '../exchange/learning-export.ts';
 import { zipStore } from '../exchange/zip.ts';
 import { fitnessInputs } from '../results/assay-inputs.ts';
-import { experimentFitness } from '../results/experiment-fitness.ts';
+import { ALL_UNCORRECTED, experimentFitness } from '../results/experiment-fitness.ts';
 import { counted } from '../words/counted.ts';
 import { ConfirmButton } from './ConfirmButton.tsx';
 import { StorageCard } from './StorageCard.tsx';
@@ -114,7 +114,7 @@ export function DataTab({ data }: { data: ExperimentData }) {
             className="btn"
             data-testid="export-results"
             onClick={() =>
-              experimentFitness(fitness, data, false)
+              experimentFitness(fitness, data, ALL_UNCORRECTED)
                 .then((fit) => {
                   if (!fit.analysis)
                     return say(false, 'No assay has counted start and end plates yet.', 'export');
@@ -134,7 +134,7 @@ export function DataTab({ data }: { data: ExperimentData }) {
             className="btn"
             data-testid="export-tables"
             onClick={() =>
-              experimentFitness(fitness, data, false)
+              experimentFitness(fitness, data, ALL_UNCORRECTED)
                 .then((fit) => {
                   if (!fit.analysis)
                     return say(false, 'No assay has counted start and end plates yet.');

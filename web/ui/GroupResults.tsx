@@ -1,5 +1,6 @@
 import type { Analysis } from '../../fitness/analysis.ts';
 import { fixed3, interval, pValue } from '../results/format.ts';
+import { LineComparisons } from './LineComparisons.tsx';
 
 /**
  * Replicate groups (with the assays each left out, and a mark where one rests on photo counts
@@ -9,14 +10,16 @@ import { fixed3, interval, pValue } from '../results/format.ts';
 export function GroupResults({
   analysis,
   unchecked,
+  onCorrect,
 }: {
   analysis: Analysis;
   /** Groups with an assay resting on photo counts nobody checked. */
   unchecked: ReadonlySet<string>;
+  /** Turns the marker correction on or off. */
+  onCorrect: (on: boolean) => void;
 }) {
   const m = analysis.markerEffect;
   const c = analysis.comparison;
-  const lab = analysis.comparisons;
   return (
     <section className="card" aria-label="Groups">
       <h2>Replicate groups</h2>
@@ -60,78 +63,23 @@ export function GroupResults({
         Two-sided one-sample t-tests; intervals from Student's t. Assays whose W is only a bound (a
         strain had no colony) or that could not be computed are left out and counted.
       </p>
-      {lab.byGeneration.length > 0 && (
-        <>
-          <h3>Lines within each generation</h3>
-          <div className="table-wrap">
-            <table className="results num" data-testid="lines-by-generation">
-              <thead>
-                <tr>
-                  <th>Generation</th>
-                  <th>Lines</th>
-                  <th>ANOVA p</th>
-                  <th>Welch ANOVA p</th>
-                  <th>Pairs apart (Tukey p &lt; 0.05)</th>
-                </tr>
-              </thead>
-              <tbody>
-                {lab.byGeneration.map((g) => (
-                  <tr key={g.generation}>
-                    <td>{g.generation}</td>
-                    <td>{g.lines.length}</td>
-                    <td>{pValue(g.anova?.p)}</td>
-                    <td>{pValue(g.welch?.p)}</td>
-                    <td style={{ textAlign: 'left' }}>
-                      {g.tukey
-                        ?.filter((t) => t.pAdjusted < 0.05)
-                        .map((t) => `${t.first}–${t.second}`)
-                        .join(', ') || '—'}
-                    </td>
-                  </tr>
-                ))}
-              </tbody>
-            </table>
-          </div>
-        </>
-      )}
-      {lab.vsAncestor.length > 0 && (
-        <details>
-          <summary>Each line against the ancestor (W = 1), adjusted for many tests</summary>
-          <div className="table-wrap">
-            <table className="results num">
-              <thead>
-                <tr>
-                  <th>Line</th>
-                  <th>Generation</th>
-                  <th>mean W</th>
-                  <th>p</th>
-                  <th>p Holm</th>
-                  <th>p BH</th>
-                </tr>
-              </thead>
-              <tbody>
-                {lab.vsAncestor.map((x) => (
-                  <tr key={`${x.line}@${x.generation}`}>
-                    <td>{x.line}</td>
-                    <td>{x.generation}</td>
-                    <td>{fixed3(x.meanW)}</td>
-                    <td>{pValue(x.test?.p)}</td>
-                    <td>{pValue(x.pHolm)}</td>
-                    <td>{pValue(x.pBH)}</td>
-                  </tr>
-                ))}
-              </tbody>
-            </table>
-          </div>
-        </details>
-      )}
+      <LineComparisons comparisons={analysis.comparisons} corrected={Boolean(m?.applied)} />
       {m && (
         <p data-testid="marker-effect">
           <b>Marker effect</b> ({m.group}, n = {m.n}): mean W {fixed3(m.W.mean)}, 95% CI{' '}
           {interval(m.W.ci)}, p (W = 1) {pValue(m.W_vs_1?.p)}.{' '}
           {m.applied
-            ? 'The other assays were corrected by it.'
-            : 'Not applied to the other assays.'}
+            ? "The other assays were corrected by it (W divided by the controls' mean W, r less their mean r); intervals and tests carry the controls' uncertainty."
+            : 'Not applied to the other assays.'}{' '}
+          <button
+            type="button"
+            className="btn quiet"
+            data-testid="correct-marker"
+            aria-pressed={m.applied}
+            onClick={() => onCorrect(!m.applied)}
+          >
+            {m.applied ? 'Show uncorrected values' : 'Correct for the marker effect'}
+          </button>
         </p>
       )}
       {c?.W && (

@@ -7,6 +7,7 @@ import { counted } from '../words/counted.ts';
 import { AssayResults } from './AssayResults.tsx';
 import { GroupResults } from './GroupResults.tsx';
 import { ReciprocalResults } from './ReciprocalResults.tsx';
+import { SharedCurves } from './SharedCurves.tsx';
 import { TrajectoryCard } from './TrajectoryCard.tsx';
 
 export function ResultsTab({ data }: { data: ExperimentData }) {
@@ -14,7 +15,11 @@ export function ResultsTab({ data }: { data: ExperimentData }) {
     `results-checked-only.${data.experiment.id}`,
     () => false,
   );
-  const computed = useFitness(data, checkedOnly);
+  const [correctMarker, setCorrectMarker] = useDraft(
+    `results-correct-marker.${data.experiment.id}`,
+    () => false,
+  );
+  const computed = useFitness(data, { checkedOnly, correctMarker });
   if (computed.state === 'computing')
     return (
       <p className="card muted" role="status">
@@ -22,7 +27,16 @@ export function ResultsTab({ data }: { data: ExperimentData }) {
       </p>
     );
   if (computed.state === 'failed')
-    return <p className="banner alarm">Fitness could not be computed: {computed.error}</p>;
+    return (
+      <div className="banner alarm">
+        <p>Fitness could not be computed: {computed.error}</p>
+        {correctMarker && (
+          <button type="button" className="btn" onClick={() => setCorrectMarker(false)}>
+            Show uncorrected values
+          </button>
+        )}
+      </div>
+    );
   const fit = computed.fit;
   const a = fit.analysis;
   return (
@@ -84,11 +98,16 @@ export function ResultsTab({ data }: { data: ExperimentData }) {
       {a && (
         <>
           <AssayResults analysis={a} imageFlags={fit.imageFlags} unchecked={fit.unchecked} />
-          <GroupResults analysis={a} unchecked={uncheckedGroups(a, fit.unchecked)} />
+          <GroupResults
+            analysis={a}
+            unchecked={uncheckedGroups(a, fit.unchecked)}
+            onCorrect={setCorrectMarker}
+          />
           <ReciprocalResults analysis={a} />
           {a.trajectories.map((t) => (
             <TrajectoryCard key={t.line} trajectory={t} assays={a.assays} />
           ))}
+          <SharedCurves tests={a.sharedCurves} />
         </>
       )}
     </>

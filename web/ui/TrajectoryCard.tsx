@@ -72,6 +72,7 @@ export function TrajectoryCard({
               <tr>
                 <th>Model</th>
                 <th>AIC</th>
+                <th>AICc</th>
                 <th>BIC</th>
                 <th>ΔAIC</th>
               </tr>
@@ -81,6 +82,7 @@ export function TrajectoryCard({
                 <tr key={r.model}>
                   <td>{MODEL_NAMES[r.model] ?? r.model}</td>
                   <td>{r.aic.toFixed(1)}</td>
+                  <td>{r.aicc === null ? '—' : r.aicc.toFixed(1)}</td>
                   <td>{r.bic.toFixed(1)}</td>
                   <td>{r.deltaAic.toFixed(1)}</td>
                 </tr>
