@@ -171,9 +171,10 @@ export function selectCandidates(
       rejected.shades++;
       return false;
     }
+    // ... or as large and round, alone in its blob: a colony darker than its agar in soft focus.
     const colonySized =
       r.area >= SHADE_AREA * minArea &&
-      (r.contrast >= SHADE_CONTRAST * threshold || (comp !== undefined && isRound(comp)));
+      (r.contrast >= SHADE_CONTRAST * threshold || (comp !== undefined && isRoundAlone(r, comp)));
     if (!isGreyShade(r) || (colonySized && !nearGlare(r))) return true;
     rejected.shades++;
     return false;
@@ -252,6 +253,11 @@ function componentVerdict(
  */
 function isRound(c: ComponentStats): boolean {
   return c.rimPixels === 0 && c.area / (Math.PI * Math.max(1, c.halfWidth) ** 2) <= ROUND_BLOB;
+}
+
+/** A round region that is the whole of a round blob touching nothing. */
+function isRoundAlone(r: RegionStats, c: ComponentStats): boolean {
+  return c.regions === 1 && isRound(c) && clumpCount(r, r.area) === 1;
 }
 
 /**

@@ -4,6 +4,7 @@ import { oddAtLeast } from './kernel-size.ts';
 import type { Keep } from './mat-scope.ts';
 import { withMats } from './mat-scope.ts';
 import type { Mat, OpenCv } from './opencv.ts';
+import type { Rect } from './opencv-slice.ts';
 
 /**
  * Colony foreground: pixels that differ from the local agar by more than the noise allows.
@@ -38,28 +39,69 @@ export function segmentForeground(
 ): Foreground {
   const noise = medianWithin(agar.deltaE, agar.countMask);
   const threshold = Math.max(MIN_CONTRAST, NOISE_MULTIPLE * noise);
-  // A learned model may widen the search (reach < 1): the mask is drawn with lower thresholds,
-  // while the thresholds handed on to the default rules stay as they are.
   const mask = keep(new cv.Mat());
   withMats((k) => {
-    const above = k(new cv.Mat());
-    cv.threshold(agar.deltaE, above, reach * threshold, 255, cv.THRESH_BINARY);
-    above.convertTo(mask, cv.CV_8U);
-    cv.bitwise_and(mask, agar.countMask, mask);
-    const size = oddAtLeast(3, 0.2 / frame.mmPerPx);
-    const disc = k(cv.getStructuringElement(cv.MORPH_ELLIPSE, new cv.Size(size, size)));
-    cv.morphologyEx(mask, mask, cv.MORPH_OPEN, disc);
-    clearThinAlongWall(cv, k, mask, agar.wallBand, frame);
-    cutFromWall(cv, k, mask, agar, frame);
+    thresholdMask(cv, k, mask, agar, frame, threshold);
+    if (reach < 1) addWiderObjects(cv, k, mask, agar, frame, reach * threshold);
   });
   const faintThreshold = Math.max(FAINT_MIN_CONTRAST, FAINT_MULTIPLE * noise);
-  withMats((k) => addFaintDiscs(cv, k, mask, agar, frame, reach * faintThreshold));
+  withMats((k) => addFaintDiscs(cv, k, mask, agar, frame, faintThreshold));
   withMats((k) => {
     const lighter = k(lighterThanAgar(cv, k, agar));
     fillColonyHoles(cv, mask, lighter, Math.PI * (RING_COLONY_MAX_MM / 2 / frame.mmPerPx) ** 2);
   });
   cutLightFromDark(cv, mask, agar);
   return { mask, threshold, faintThreshold };
+}
+
+/** The pixels above `level`, noise specks opened away, the wall's arcs and ring cleared. */
+function thresholdMask(
+  cv: OpenCv,
+  k: Keep,
+  mask: Mat,
+  agar: AgarModel,
+  frame: WorkingFrame,
+  level: number,
+): void {
+  const above = k(new cv.Mat());
+  cv.threshold(agar.deltaE, above, level, 255, cv.THRESH_BINARY);
+  above.convertTo(mask, cv.CV_8U);
+  cv.bitwise_and(mask, agar.countMask, mask);
+  const size = oddAtLeast(3, 0.2 / frame.mmPerPx);
+  const disc = k(cv.getStructuringElement(cv.MORPH_ELLIPSE, new cv.Size(size, size)));
+  cv.morphologyEx(mask, mask, cv.MORPH_OPEN, disc);
+  clearThinAlongWall(cv, k, mask, agar.wallBand, frame);
+  cutFromWall(cv, k, mask, agar, frame);
+}
+
+/**
+ * A learned model may widen the search (reach < 1, see cv learned-model.ts searchReach): objects
+ * above the lower `level` that touch nothing the default threshold found are added, for the model
+ * to judge (the thresholds handed on to the default rules stay as they are, so those rules reject
+ * them). What the default threshold found keeps its outline, so the default reading of every
+ * other object is unchanged.
+ */
+function addWiderObjects(
+  cv: OpenCv,
+  k: Keep,
+  mask: Mat,
+  agar: AgarModel,
+  frame: WorkingFrame,
+  level: number,
+): void {
+  const wide = k(new cv.Mat());
+  thresholdMask(cv, k, wide, agar, frame, level);
+  const labels = k(new cv.Mat());
+  const n = cv.connectedComponents(wide, labels, 8, cv.CV_32S);
+  const near = k(new cv.Mat());
+  cv.dilate(mask, near, k(cv.getStructuringElement(cv.MORPH_RECT, new cv.Size(3, 3))));
+  const touching = new Uint8Array(n);
+  const l = labels.data32S;
+  const m = near.data;
+  for (let i = 0; i < l.length; i++) if (m[i] && l[i]) touching[l[i]!] = 1;
+  const w = wide.data;
+  const out = mask.data;
+  for (let i = 0; i < l.length; i++) if (w[i] && !touching[l[i]!]) out[i] = 255;
 }
 
 /**
@@ -99,8 +141,11 @@ const FAINT_MIN_MM = 0.8;
 const FAINT_FILL = 0.65;
 /** Larger than this (mm across) a faint patch is lighting or a smear, not a colony. */
 const FAINT_MAX_MM = 5;
-/** A faint disc is added when the pixel threshold found less than this share of its square. */
-const FAINT_FOUND = 0.3;
+/** A faint disc is added when the mask holds less than FAINT_FOUND of it and FAINT_AROUND of a
+ * ring FAINT_RING_MM wide round it (see foundShares). */
+const FAINT_FOUND = 0.5;
+const FAINT_AROUND = 0.15;
+const FAINT_RING_MM = 0.3;
 function addFaintDiscs(
   cv: OpenCv,
   k: Keep,
@@ -118,6 +163,9 @@ function addFaintDiscs(
   const low = k(new cv.Mat());
   above.convertTo(low, cv.CV_8U);
   cv.bitwise_and(low, agar.countMask, low);
+  // Not in the wall band: there the meniscus and air bubbles pinned at the wall make round,
+  // faintly lighter patches of their own.
+  cv.subtract(low, agar.wallBand, low);
   const size = oddAtLeast(3, FAINT_MIN_MM / frame.mmPerPx);
   const disc = k(cv.getStructuringElement(cv.MORPH_ELLIPSE, new cv.Size(size, size)));
   cv.morphologyEx(low, low, cv.MORPH_OPEN, disc);
@@ -125,43 +173,78 @@ function addFaintDiscs(
   const hierarchy = k(new cv.Mat());
   cv.findContours(low, contours, hierarchy, cv.RETR_EXTERNAL, cv.CHAIN_APPROX_SIMPLE);
   const maxRadius = FAINT_MAX_MM / 2 / frame.mmPerPx;
+  const gap = Math.max(2, Math.round(FAINT_RING_MM / frame.mmPerPx));
+  const scratch = k(cv.Mat.zeros(mask.rows, mask.cols, cv.CV_8UC1));
+  const grow = k(cv.getStructuringElement(cv.MORPH_ELLIPSE, new cv.Size(2 * gap + 1, 2 * gap + 1)));
   for (let i = 0; i < contours.size(); i++) {
     const c = k(contours.get(i));
     const { center, radius } = cv.minEnclosingCircle(c);
-    const area = cv.contourArea(c);
-    if (area < FAINT_FILL * Math.PI * radius ** 2 || radius > maxRadius) continue;
-    // Round what the pixel threshold found, the lower one only grows a halo that would join
-    // neighbours: a disc is added where the pixel threshold found little of it.
-    if (foundShare(cv, k, mask, center, radius) < FAINT_FOUND)
+    if (cv.contourArea(c) < FAINT_FILL * Math.PI * radius ** 2 || radius > maxRadius) continue;
+    cv.drawContours(scratch, contours, i, [255, 0, 0, 0], -1);
+    const share = foundShares(
+      cv,
+      k,
+      mask,
+      scratch,
+      grow,
+      squareAround(cv, mask, center, radius + gap),
+    );
+    cv.drawContours(scratch, contours, i, [0, 0, 0, 0], -1);
+    if (share.inside < FAINT_FOUND && share.around < FAINT_AROUND)
       cv.drawContours(mask, contours, i, [255, 0, 0, 0], -1);
   }
 }
 
-/** The share of the mask inside the square round a circle (clipped to the image). */
-function foundShare(
+/**
+ * How much of a patch (0/255 in `patch`) and of a ring `grow` wide round it the mask already
+ * holds, within `box`. Round what the pixel threshold found the lower one only grows a halo, and
+ * between touching colonies, or inside an air bubble's dark rim, it finds a pocket of agar: a
+ * faint disc is added only where the pixel threshold found little of it and little round it.
+ */
+function foundShares(
   cv: OpenCv,
   k: Keep,
   mask: Mat,
+  patch: Mat,
+  grow: Mat,
+  box: Rect,
+): { inside: number; around: number } {
+  const m = k(mask.roi(box));
+  const inside = k(patch.roi(box));
+  const ring = k(new cv.Mat());
+  cv.dilate(inside, ring, grow);
+  cv.subtract(ring, inside, ring);
+  return { inside: cv.mean(m, inside)[0]! / 255, around: cv.mean(m, ring)[0]! / 255 };
+}
+
+/** The square round a circle, clipped to the image. */
+function squareAround(
+  cv: OpenCv,
+  mask: Mat,
   centre: { x: number; y: number },
   radius: number,
-): number {
+): Rect {
   const x0 = Math.max(0, Math.floor(centre.x - radius));
   const y0 = Math.max(0, Math.floor(centre.y - radius));
   const x1 = Math.min(mask.cols, Math.ceil(centre.x + radius));
   const y1 = Math.min(mask.rows, Math.ceil(centre.y + radius));
-  if (x1 <= x0 || y1 <= y0) return 1;
-  return cv.mean(k(mask.roi(new cv.Rect(x0, y0, x1 - x0, y1 - y0))))[0]! / 255;
+  return new cv.Rect(x0, y0, Math.max(1, x1 - x0), Math.max(1, y1 - y0));
 }
 
 /**
  * A blob that runs along the wall for more than WALL_RUN_MM is the wall's own ring (a meniscus or
  * reflection too thick for the opening above) with whatever touches it: writing near the rim,
  * colonies at the wall. Judged as one blob, nothing in it would look like a stroke or a colony,
- * so its part inside the wall band is cut away and what touched it is judged on its own. The run
+ * so its thin part inside the wall band is cut away and what touched it is judged on its own. The run
  * is measured as the blob's pixels on the counting area's outermost ring (`rim`), one pixel per
  * pixel of wall length; a colony at the wall touches it over at most its own diameter.
  */
 const WALL_RUN_MM = 6;
+/**
+ * A colony growing at the wall holds a disc this wide (mm) inside the wall band; the band is
+ * WALL_ZONE_MM (1.2 mm) wide, and the wall's ring and glints are thinner than that.
+ */
+const WALL_COLONY_MM = 1.2;
 function cutFromWall(cv: OpenCv, k: Keep, mask: Mat, agar: AgarModel, frame: WorkingFrame): void {
   const labels = k(new cv.Mat());
   const n = cv.connectedComponents(mask, labels, 8, cv.CV_32S);
@@ -185,6 +268,16 @@ function cutFromWall(cv: OpenCv, k: Keep, mask: Mat, agar: AgarModel, frame: Wor
     cv.bitwise_or(along, one, along);
   }
   cv.bitwise_and(along, agar.wallBand, along);
+  // What in that part holds a disc WALL_COLONY_MM across is a colony growing at the wall: kept.
+  const size = oddAtLeast(3, WALL_COLONY_MM / frame.mmPerPx);
+  const thick = k(new cv.Mat());
+  cv.morphologyEx(
+    along,
+    thick,
+    cv.MORPH_OPEN,
+    k(cv.getStructuringElement(cv.MORPH_ELLIPSE, new cv.Size(size, size))),
+  );
+  cv.subtract(along, thick, along);
   cv.subtract(mask, along, mask);
 }
 
