@@ -13,7 +13,8 @@ import { join, resolve } from 'node:path';
 import { parseArgs } from 'node:util';
 import { SYNC_LIMITS } from '../schema/sync-protocol.ts';
 import { buildSyncServer } from '../server/app.ts';
-import { DataFolderError, openDataFolder } from '../server/data-folder.ts';
+import { DataFolderError } from '../server/data-folder.ts';
+import { DB_PASSWORD_ENV, openStore } from '../server/open-store.ts';
 import { SyncRefusal } from '../server/refusal.ts';
 import { DATA_OPTION } from './data-option.ts';
 import type { CommandIo } from './io.ts';
@@ -21,15 +22,21 @@ import { UsageError } from './options.ts';
 import { addToken, listTokens, revokeToken } from './token-commands.ts';
 
 const USAGE = `Usage:
-  rivalplate server start [--port 8640] [--host 127.0.0.1] [--data DIR] [--app DIR]
+  rivalplate server start [--port 8640] [--host 127.0.0.1] [--data DIR | --db URL] [--app DIR]
                           [--tls-cert FILE --tls-key FILE] [--max-db-mb N]
-  rivalplate server add-lab NAME [--no-photos] [--photo-max-mb 20] [--max-mb 2048] [--data DIR]
-  rivalplate server add-token LAB [--label TEXT] [--data DIR]
-  rivalplate server list-tokens LAB [--data DIR]
-  rivalplate server revoke-token LAB ID [--data DIR]
+  rivalplate server add-lab NAME [--no-photos] [--photo-max-mb 20] [--max-mb 2048] [--data DIR | --db URL]
+  rivalplate server add-token LAB [--label TEXT] [--data DIR | --db URL]
+  rivalplate server list-tokens LAB [--data DIR | --db URL]
+  rivalplate server revoke-token LAB ID [--data DIR | --db URL]
+  rivalplate server copy --from DIR --to URL
 
 add-token prints the token once, on its last line; list-tokens shows each token's id, label,
-dates and whether it is revoked; revoke-token takes an id from that list.`;
+dates and whether it is revoked; revoke-token takes an id from that list.
+
+--data DIR keeps everything in one SQLite file in DIR (default rivalplate-data). --db URL keeps
+it in PostgreSQL instead (postgres://USER@HOST:PORT/DATABASE), so several server processes can
+serve one database; the password may be in the URL or, better, in $${DB_PASSWORD_ENV}.
+copy moves a data folder's labs, tokens, records and photos into an empty PostgreSQL database.`;
 const DEFAULT_PORT = 8640;
 /** A lab's share of the server unless `add-lab --max-mb` says otherwise. */
 const DEFAULT_LAB_MB = 2048;
@@ -72,7 +79,17 @@ async function start(args: string[], io: CommandIo): Promise<number> {
     ? { cert: readFileSync(values['tls-cert']), key: readFileSync(values['tls-key']!) }
     : undefined;
   const dataDir = resolve(io.cwd, values.data);
-  const { store, file } = openDataFolder(dataDir, maxMb ? maxMb * MB : undefined);
+  if (values.db !== undefined && maxMb) {
+    io.err(
+      'rivalplate server: --max-db-mb caps the SQLite file; PostgreSQL is sized by its own means',
+    );
+    return 2;
+  }
+  const { store, where } = await openStore({
+    dataDir,
+    db: values.db,
+    maxBytes: maxMb ? maxMb * MB : undefined,
+  });
   const appDir = resolve(io.cwd, values.app);
   const app = await buildSyncServer({
     store,
@@ -81,7 +98,7 @@ async function start(args: string[], io: CommandIo): Promise<number> {
     ...(tls ? { tls } : {}),
   });
   const url = await app.listen({ port, host: values.host });
-  io.out(`Sync server on ${url} (data in ${file})`);
+  io.out(`Sync server on ${url} (data in ${where})`);
   if (!existsSync(join(appDir, 'index.html')))
     io.err(
       `No built app in ${appDir}: phones get only the sync routes until "npx vite build" is run`,
@@ -129,7 +146,7 @@ async function addLab(args: string[], io: CommandIo): Promise<number> {
     io.err(wrong !== null ? `rivalplate server: ${wrong}` : USAGE);
     return 2;
   }
-  const { store } = openDataFolder(resolve(io.cwd, values.data));
+  const { store } = await openStore({ dataDir: resolve(io.cwd, values.data), db: values.db });
   try {
     await store.addLab(name, {
       photosEnabled: !values['no-photos'],

@@ -1,7 +1,10 @@
 /**
  * The SQLite engine behind SyncStore: one database file, opened with better-sqlite3. Its calls
  * are synchronous, which makes each transaction run start to end without another request
- * interleaving; the async interface is kept for engines that cannot do that.
+ * interleaving; the async interface is kept for engines that cannot do that. Writes begin
+ * IMMEDIATE (the file's write lock is taken before anything is read), so a second process on the
+ * same file (the command line, or another server) waits its turn instead of failing on a snapshot
+ * that went stale between the read and the write; seqs are then assigned in commit order.
  */
 import { createHash } from 'node:crypto';
 import Database from 'better-sqlite3';
@@ -357,7 +360,7 @@ export function openSqliteStore(options: SqliteOptions): SyncStore {
       return q.tokensOfLab.all(labId).map(tokenFromRow);
     },
     async revokeToken(labId, id) {
-      return guarded(() => revokeAll(labId, id));
+      return guarded(() => revokeAll.immediate(labId, id));
     },
     async tokenAccess(hash): Promise<TokenAccess | undefined> {
       const row = q.labByToken.get(hash);
@@ -367,7 +370,7 @@ export function openSqliteStore(options: SqliteOptions): SyncStore {
       return { lab: labFromRow(row), revokedAt: row.revoked_at };
     },
     async push(labId, device, changes) {
-      return guarded(() => pushAll(labId, device, changes));
+      return guarded(() => pushAll.immediate(labId, device, changes));
     },
     async pull(labId, since, limit, maxBytes) {
       // One read transaction, so the records and their heads are from the same moment.
@@ -399,13 +402,13 @@ export function openSqliteStore(options: SqliteOptions): SyncStore {
       })();
     },
     async beginUpload(labId, request) {
-      return guarded(() => begin(labId, request));
+      return guarded(() => begin.immediate(labId, request));
     },
     async upload(labId, photoId) {
-      return guarded(() => settled(labId, photoId));
+      return guarded(() => settled.immediate(labId, photoId));
     },
     async appendChunk(labId, photoId, offset, bytes) {
-      return guarded(() => appendAll(labId, photoId, offset, bytes));
+      return guarded(() => appendAll.immediate(labId, photoId, offset, bytes));
     },
     async *photoChunks(labId, photoId) {
       // One chunk read at a time by its offset, so a photo is never held whole in memory and no

@@ -7,6 +7,7 @@ import { type ChildProcess, spawn } from 'node:child_process';
 import { resolve } from 'node:path';
 import { createInterface } from 'node:readline';
 import { SYNC_BASE_PATH } from '../../schema/sync-protocol.ts';
+import { databaseArgs } from './test-database.ts';
 
 const BIN = resolve(import.meta.dirname, '../../bin/rivalplate.js');
 
@@ -44,7 +45,10 @@ process.once('exit', () => {
   for (const child of running) child.kill('SIGKILL');
 });
 
-/** `port` 0 takes any free port; a fixed one lets a restarted server keep its address. */
+/**
+ * `dataDir`: a data folder or a postgres:// URL (test-database.ts). `port` 0 takes any free port;
+ * a fixed one lets a restarted server keep its address.
+ */
 export function startChildServer(
   dataDir: string,
   port = 0,
@@ -52,7 +56,7 @@ export function startChildServer(
 ): Promise<ChildServer> {
   const child = spawn(
     process.execPath,
-    [BIN, 'server', 'start', '--port', String(port), '--data', dataDir],
+    [BIN, 'server', 'start', '--port', String(port), ...databaseArgs(dataDir)],
     {
       stdio: ['ignore', 'pipe', 'pipe'],
     },
