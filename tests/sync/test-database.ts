@@ -93,7 +93,9 @@ export async function openReader(
     return {
       async rows(sql, ...params) {
         const statement = db.prepare(sql);
-        return statement.reader ? statement.all(...params) : (statement.run(...params), []);
+        if (statement.reader) return statement.all(...params);
+        statement.run(...params);
+        return [];
       },
       async close() {
         db.close();
