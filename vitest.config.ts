@@ -40,6 +40,8 @@ export default defineConfig({
           ...shared,
           name: 'sqlite',
           include: ['{cv,fitness,schema,worker,web,server,cli,fixtures,tests}/**/*.test.ts'],
+          // Copies into PostgreSQL: it needs the cluster of the `postgres` project.
+          exclude: [...shared.exclude, 'cli/server-copy.test.ts'],
         },
       },
       {

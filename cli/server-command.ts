@@ -7,14 +7,18 @@
  *   server add-token LAB [--label TEXT]
  *   server list-tokens LAB
  *   server revoke-token LAB ID
+ *   server copy --from DIR --to URL
+ *
+ * Each takes --data DIR (SQLite, the default) or --db postgres://... (PostgreSQL).
  */
 import { existsSync, readFileSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import { parseArgs } from 'node:util';
 import { SYNC_LIMITS } from '../schema/sync-protocol.ts';
 import { buildSyncServer } from '../server/app.ts';
+import { CopyError, copyToPostgres } from '../server/copy-to-postgres.ts';
 import { DataFolderError } from '../server/data-folder.ts';
-import { DB_PASSWORD_ENV, openStore } from '../server/open-store.ts';
+import { DB_PASSWORD_ENV, isPostgresUrl, openStore } from '../server/open-store.ts';
 import { SyncRefusal } from '../server/refusal.ts';
 import { DATA_OPTION } from './data-option.ts';
 import type { CommandIo } from './io.ts';
@@ -162,12 +166,43 @@ async function addLab(args: string[], io: CommandIo): Promise<number> {
   }
 }
 
+async function copy(args: string[], io: CommandIo): Promise<number> {
+  const { values, positionals } = parseArgs({
+    args,
+    allowPositionals: true,
+    options: { from: { type: 'string' }, to: { type: 'string' } },
+  });
+  if (!values.from || !values.to || positionals.length > 0)
+    throw new UsageError('expected "server copy --from DATA_DIR --to postgres://..."');
+  if (!isPostgresUrl(values.to))
+    throw new UsageError(`--to expects a postgres:// URL, got "${values.to.slice(0, 40)}"`);
+  try {
+    const report = await copyToPostgres(
+      resolve(io.cwd, values.from),
+      values.to,
+      process.env[DB_PASSWORD_ENV],
+    );
+    const rows = report.tables.map((t) => `${t.rows} ${t.name}`).join(', ');
+    io.out(
+      `Copied ${report.source} to ${report.target}: ${rows} (${(report.bytes / MB).toFixed(1)} MB of photos). Counts and SHA-256 of every table match.\nStart the server with --db on it; phones keep their tokens and go on from where they were.`,
+    );
+    return 0;
+  } catch (e) {
+    if (e instanceof CopyError) {
+      io.err(`rivalplate server copy: ${e.message}`);
+      return 1;
+    }
+    throw e;
+  }
+}
+
 const SUBCOMMANDS: Record<string, (args: string[], io: CommandIo) => Promise<number>> = {
   start,
   'add-lab': addLab,
   'add-token': addToken,
   'list-tokens': listTokens,
   'revoke-token': revokeToken,
+  copy,
 };
 
 export async function run(args: string[], io: CommandIo): Promise<number> {
