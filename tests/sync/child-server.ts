@@ -7,7 +7,7 @@ import { type ChildProcess, spawn } from 'node:child_process';
 import { resolve } from 'node:path';
 import { createInterface } from 'node:readline';
 import { SYNC_BASE_PATH } from '../../schema/sync-protocol.ts';
-import { databaseArgs } from './test-database.ts';
+import { isPostgresUrl } from '../../server/open-store.ts';
 
 const BIN = resolve(import.meta.dirname, '../../bin/rivalplate.js');
 
@@ -38,6 +38,10 @@ export interface ChildServer {
   /** SIGTERM and wait for the clean exit. */
   stop(): Promise<void>;
 }
+
+/** `rivalplate server start` arguments that serve this database (a folder or a postgres:// URL). */
+export const databaseArgs = (where: string): string[] =>
+  isPostgresUrl(where) ? ['--db', where] : ['--data', where];
 
 /** Servers still running when the test process ends (a failed test) are ended with it. */
 const running = new Set<ChildProcess>();

@@ -63,10 +63,6 @@ export function openTestStore(where: string, maxBytes?: number): Promise<SyncSto
   ).then((s) => s.store);
 }
 
-/** `rivalplate server start` arguments that serve this database. */
-export const databaseArgs = (where: string): string[] =>
-  isPostgresUrl(where) ? ['--db', where] : ['--data', where];
-
 /** BIGINT and counts as numbers, as SQLite gives them. */
 const types = {
   getTypeParser(oid: number, format?: 'text' | 'binary') {

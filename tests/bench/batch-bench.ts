@@ -1,0 +1,65 @@
+/**
+ * `npm run bench` (batch part): `rivalplate count` on a folder of generated photos with 1 job, 2
+ * jobs and all the machine's cores, timed end to end as a user runs it (a fresh process each, so
+ * opencv.js starting in every worker is counted), with photos per second and the speed-up over
+ * one job. The outputs are compared too: every number of jobs must print the same records (the
+ * time each photo took aside). Target: speed-up ≥ 0.8 × jobs up to the cores.
+ */
+import { execFileSync } from 'node:child_process';
+import { existsSync, mkdirSync } from 'node:fs';
+import { availableParallelism } from 'node:os';
+import { join, resolve } from 'node:path';
+import { writePlate } from '../../fixtures/plate-files.ts';
+import { generatePlate } from '../../fixtures/plate-generator.ts';
+
+const OUT = resolve(import.meta.dirname, '../../bench/out/batch');
+const BIN = resolve(import.meta.dirname, '../../bin/rivalplate.js');
+const PHOTOS = Number(process.env.RIVALPLATE_BENCH_PHOTOS ?? 24);
+
+mkdirSync(OUT, { recursive: true });
+for (let i = 0; i < PHOTOS; i++) {
+  const file = join(OUT, `plate-${String(i).padStart(3, '0')}.jpg`);
+  if (existsSync(file)) continue;
+  const plate = generatePlate({ seed: 100 + i, width: 2000, height: 1500, colonies: 120 + 5 * i });
+  await writePlate(plate, file, { format: 'jpeg' });
+}
+
+const cores = availableParallelism();
+const jobsList = [...new Set([1, 2, cores])].sort((a, b) => a - b);
+const rows: Record<string, string | number>[] = [];
+let reference: string | undefined;
+let oneJobMs = 0;
+for (const jobs of jobsList) {
+  const started = performance.now();
+  const out = execFileSync(
+    process.execPath,
+    [BIN, 'count', '--json', '--jobs', String(jobs), OUT],
+    {
+      encoding: 'utf8',
+      maxBuffer: 256 << 20,
+    },
+  );
+  const ms = performance.now() - started;
+  const records = out
+    .trim()
+    .split('\n')
+    .map((l) => {
+      const { ms: _ms, ...rest } = JSON.parse(l) as Record<string, unknown>;
+      return JSON.stringify(rest);
+    })
+    .join('\n');
+  reference ??= records;
+  if (jobs === 1) oneJobMs = ms;
+  rows.push({
+    jobs,
+    photos: PHOTOS,
+    'wall s': Number((ms / 1000).toFixed(1)),
+    'photos/s': Number(((PHOTOS * 1000) / ms).toFixed(2)),
+    'speed-up': Number((oneJobMs / ms).toFixed(2)),
+    'same output as 1 job': records === reference ? 'yes' : 'NO',
+  });
+}
+console.log(
+  `Batch counting: rivalplate count --jobs N on ${PHOTOS} generated 3 MP photos, ${cores} cores`,
+);
+console.table(rows);
