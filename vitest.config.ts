@@ -4,6 +4,10 @@ import { defineConfig } from 'vitest/config';
 const shared = {
   exclude: ['tests/e2e/**', 'node_modules/**'],
   environment: 'node' as const,
+  // opencv.js is a CJS module whose object carries a `then`; vitest's default interop would
+  // forward it and the import would never settle. (A project's own setting: the root's is not
+  // passed down to the projects.)
+  deps: { interopDefault: false },
   testTimeout: 60_000,
   hookTimeout: 60_000,
   pool: 'forks' as const,
@@ -31,9 +35,6 @@ const SERVER_SUITE = [
 
 export default defineConfig({
   test: {
-    // opencv.js is a CJS module whose object carries a `then`; vitest's default interop would
-    // forward it and the import would never settle.
-    deps: { interopDefault: false },
     projects: [
       {
         test: {
