@@ -5,15 +5,16 @@
  * one job. The outputs are compared too: every number of jobs must print the same records (the
  * time each photo took aside). Target: speed-up ≥ 0.8 × jobs up to the cores.
  */
-import { execFileSync } from 'node:child_process';
+import { spawnSync } from 'node:child_process';
 import { existsSync, mkdirSync } from 'node:fs';
-import { availableParallelism } from 'node:os';
+import { availableParallelism, loadavg } from 'node:os';
 import { join, resolve } from 'node:path';
 import { writePlate } from '../../fixtures/plate-files.ts';
 import { generatePlate } from '../../fixtures/plate-generator.ts';
 
 const OUT = resolve(import.meta.dirname, '../../bench/out/batch');
 const BIN = resolve(import.meta.dirname, '../../bin/rivalplate.js');
+const TIME = '/usr/bin/time';
 const PHOTOS = Number(process.env.RIVALPLATE_BENCH_PHOTOS ?? 24);
 
 mkdirSync(OUT, { recursive: true });
@@ -31,15 +32,29 @@ let reference: string | undefined;
 let oneJobMs = 0;
 for (const jobs of jobsList) {
   const started = performance.now();
-  const out = execFileSync(
-    process.execPath,
-    [BIN, 'count', '--json', '--jobs', String(jobs), OUT],
+  // GNU time, when there, also says how much CPU the run got: on a machine busy with other work
+  // the wall time says more about the neighbours than about the jobs.
+  const timed = existsSync(TIME);
+  const command = [process.execPath, BIN, 'count', '--json', '--jobs', String(jobs), OUT];
+  const run = spawnSync(
+    timed ? TIME : command[0]!,
+    timed ? ['-f', '%U %S', ...command] : command.slice(1),
     {
       encoding: 'utf8',
       maxBuffer: 256 << 20,
     },
   );
   const ms = performance.now() - started;
+  if (run.status !== 0) throw new Error(`count --jobs ${jobs} failed: ${run.stderr}`);
+  const out = run.stdout;
+  const cpu = timed
+    ? run.stderr
+        .trim()
+        .split('\n')
+        .at(-1)!
+        .split(' ')
+        .reduce((sum, t) => sum + Number(t), 0)
+    : Number.NaN;
   const records = out
     .trim()
     .split('\n')
@@ -56,10 +71,12 @@ for (const jobs of jobsList) {
     'wall s': Number((ms / 1000).toFixed(1)),
     'photos/s': Number(((PHOTOS * 1000) / ms).toFixed(2)),
     'speed-up': Number((oneJobMs / ms).toFixed(2)),
+    'CPU s': Number(cpu.toFixed(1)),
+    'cores it got': Number((cpu / (ms / 1000)).toFixed(2)),
     'same output as 1 job': records === reference ? 'yes' : 'NO',
   });
 }
 console.log(
-  `Batch counting: rivalplate count --jobs N on ${PHOTOS} generated 3 MP photos, ${cores} cores`,
+  `Batch counting: rivalplate count --jobs N on ${PHOTOS} generated 3 MP photos, ${cores} cores, load average ${loadavg()[0]!.toFixed(1)} at the end`,
 );
 console.table(rows);

@@ -122,6 +122,6 @@ try {
   cluster.stop();
 }
 console.log(
-  `Sync server: ${PHONES} phones over ${LABS} labs pushing ${PER_PUSH} plates a push for ${SECONDS} s (after ${WARM_UP_MS / 1000} s warm-up), loopback, ${availableParallelism()} cores shared with the load and the database`,
+  `Sync server: ${PHONES} phones over ${LABS} labs pushing ${PER_PUSH} plates a push for ${SECONDS} s (after ${WARM_UP_MS / 1000} s warm-up), loopback, ${availableParallelism()} cores shared with the load and the database, load average ${loadavg()[0]!.toFixed(1)} at the end`,
 );
 console.table(rows);
