@@ -8,7 +8,7 @@
  * and the database, which takes its share of the cores.
  */
 import { mkdtempSync, rmSync } from 'node:fs';
-import { availableParallelism, tmpdir } from 'node:os';
+import { availableParallelism, loadavg, tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { PushResponse } from '../../schema/sync-protocol.ts';
 import { openStore } from '../../server/open-store.ts';
