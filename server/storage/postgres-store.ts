@@ -317,17 +317,53 @@ export async function openPostgresStore(options: PostgresOptions): Promise<SyncS
     async push(labId, device, changes: HashedChange[]) {
       return tx(
         async (c) => {
+          // The same steps as sqlite-store.ts's pushAll, with what they read of the touched
+          // records fetched up front in three queries and kept up to date here as changes apply.
+          const key = (kind: string, id: string) => `${kind}\u0000${id}`;
+          const touched = [
+            ...new Map(changes.map(({ change: ch }) => [key(ch.kind, ch.id), ch])).values(),
+          ];
+          const kinds = touched.map((ch) => ch.kind);
+          const ids = touched.map((ch) => ch.id);
+          const headsNow = new Map<string, string[]>();
+          for (const r of await run<{ kind: string; record_id: string; heads: string }>(
+            c,
+            'headsOfMany',
+            [labId, kinds, ids],
+          ))
+            headsNow.set(key(r.kind, r.record_id), JSON.parse(r.heads));
+          const stored = new Set<string>();
+          for (const r of await run<{ kind: string; record_id: string; hash: string }>(
+            c,
+            'revisionsOfMany',
+            [
+              labId,
+              changes.map((x) => x.change.kind),
+              changes.map((x) => x.change.id),
+              changes.map((x) => x.hash),
+            ],
+          ))
+            stored.add(`${key(r.kind, r.record_id)}\u0000${r.hash}`);
+          const kept = new Map<string, number>();
+          for (const r of await run<{ kind: string; record_id: string; n: number }>(
+            c,
+            'revisionCounts',
+            [labId, kinds, ids],
+          ))
+            kept.set(key(r.kind, r.record_id), r.n);
+
           const answer: PushResponse = { accepted: [], conflicts: [] };
           let added = 0;
           for (const { change, hash } of changes) {
             const { kind, id, revision } = change;
-            const row = await one<{ heads: string }>(c, 'recordHeads', [labId, kind, id]);
-            const current: string[] = row ? JSON.parse(row.heads) : [];
-            const repeat = (await one(c, 'revisionExists', [labId, kind, id, hash])) !== undefined;
+            const k = key(kind, id);
+            const current = headsNow.get(k) ?? [];
+            const repeat = stored.has(`${k}\u0000${hash}`);
             let heads = current;
             if (!repeat) {
               const body = change.body === null ? null : JSON.stringify(change.body);
-              const [inserted] = await run<{ seq: number }>(c, 'insertRevision', [
+              heads = headsAfter(change, current, change.replaces, hash);
+              await run(c, 'insertRevisionAndHeads', [
                 labId,
                 kind,
                 id,
@@ -338,20 +374,27 @@ export async function openPostgresStore(options: PostgresOptions): Promise<SyncS
                 body,
                 device,
                 now(),
+                JSON.stringify(heads),
               ]);
+              headsNow.set(k, heads);
+              stored.add(`${k}\u0000${hash}`);
               added += storedBytes(body, device, id);
-              heads = headsAfter(change, current, change.replaces, hash);
-              await run(c, 'upsertRecord', [labId, kind, id, inserted!.seq, JSON.stringify(heads)]);
-              const old = await run<{
-                seq: number;
-                hash: string;
-                body: string | null;
-                device: string;
-              }>(c, 'beyondKept', [labId, kind, id, REVISIONS_KEPT]);
-              for (const o of old) {
-                if (heads.includes(o.hash)) continue;
-                await run(c, 'dropRevision', [o.seq]);
-                added -= storedBytes(o.body, o.device, id);
+              const count = (kept.get(k) ?? 0) + 1;
+              kept.set(k, count);
+              if (count > REVISIONS_KEPT) {
+                const old = await run<{
+                  seq: number;
+                  hash: string;
+                  body: string | null;
+                  device: string;
+                }>(c, 'beyondKept', [labId, kind, id, REVISIONS_KEPT]);
+                for (const o of old) {
+                  if (heads.includes(o.hash)) continue;
+                  await run(c, 'dropRevision', [o.seq]);
+                  stored.delete(`${k}\u0000${o.hash}`);
+                  kept.set(k, kept.get(k)! - 1);
+                  added -= storedBytes(o.body, o.device, id);
+                }
               }
             }
             const receipt: Receipt = { kind, id, revision, hash, repeat };

@@ -222,6 +222,37 @@ export const SQL = {
   revisionAt: 'SELECT hash FROM revisions WHERE lab_id = ? AND seq = ?',
   dropChunks: 'DELETE FROM chunks WHERE lab_id = ? AND photo_id = ?',
   /**
+   * PostgreSQL only: what a push needs to know of the records it touches, read in one query each
+   * before its changes are applied (over a network every statement is a round trip; SQLite reads
+   * them one change at a time, in-process).
+   */
+  headsOfMany: {
+    sqlite: '',
+    postgres: `SELECT kind, record_id, heads FROM records
+     WHERE lab_id = ? AND (kind, record_id) IN (SELECT * FROM unnest(?::text[], ?::text[]))`,
+  },
+  revisionsOfMany: {
+    sqlite: '',
+    postgres: `SELECT kind, record_id, hash FROM revisions
+     WHERE lab_id = ? AND (kind, record_id, hash) IN (SELECT * FROM unnest(?::text[], ?::text[], ?::text[]))`,
+  },
+  revisionCounts: {
+    sqlite: '',
+    postgres: `SELECT kind, record_id, count(*) AS n FROM revisions
+     WHERE lab_id = ? AND (kind, record_id) IN (SELECT * FROM unnest(?::text[], ?::text[]))
+     GROUP BY kind, record_id`,
+  },
+  /** PostgreSQL only: insertRevision and upsertRecord in one statement. */
+  insertRevisionAndHeads: {
+    sqlite: '',
+    postgres: `WITH added AS (
+       INSERT INTO revisions (lab_id, kind, record_id, hash, revision, updated_at, deleted, body, device, received_at)
+       VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?) RETURNING lab_id, kind, record_id, seq)
+     INSERT INTO records (lab_id, kind, record_id, last_seq, heads)
+       SELECT lab_id, kind, record_id, seq, ? FROM added
+     ON CONFLICT (lab_id, kind, record_id) DO UPDATE SET last_seq = excluded.last_seq, heads = excluded.heads`,
+  },
+  /**
    * PostgreSQL only: every write of a lab (push, upload, chunk) holds this lab's lock to its
    * commit (postgres-store.ts says why). SQLite has one writer at a time anyway.
    */
