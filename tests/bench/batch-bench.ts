@@ -9,6 +9,7 @@ import { spawnSync } from 'node:child_process';
 import { existsSync, mkdirSync } from 'node:fs';
 import { availableParallelism, loadavg } from 'node:os';
 import { join, resolve } from 'node:path';
+import { Worker } from 'node:worker_threads';
 import { writePlate } from '../../fixtures/plate-files.ts';
 import { generatePlate } from '../../fixtures/plate-generator.ts';
 
@@ -76,7 +77,31 @@ for (const jobs of jobsList) {
     'same output as 1 job': records === reference ? 'yes' : 'NO',
   });
 }
+/**
+ * The control: the same fixed busy loop in `threads` worker threads at once, and how many cores
+ * that got (1 thread's time × threads / the time taken). On a machine shared with other work this
+ * says how much of a speed-up there was room for while the batch ran.
+ */
+async function coresFree(threads: number): Promise<number> {
+  const loop = `let x = 0; for (let i = 0; i < 4e8; i++) x += i; require('node:worker_threads').parentPort.postMessage(x);`;
+  const once = () =>
+    new Promise<void>((done) => {
+      const w = new Worker(loop, { eval: true });
+      w.once('message', () => void w.terminate().then(() => done()));
+    });
+  let t0 = performance.now();
+  await once();
+  const single = performance.now() - t0;
+  t0 = performance.now();
+  await Promise.all(Array.from({ length: threads }, once));
+  return (single * threads) / (performance.now() - t0);
+}
+const control = await coresFree(cores);
+
 console.log(
   `Batch counting: rivalplate count --jobs N on ${PHOTOS} generated 3 MP photos, ${cores} cores, load average ${loadavg()[0]!.toFixed(1)} at the end`,
 );
 console.table(rows);
+console.log(
+  `Control: a busy loop in ${cores} threads at once got ${control.toFixed(2)} cores of ${cores} (the room there was for a speed-up)`,
+);
