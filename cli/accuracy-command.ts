@@ -107,6 +107,7 @@ export async function run(args: string[], io: CommandIo): Promise<number> {
         scored.map((m) => m.photo),
         {
           dishMm: options.dishMm,
+          jobs: 1,
           ...(model ? { model } : {}),
           onPhoto: (i, n, file) => io.status?.(`[${batch} ${i}/${n}] ${basename(file)}`),
         },

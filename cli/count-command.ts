@@ -3,6 +3,7 @@
  * analysis core the app runs in its worker.
  */
 import { readdir, readFile, stat, writeFile } from 'node:fs/promises';
+import { availableParallelism } from 'node:os';
 import { extname, join } from 'node:path';
 import { parseArgs } from 'node:util';
 import type { LearnedModel, Palette } from '../cv/index.ts';
@@ -17,11 +18,10 @@ import {
   csvRow,
 } from './count-record.ts';
 import type { CommandIo } from './io.ts';
-import { loadCvCore } from './opencv-quiet.ts';
 import { parseRange, UsageError, wholeNumber } from './options.ts';
 import { readPaletteFile, writePaletteFile } from './palette-file.ts';
 
-const HELP = `Usage: rivalplate count [options] FILE|FOLDER...
+const HELP = () => `Usage: rivalplate count [options] FILE|FOLDER...
 
 Finds the dish and counts the colonies of each marker colour on plate photos (JPEG, PNG, WebP;
 EXIF orientation applied). Folders are searched for such files (not recursively).
@@ -43,6 +43,8 @@ Options:
   --range NAME|MIN-MAX   countable range per plate: bam (25–250, default), sm9215 (30–300),
                          iso7218 (10–300), or MIN-MAX
   --dish-mm N            inner dish diameter in mm (default 90)
+  --jobs N               photos read at once, each in a worker thread of its own (default: the
+                         machine's cores, here ${availableParallelism()}); the output is the same for any N
   -h, --help             show this help
 
 A file that cannot be read is reported and skipped; the exit status is then 1.
@@ -61,6 +63,7 @@ interface Options {
   out?: string;
   range: CountableRange;
   dishMm: number;
+  jobs: number;
   inputs: string[];
 }
 
@@ -70,17 +73,19 @@ export async function run(args: string[], io: CommandIo): Promise<number> {
     options = parseOptions(args);
   } catch (e) {
     if (e instanceof UsageError || e instanceof TypeError) {
-      io.err(`rivalplate count: ${e.message}\n\n${HELP}`);
+      io.err(`rivalplate count: ${e.message}\n\n${HELP()}`);
       return 2;
     }
     throw e;
   }
   if (options.inputs.length === 0) {
-    io.out(HELP);
+    io.out(HELP());
     return 0;
   }
   const files = await expandInputs(options.inputs, io);
-  const core = await loadCvCore();
+  // The cv core's pure parts (model files, palettes) without opencv.js: the photos are read in
+  // workers, or countBatch loads opencv.js here for one job.
+  const core = await import('../cv/index.ts');
   let palette: Palette | undefined;
   if (options.palette) {
     try {
@@ -106,11 +111,12 @@ export async function run(args: string[], io: CommandIo): Promise<number> {
       ? [model.palette.colours[0].name, model.palette.colours[1].name]
       : DEFAULT_NAMES);
 
-  const batch = await countBatch(core, files, {
+  const batch = await countBatch(undefined, files, {
     dishMm: options.dishMm,
+    jobs: options.jobs,
     ...(palette ? { palette } : {}),
     ...(model ? { model } : {}),
-    onPhoto: (i, n, file) => io.status?.(`[${i}/${n}] ${file}`.slice(0, 100)),
+    onPhoto: (i, n, file) => io.status?.(`[${i}/${n} read] ${file}`.slice(0, 100)),
   });
   if (files.length > 0) io.status?.('');
   const { outcomes } = batch;
@@ -150,6 +156,7 @@ function parseOptions(args: string[]): Options {
       out: { type: 'string' },
       range: { type: 'string' },
       'dish-mm': { type: 'string' },
+      jobs: { type: 'string' },
       help: { type: 'boolean', short: 'h' },
     },
   });
@@ -164,6 +171,7 @@ function parseOptions(args: string[]): Options {
     ...(values.out ? { out: values.out } : {}),
     range: values.range ? parseRange(values.range) : DEFAULT_COUNTABLE_RANGE,
     dishMm: values['dish-mm'] ? wholeNumber(values['dish-mm'], '--dish-mm', 20) : 90,
+    jobs: values.jobs ? wholeNumber(values.jobs, '--jobs', 1) : availableParallelism(),
     inputs: values.help ? [] : positionals,
   };
 }

@@ -7,13 +7,18 @@
  *   server add-token LAB [--label TEXT]
  *   server list-tokens LAB
  *   server revoke-token LAB ID
+ *   server copy --from DIR --to URL
+ *
+ * Each takes --data DIR (SQLite, the default) or --db postgres://... (PostgreSQL).
  */
 import { existsSync, readFileSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import { parseArgs } from 'node:util';
 import { SYNC_LIMITS } from '../schema/sync-protocol.ts';
 import { buildSyncServer } from '../server/app.ts';
-import { DataFolderError, openDataFolder } from '../server/data-folder.ts';
+import { CopyError, copyToPostgres } from '../server/copy-to-postgres.ts';
+import { DataFolderError } from '../server/data-folder.ts';
+import { DB_PASSWORD_ENV, isPostgresUrl, openStore } from '../server/open-store.ts';
 import { SyncRefusal } from '../server/refusal.ts';
 import { DATA_OPTION } from './data-option.ts';
 import type { CommandIo } from './io.ts';
@@ -21,15 +26,21 @@ import { UsageError } from './options.ts';
 import { addToken, listTokens, revokeToken } from './token-commands.ts';
 
 const USAGE = `Usage:
-  rivalplate server start [--port 8640] [--host 127.0.0.1] [--data DIR] [--app DIR]
+  rivalplate server start [--port 8640] [--host 127.0.0.1] [--data DIR | --db URL] [--app DIR]
                           [--tls-cert FILE --tls-key FILE] [--max-db-mb N]
-  rivalplate server add-lab NAME [--no-photos] [--photo-max-mb 20] [--max-mb 2048] [--data DIR]
-  rivalplate server add-token LAB [--label TEXT] [--data DIR]
-  rivalplate server list-tokens LAB [--data DIR]
-  rivalplate server revoke-token LAB ID [--data DIR]
+  rivalplate server add-lab NAME [--no-photos] [--photo-max-mb 20] [--max-mb 2048] [--data DIR | --db URL]
+  rivalplate server add-token LAB [--label TEXT] [--data DIR | --db URL]
+  rivalplate server list-tokens LAB [--data DIR | --db URL]
+  rivalplate server revoke-token LAB ID [--data DIR | --db URL]
+  rivalplate server copy --from DIR --to URL
 
 add-token prints the token once, on its last line; list-tokens shows each token's id, label,
-dates and whether it is revoked; revoke-token takes an id from that list.`;
+dates and whether it is revoked; revoke-token takes an id from that list.
+
+--data DIR keeps everything in one SQLite file in DIR (default rivalplate-data). --db URL keeps
+it in PostgreSQL instead (postgres://USER@HOST:PORT/DATABASE), so several server processes can
+serve one database; the password may be in the URL or, better, in $${DB_PASSWORD_ENV}.
+copy moves a data folder's labs, tokens, records and photos into an empty PostgreSQL database.`;
 const DEFAULT_PORT = 8640;
 /** A lab's share of the server unless `add-lab --max-mb` says otherwise. */
 const DEFAULT_LAB_MB = 2048;
@@ -72,7 +83,17 @@ async function start(args: string[], io: CommandIo): Promise<number> {
     ? { cert: readFileSync(values['tls-cert']), key: readFileSync(values['tls-key']!) }
     : undefined;
   const dataDir = resolve(io.cwd, values.data);
-  const { store, file } = openDataFolder(dataDir, maxMb ? maxMb * MB : undefined);
+  if (values.db !== undefined && maxMb) {
+    io.err(
+      'rivalplate server: --max-db-mb caps the SQLite file; PostgreSQL is sized by its own means',
+    );
+    return 2;
+  }
+  const { store, where } = await openStore({
+    dataDir,
+    db: values.db,
+    maxBytes: maxMb ? maxMb * MB : undefined,
+  });
   const appDir = resolve(io.cwd, values.app);
   const app = await buildSyncServer({
     store,
@@ -81,7 +102,7 @@ async function start(args: string[], io: CommandIo): Promise<number> {
     ...(tls ? { tls } : {}),
   });
   const url = await app.listen({ port, host: values.host });
-  io.out(`Sync server on ${url} (data in ${file})`);
+  io.out(`Sync server on ${url} (data in ${where})`);
   if (!existsSync(join(appDir, 'index.html')))
     io.err(
       `No built app in ${appDir}: phones get only the sync routes until "npx vite build" is run`,
@@ -129,7 +150,7 @@ async function addLab(args: string[], io: CommandIo): Promise<number> {
     io.err(wrong !== null ? `rivalplate server: ${wrong}` : USAGE);
     return 2;
   }
-  const { store } = openDataFolder(resolve(io.cwd, values.data));
+  const { store } = await openStore({ dataDir: resolve(io.cwd, values.data), db: values.db });
   try {
     await store.addLab(name, {
       photosEnabled: !values['no-photos'],
@@ -145,12 +166,43 @@ async function addLab(args: string[], io: CommandIo): Promise<number> {
   }
 }
 
+async function copy(args: string[], io: CommandIo): Promise<number> {
+  const { values, positionals } = parseArgs({
+    args,
+    allowPositionals: true,
+    options: { from: { type: 'string' }, to: { type: 'string' } },
+  });
+  if (!values.from || !values.to || positionals.length > 0)
+    throw new UsageError('expected "server copy --from DATA_DIR --to postgres://..."');
+  if (!isPostgresUrl(values.to))
+    throw new UsageError(`--to expects a postgres:// URL, got "${values.to.slice(0, 40)}"`);
+  try {
+    const report = await copyToPostgres(
+      resolve(io.cwd, values.from),
+      values.to,
+      process.env[DB_PASSWORD_ENV],
+    );
+    const rows = report.tables.map((t) => `${t.rows} ${t.name}`).join(', ');
+    io.out(
+      `Copied ${report.source} to ${report.target}: ${rows} (${(report.bytes / MB).toFixed(1)} MB of photos). Counts and SHA-256 of every table match.\nStart the server with --db on it; phones keep their tokens and go on from where they were.`,
+    );
+    return 0;
+  } catch (e) {
+    if (e instanceof CopyError) {
+      io.err(`rivalplate server copy: ${e.message}`);
+      return 1;
+    }
+    throw e;
+  }
+}
+
 const SUBCOMMANDS: Record<string, (args: string[], io: CommandIo) => Promise<number>> = {
   start,
   'add-lab': addLab,
   'add-token': addToken,
   'list-tokens': listTokens,
   'revoke-token': revokeToken,
+  copy,
 };
 
 export async function run(args: string[], io: CommandIo): Promise<number> {

@@ -5,7 +5,8 @@
 import { existsSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import { parseArgs } from 'node:util';
-import { DATABASE_FILE, openDataFolder } from '../server/data-folder.ts';
+import { DATABASE_FILE } from '../server/data-folder.ts';
+import { openStore } from '../server/open-store.ts';
 import type { Lab, SyncStore, TokenInfo } from '../server/storage/sync-store.ts';
 import { isTokenId, newToken, tokenHash } from '../server/tokens.ts';
 import { DATA_OPTION } from './data-option.ts';
@@ -41,20 +42,20 @@ function expectWords(positionals: string[], sub: string, names: string[]): void 
  */
 async function withLab(
   io: CommandIo,
-  data: string,
+  { data, db }: { data: string; db?: string | undefined },
   labName: string,
   work: (store: SyncStore, lab: Lab) => Promise<number>,
 ): Promise<number> {
   const dir = resolve(io.cwd, data);
   // add-lab trims the name it stores, so a lab is found whatever spaces surround its name here.
   const name = labName.trim();
-  if (!existsSync(join(dir, DATABASE_FILE))) {
+  if (db === undefined && !existsSync(join(dir, DATABASE_FILE))) {
     io.err(
       `rivalplate server: no sync database in ${dir}; add a lab there first with "server add-lab", or give the server's folder with --data`,
     );
     return 1;
   }
-  const { store } = openDataFolder(dir);
+  const { store } = await openStore({ dataDir: dir, db });
   try {
     const lab = await store.findLab(name);
     if (!lab) {
@@ -77,7 +78,7 @@ export async function addToken(args: string[], io: CommandIo): Promise<number> {
   });
   expectWords(positionals, 'add-token', ['LAB']);
   const label = tokenLabel(values.label);
-  return withLab(io, values.data, positionals[0]!, async (store, lab) => {
+  return withLab(io, values, positionals[0]!, async (store, lab) => {
     const token = newToken();
     const made = await store.addToken(lab.id, tokenHash(token), label);
     // The token goes last, alone on its line, so a script can take the last line of the output.
@@ -95,7 +96,7 @@ export async function listTokens(args: string[], io: CommandIo): Promise<number>
     options: DATA_OPTION,
   });
   expectWords(positionals, 'list-tokens', ['LAB']);
-  return withLab(io, values.data, positionals[0]!, async (store, lab) => {
+  return withLab(io, values, positionals[0]!, async (store, lab) => {
     const tokens = await store.listTokens(lab.id);
     io.out(
       tokens.length === 0
@@ -118,7 +119,7 @@ export async function revokeToken(args: string[], io: CommandIo): Promise<number
     throw new UsageError(
       `"${positionals[1]}" is not a token id: ids are the 8 characters (0-9, a-f) that "server list-tokens" shows`,
     );
-  return withLab(io, values.data, positionals[0]!, async (store, lab) => {
+  return withLab(io, values, positionals[0]!, async (store, lab) => {
     const before = await store.revokeToken(lab.id, id);
     if (before.length === 0) {
       io.err(

@@ -90,9 +90,9 @@ describe('photo uploads', () => {
     expect(r.json.error).toBe('upload-mismatch');
     const state = await call<PhotoUploadState>(`${server.sync}/photos/mf-photo-3/upload`, token);
     expect(state.json).toMatchObject({ received: 0, complete: false });
-    expect(server.rows("SELECT count(*) AS n FROM chunks WHERE photo_id = 'mf-photo-3'")).toEqual([
-      { n: 0 },
-    ]);
+    expect(
+      await server.rows("SELECT count(*) AS n FROM chunks WHERE photo_id = 'mf-photo-3'"),
+    ).toEqual([{ n: 0 }]);
   });
 
   it("keeps to the lab's size limit and to a lab that keeps photos on the phones", async () => {

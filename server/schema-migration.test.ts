@@ -116,11 +116,11 @@ describe('a database of schema version 1', () => {
       });
       expect(pushed.status).toBe(200);
       expect(pushed.json.accepted).toHaveLength(benchSession(1).length);
-      expect(server.rows('PRAGMA user_version')).toEqual([{ user_version: 3 }]);
+      expect(await server.rows('PRAGMA user_version')).toEqual([{ user_version: 3 }]);
       // The lab's count of stored bytes, begun by the migration over the old revision and kept
       // by the server over the push, matches the bytes stored (UTF-8, as the server counts).
-      expect(server.rows('SELECT used_bytes AS n FROM labs')).toEqual(
-        server.rows(
+      expect(await server.rows('SELECT used_bytes AS n FROM labs')).toEqual(
+        await server.rows(
           `SELECT sum(length(CAST(coalesce(body, '') AS BLOB)) + length(CAST(device AS BLOB))
                       + length(CAST(record_id AS BLOB)) + 100) AS n FROM revisions`,
         ),

@@ -1,7 +1,10 @@
 /**
  * The SQLite engine behind SyncStore: one database file, opened with better-sqlite3. Its calls
  * are synchronous, which makes each transaction run start to end without another request
- * interleaving; the async interface is kept for engines that cannot do that.
+ * interleaving; the async interface is kept for engines that cannot do that. Writes begin
+ * IMMEDIATE (the file's write lock is taken before anything is read), so a second process on the
+ * same file (the command line, or another server) waits its turn instead of failing on a snapshot
+ * that went stale between the read and the write; seqs are then assigned in commit order.
  */
 import { createHash } from 'node:crypto';
 import Database from 'better-sqlite3';
@@ -13,15 +16,28 @@ import {
   type PullResponse,
   type PushResponse,
   type Receipt,
-  type Revision,
   SYNC_LIMITS,
 } from '../../schema/sync-protocol.ts';
 import { headsAfter } from '../heads.ts';
 import { SyncRefusal } from '../refusal.ts';
 import { tokenId } from '../tokens.ts';
+import {
+  ABANDONED_MS,
+  type LabRow,
+  labFromRow,
+  mb,
+  PAGE_OVERHEAD,
+  type RevisionRow,
+  revisionFromRow,
+  storedBytes,
+  type TokenRow,
+  tokenFromRow,
+  type UploadRow,
+  uploadFromRow,
+} from './rows.ts';
+import { forSqlite, SQLITE_MIGRATIONS } from './sql.ts';
 import type {
   HashedChange,
-  Lab,
   LabSettings,
   SyncStore,
   TokenAccess,
@@ -30,182 +46,14 @@ import type {
 } from './sync-store.ts';
 import { REVISIONS_KEPT } from './sync-store.ts';
 
-/** The tables of the first version; later versions change them by the steps in MIGRATIONS. */
-const TABLES = `
-CREATE TABLE labs (
-  id INTEGER PRIMARY KEY,
-  name TEXT NOT NULL UNIQUE,
-  photos_enabled INTEGER NOT NULL,
-  photo_max_bytes INTEGER NOT NULL,
-  created_at TEXT NOT NULL
-);
-CREATE TABLE tokens (
-  hash TEXT PRIMARY KEY,
-  lab_id INTEGER NOT NULL REFERENCES labs(id),
-  created_at TEXT NOT NULL
-);
--- Every revision ever pushed; seq orders them for pulls.
-CREATE TABLE revisions (
-  seq INTEGER PRIMARY KEY AUTOINCREMENT,
-  lab_id INTEGER NOT NULL REFERENCES labs(id),
-  kind TEXT NOT NULL,
-  record_id TEXT NOT NULL,
-  hash TEXT NOT NULL,
-  revision INTEGER NOT NULL,
-  updated_at TEXT NOT NULL,
-  deleted INTEGER NOT NULL,
-  body TEXT,
-  device TEXT NOT NULL,
-  received_at TEXT NOT NULL,
-  UNIQUE (lab_id, kind, record_id, hash)
-);
--- One row per record: its current heads (a JSON list of hashes) and the seq of its last change.
-CREATE TABLE records (
-  lab_id INTEGER NOT NULL REFERENCES labs(id),
-  kind TEXT NOT NULL,
-  record_id TEXT NOT NULL,
-  last_seq INTEGER NOT NULL,
-  heads TEXT NOT NULL,
-  PRIMARY KEY (lab_id, kind, record_id)
-);
-CREATE INDEX records_by_seq ON records (lab_id, last_seq);
-CREATE TABLE uploads (
-  lab_id INTEGER NOT NULL REFERENCES labs(id),
-  photo_id TEXT NOT NULL,
-  plate_id TEXT NOT NULL,
-  bytes INTEGER NOT NULL,
-  type TEXT NOT NULL,
-  sha256 TEXT NOT NULL,
-  received INTEGER NOT NULL,
-  complete INTEGER NOT NULL,
-  PRIMARY KEY (lab_id, photo_id)
-);
-CREATE TABLE chunks (
-  lab_id INTEGER NOT NULL,
-  photo_id TEXT NOT NULL,
-  start INTEGER NOT NULL,
-  data BLOB NOT NULL,
-  PRIMARY KEY (lab_id, photo_id, start)
-);
-`;
-
-/**
- * Step n brings a database from schema version n to n + 1 (user_version). A new file runs them
- * all, so the path an existing file takes is the one every new file takes too. Steps are only
- * ever appended: a released step is part of files in the field.
- */
-const MIGRATIONS = [
-  TABLES,
-  // Tokens get a label, the day of their last use and a revocation time; existing tokens keep
-  // working, unlabelled and never revoked.
-  `ALTER TABLE tokens ADD COLUMN label TEXT;
-   ALTER TABLE tokens ADD COLUMN last_used_on TEXT;
-   ALTER TABLE tokens ADD COLUMN revoked_at TEXT;`,
-  // Labs get a storage cap of their own (none for existing labs) and a count of the bytes they
-  // hold, reckoned as STORED_BYTES reckons them; uploads note when they were last touched, so
-  // one abandoned long ago can make room for a new one.
-  `ALTER TABLE labs ADD COLUMN max_bytes INTEGER;
-   ALTER TABLE labs ADD COLUMN used_bytes INTEGER NOT NULL DEFAULT 0;
-   ALTER TABLE uploads ADD COLUMN touched_at TEXT;
-   UPDATE labs SET used_bytes =
-     coalesce((SELECT sum(length(CAST(coalesce(body, '') AS BLOB)) + length(CAST(device AS BLOB))
-                          + length(CAST(record_id AS BLOB)) + 100)
-               FROM revisions WHERE revisions.lab_id = labs.id), 0)
-     + coalesce((SELECT sum(length(data)) FROM chunks WHERE chunks.lab_id = labs.id), 0);`,
-];
-
-/**
- * The bytes a stored revision counts against its lab: its body, device and id as UTF-8, and a
- * fixed part for the hash, times and row (the migration above reckons the same in SQL).
- */
-function storedBytes(body: string | null, device: string, id: string): number {
-  return Buffer.byteLength(body ?? '') + Buffer.byteLength(device) + Buffer.byteLength(id) + 100;
-}
-
-const mb = (bytes: number) => `${(bytes / (1024 * 1024)).toFixed(1)} MB`;
-
-/** An unfinished upload untouched this long may be dropped to make room for a new one. */
-const ABANDONED_MS = 24 * 60 * 60 * 1000;
-
 /** A file from a newer server than this one is refused on open. */
-const SCHEMA_VERSION = MIGRATIONS.length;
-
-interface LabRow {
-  id: number;
-  name: string;
-  photos_enabled: number;
-  photo_max_bytes: number;
-  max_bytes: number | null;
-  used_bytes: number;
-}
-
-interface TokenRow {
-  hash: string;
-  label: string | null;
-  created_at: string;
-  last_used_on: string | null;
-  revoked_at: string | null;
-}
-
-interface RevisionRow {
-  hash: string;
-  revision: number;
-  updated_at: string;
-  deleted: number;
-  body: string | null;
-  device: string;
-}
-
-interface UploadRow {
-  photo_id: string;
-  plate_id: string;
-  bytes: number;
-  type: string;
-  sha256: string;
-  received: number;
-  complete: number;
-}
+const SCHEMA_VERSION = SQLITE_MIGRATIONS.length;
 
 export interface SqliteOptions {
   file: string;
   /** Caps the database file; a write past it is refused as `storage-full`, not half-done. */
   maxBytes?: number;
 }
-
-const labFromRow = (r: LabRow): Lab => ({
-  id: r.id,
-  name: r.name,
-  photosEnabled: r.photos_enabled === 1,
-  photoMaxBytes: r.photo_max_bytes,
-  maxBytes: r.max_bytes,
-});
-
-const tokenFromRow = (r: TokenRow): TokenInfo => ({
-  id: tokenId(r.hash),
-  label: r.label,
-  createdAt: r.created_at,
-  lastUsedOn: r.last_used_on,
-  revokedAt: r.revoked_at,
-});
-
-const uploadFromRow = (r: UploadRow): Upload => ({
-  photoId: r.photo_id,
-  plateId: r.plate_id,
-  bytes: r.bytes,
-  type: r.type,
-  sha256: r.sha256,
-  received: r.received,
-  complete: r.complete === 1,
-});
-
-const revisionFromRow = (r: RevisionRow): Revision => ({
-  hash: r.hash,
-  revision: r.revision,
-  updatedAt: r.updated_at,
-  deleted: r.deleted === 1,
-  body: r.body === null ? null : JSON.parse(r.body),
-  device: r.device,
-});
 
 function migrate(db: Database.Database): void {
   // IMMEDIATE takes the write lock before the version is read, so the command line and a server
@@ -217,7 +65,7 @@ function migrate(db: Database.Database): void {
         `the database was written by a newer server (schema ${version}, this one knows ${SCHEMA_VERSION})`,
       );
     if (version === SCHEMA_VERSION) return;
-    for (const step of MIGRATIONS.slice(version)) db.exec(step);
+    for (const step of SQLITE_MIGRATIONS.slice(version)) db.exec(step);
     db.pragma(`user_version = ${SCHEMA_VERSION}`);
   }).immediate();
 }
@@ -255,91 +103,51 @@ export function openSqliteStore(options: SqliteOptions): SyncStore {
   }
 
   const q = {
-    labByName: db.prepare<[string], LabRow>('SELECT * FROM labs WHERE name = ?'),
-    labById: db.prepare<[number], LabRow>('SELECT * FROM labs WHERE id = ?'),
-    insertLab: db.prepare(
-      'INSERT INTO labs (name, photos_enabled, photo_max_bytes, max_bytes, created_at) VALUES (?, ?, ?, ?, ?)',
-    ),
-    addUsed: db.prepare('UPDATE labs SET used_bytes = used_bytes + ? WHERE id = ?'),
+    labByName: db.prepare<[string], LabRow>(forSqlite('labByName')),
+    labById: db.prepare<[number], LabRow>(forSqlite('labById')),
+    insertLab: db.prepare(forSqlite('insertLab')),
+    addUsed: db.prepare(forSqlite('addUsed')),
     openUploads: db.prepare<
       [number],
       { photo_id: string; bytes: number; received: number; touched_at: string | null }
-    >(
-      'SELECT photo_id, bytes, received, touched_at FROM uploads WHERE lab_id = ? AND complete = 0 ORDER BY touched_at',
-    ),
-    dropUpload: db.prepare('DELETE FROM uploads WHERE lab_id = ? AND photo_id = ?'),
-    touchUpload: db.prepare('UPDATE uploads SET touched_at = ? WHERE lab_id = ? AND photo_id = ?'),
-    insertToken: db.prepare(
-      'INSERT INTO tokens (hash, lab_id, created_at, label) VALUES (?, ?, ?, ?)',
-    ),
-    token: db.prepare<[string], TokenRow>('SELECT * FROM tokens WHERE hash = ?'),
-    tokensOfLab: db.prepare<[number], TokenRow>(
-      'SELECT * FROM tokens WHERE lab_id = ? ORDER BY created_at, rowid',
-    ),
+    >(forSqlite('openUploads')),
+    dropUpload: db.prepare(forSqlite('dropUpload')),
+    touchUpload: db.prepare(forSqlite('touchUpload')),
+    insertToken: db.prepare(forSqlite('insertToken')),
+    token: db.prepare<[string], TokenRow>(forSqlite('token')),
+    tokensOfLab: db.prepare<[number], TokenRow>(forSqlite('tokensOfLab')),
     labByToken: db.prepare<
       [string],
       LabRow & { revoked_at: string | null; last_used_on: string | null }
-    >(
-      `SELECT labs.*, tokens.revoked_at, tokens.last_used_on
-       FROM tokens JOIN labs ON labs.id = tokens.lab_id WHERE tokens.hash = ?`,
-    ),
-    noteTokenUse: db.prepare('UPDATE tokens SET last_used_on = ? WHERE hash = ?'),
-    revokeToken: db.prepare(
-      'UPDATE tokens SET revoked_at = ? WHERE hash = ? AND revoked_at IS NULL',
-    ),
-    /** A record's revisions past the newest REVISIONS_KEPT, as the rows to drop. */
+    >(forSqlite('labByToken')),
+    noteTokenUse: db.prepare(forSqlite('noteTokenUse')),
+    revokeToken: db.prepare(forSqlite('revokeToken')),
     beyondKept: db.prepare<
       [number, string, string, number],
       { seq: number; hash: string; body: string | null; device: string }
-    >(
-      `SELECT seq, hash, body, device FROM revisions WHERE lab_id = ? AND kind = ? AND record_id = ?
-       ORDER BY seq DESC LIMIT -1 OFFSET ?`,
-    ),
-    dropRevision: db.prepare('DELETE FROM revisions WHERE seq = ?'),
+    >(forSqlite('beyondKept')),
+    dropRevision: db.prepare(forSqlite('dropRevision')),
     revisionExists: db.prepare<[number, string, string, string], { seq: number }>(
-      'SELECT seq FROM revisions WHERE lab_id = ? AND kind = ? AND record_id = ? AND hash = ?',
+      forSqlite('revisionExists'),
     ),
-    insertRevision: db.prepare(
-      `INSERT INTO revisions (lab_id, kind, record_id, hash, revision, updated_at, deleted, body, device, received_at)
-       VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`,
-    ),
-    recordHeads: db.prepare<[number, string, string], { heads: string }>(
-      'SELECT heads FROM records WHERE lab_id = ? AND kind = ? AND record_id = ?',
-    ),
-    upsertRecord: db.prepare(
-      `INSERT INTO records (lab_id, kind, record_id, last_seq, heads) VALUES (?, ?, ?, ?, ?)
-       ON CONFLICT (lab_id, kind, record_id) DO UPDATE SET last_seq = excluded.last_seq, heads = excluded.heads`,
-    ),
+    insertRevision: db.prepare(forSqlite('insertRevision')),
+    recordHeads: db.prepare<[number, string, string], { heads: string }>(forSqlite('recordHeads')),
+    upsertRecord: db.prepare(forSqlite('upsertRecord')),
     changedSince: db.prepare<
       [number, number, number],
       { kind: string; record_id: string; last_seq: number; heads: string }
-    >('SELECT * FROM records WHERE lab_id = ? AND last_seq > ? ORDER BY last_seq LIMIT ?'),
+    >(forSqlite('changedSince')),
     revisionByHash: db.prepare<[number, string, string, string], RevisionRow>(
-      'SELECT * FROM revisions WHERE lab_id = ? AND kind = ? AND record_id = ? AND hash = ?',
+      forSqlite('revisionByHash'),
     ),
-    upload: db.prepare<[number, string], UploadRow>(
-      'SELECT * FROM uploads WHERE lab_id = ? AND photo_id = ?',
-    ),
-    insertUpload: db.prepare(
-      `INSERT INTO uploads (lab_id, photo_id, plate_id, bytes, type, sha256, received, complete)
-       VALUES (?, ?, ?, ?, ?, ?, 0, 0)`,
-    ),
-    insertChunk: db.prepare(
-      'INSERT INTO chunks (lab_id, photo_id, start, data) VALUES (?, ?, ?, ?)',
-    ),
-    setReceived: db.prepare(
-      'UPDATE uploads SET received = ?, complete = ? WHERE lab_id = ? AND photo_id = ?',
-    ),
-    chunks: db.prepare<[number, string], { data: Buffer }>(
-      'SELECT data FROM chunks WHERE lab_id = ? AND photo_id = ? ORDER BY start',
-    ),
-    chunkAt: db.prepare<[number, string, number], { data: Buffer }>(
-      'SELECT data FROM chunks WHERE lab_id = ? AND photo_id = ? AND start = ?',
-    ),
-    revisionAt: db.prepare<[number, number], { hash: string }>(
-      'SELECT hash FROM revisions WHERE lab_id = ? AND seq = ?',
-    ),
-    dropChunks: db.prepare('DELETE FROM chunks WHERE lab_id = ? AND photo_id = ?'),
+    upload: db.prepare<[number, string], UploadRow>(forSqlite('upload')),
+    insertUpload: db.prepare(forSqlite('insertUpload')),
+    insertChunk: db.prepare(forSqlite('insertChunk')),
+    setReceived: db.prepare(forSqlite('setReceived')),
+    chunks: db.prepare<[number, string], { data: Buffer }>(forSqlite('chunks')),
+    chunkAt: db.prepare<[number, string, number], { data: Buffer }>(forSqlite('chunkAt')),
+    revisionAt: db.prepare<[number, number], { hash: string }>(forSqlite('revisionAt')),
+    dropChunks: db.prepare(forSqlite('dropChunks')),
   };
 
   const now = () => new Date().toISOString();
@@ -525,18 +333,6 @@ export function openSqliteStore(options: SqliteOptions): SyncStore {
   const cursorAt = (labId: number, seq: number): string =>
     formatCursor({ seq, mark: seq === 0 ? null : q.revisionAt.get(labId, seq)!.hash.slice(0, 16) });
 
-  /**
-   * Bytes the answer takes as sent: the page's fixed part plus each record with its comma, all in
-   * UTF-8, so device ids and text in any script count at their real size.
-   */
-  const PAGE_OVERHEAD = Buffer.byteLength(
-    JSON.stringify({
-      records: [],
-      cursor: formatCursor({ seq: 1e15 - 1, mark: 'f'.repeat(16) }),
-      more: false,
-    }),
-  );
-
   return {
     async addLab(name: string, settings: LabSettings) {
       if (q.labByName.get(name))
@@ -564,7 +360,7 @@ export function openSqliteStore(options: SqliteOptions): SyncStore {
       return q.tokensOfLab.all(labId).map(tokenFromRow);
     },
     async revokeToken(labId, id) {
-      return guarded(() => revokeAll(labId, id));
+      return guarded(() => revokeAll.immediate(labId, id));
     },
     async tokenAccess(hash): Promise<TokenAccess | undefined> {
       const row = q.labByToken.get(hash);
@@ -574,7 +370,7 @@ export function openSqliteStore(options: SqliteOptions): SyncStore {
       return { lab: labFromRow(row), revokedAt: row.revoked_at };
     },
     async push(labId, device, changes) {
-      return guarded(() => pushAll(labId, device, changes));
+      return guarded(() => pushAll.immediate(labId, device, changes));
     },
     async pull(labId, since, limit, maxBytes) {
       // One read transaction, so the records and their heads are from the same moment.
@@ -606,13 +402,13 @@ export function openSqliteStore(options: SqliteOptions): SyncStore {
       })();
     },
     async beginUpload(labId, request) {
-      return guarded(() => begin(labId, request));
+      return guarded(() => begin.immediate(labId, request));
     },
     async upload(labId, photoId) {
-      return guarded(() => settled(labId, photoId));
+      return guarded(() => settled.immediate(labId, photoId));
     },
     async appendChunk(labId, photoId, offset, bytes) {
-      return guarded(() => appendAll(labId, photoId, offset, bytes));
+      return guarded(() => appendAll.immediate(labId, photoId, offset, bytes));
     },
     async *photoChunks(labId, photoId) {
       // One chunk read at a time by its offset, so a photo is never held whole in memory and no

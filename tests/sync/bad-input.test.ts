@@ -215,9 +215,9 @@ describe('lengths in bytes', () => {
       'invalid-request',
       /is 513 bytes long/,
     );
-    expect(server.rows("SELECT count(*) AS n FROM revisions WHERE device LIKE 'd%'")).toEqual([
-      { n: 0 },
-    ]);
+    expect(await server.rows("SELECT count(*) AS n FROM revisions WHERE device LIKE 'd%'")).toEqual(
+      [{ n: 0 }],
+    );
   });
 });
 
@@ -235,11 +235,11 @@ describe('heads per record', () => {
       'too-many-heads',
       /plates mf-plate-1 already has 64 versions/,
     );
-    const stored = () =>
-      server.rows(
+    const stored = async () =>
+      await server.rows(
         "SELECT count(*) AS n FROM revisions JOIN labs ON labs.id = lab_id WHERE labs.name = 'heads'",
       );
-    expect(stored()).toEqual([{ n: 0 }]);
+    expect(await stored()).toEqual([{ n: 0 }]);
     const full = await call<PushResponse>(`${server.sync}/push`, token, {
       body: { device: 'phone-a', changes: versions(cap) },
     });

@@ -153,11 +153,11 @@ describe('two phones in Chromium', () => {
     const [onA, onB] = [await plates(a.page), await plates(b.page)];
     expect(onA).toEqual(onB);
     expect(onA[0]!.typedCounts).toEqual({ test: 131, reference: 88 });
-    const heads = server.rows(
+    const heads = (await server.rows(
       "SELECT heads FROM records WHERE kind = 'plates' AND record_id = 'mf-plate-1'",
-    ) as { heads: string }[];
+    )) as { heads: string }[];
     expect(JSON.parse(heads[0]!.heads)).toHaveLength(1);
-    const stored = server.rows(
+    const stored = await server.rows(
       "SELECT count(*) AS n FROM revisions WHERE record_id = 'mf-plate-1'",
     );
     // The first plate, both offline edits and the resolution: nothing was thrown away.

@@ -7,6 +7,7 @@ import { type ChildProcess, spawn } from 'node:child_process';
 import { resolve } from 'node:path';
 import { createInterface } from 'node:readline';
 import { SYNC_BASE_PATH } from '../../schema/sync-protocol.ts';
+import { isPostgresUrl } from '../../server/open-store.ts';
 
 const BIN = resolve(import.meta.dirname, '../../bin/rivalplate.js');
 
@@ -38,13 +39,20 @@ export interface ChildServer {
   stop(): Promise<void>;
 }
 
+/** `rivalplate server start` arguments that serve this database (a folder or a postgres:// URL). */
+export const databaseArgs = (where: string): string[] =>
+  isPostgresUrl(where) ? ['--db', where] : ['--data', where];
+
 /** Servers still running when the test process ends (a failed test) are ended with it. */
 const running = new Set<ChildProcess>();
 process.once('exit', () => {
   for (const child of running) child.kill('SIGKILL');
 });
 
-/** `port` 0 takes any free port; a fixed one lets a restarted server keep its address. */
+/**
+ * `dataDir`: a data folder or a postgres:// URL (test-database.ts). `port` 0 takes any free port;
+ * a fixed one lets a restarted server keep its address.
+ */
 export function startChildServer(
   dataDir: string,
   port = 0,
@@ -52,7 +60,7 @@ export function startChildServer(
 ): Promise<ChildServer> {
   const child = spawn(
     process.execPath,
-    [BIN, 'server', 'start', '--port', String(port), '--data', dataDir],
+    [BIN, 'server', 'start', '--port', String(port), ...databaseArgs(dataDir)],
     {
       stdio: ['ignore', 'pipe', 'pipe'],
     },

@@ -1,14 +1,12 @@
 /**
  * Faults on the way between a phone and the server: connections cut in the middle of a push and
  * of a photo chunk, an answer that never arrives, and the server process killed (SIGKILL) while a
- * batch is being applied, then started again on the same SQLite file. After each, what the
- * client sent is counted against what the server holds: nothing lost, nothing twice.
+ * batch is being applied, then started again on the same database (the SQLite file, or the
+ * PostgreSQL database: this suite runs on both engines). After each, what the client sent is
+ * counted against what the server holds: nothing lost, nothing twice.
  */
 import { createHash, randomBytes } from 'node:crypto';
-import { rmSync } from 'node:fs';
 import { request } from 'node:http';
-import { join } from 'node:path';
-import Database from 'better-sqlite3';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type {
   Change,
@@ -16,11 +14,11 @@ import type {
   PullResponse,
   PushResponse,
 } from '../../schema/sync-protocol.ts';
-import { DATABASE_FILE } from '../../server/data-folder.ts';
 import { pushArrives, pushStarted, startChildServer } from './child-server.ts';
-import { call, freePort, startTestServer, type TestServer, tempDir } from './harness.ts';
+import { call, freePort, startTestServer, type TestServer } from './harness.ts';
 import { analysis, benchSession, changeOf } from './marrowfield.ts';
 import { makePhone } from './phone.ts';
+import { dropDatabase, ENGINE, freshDatabase, queryOnce } from './test-database.ts';
 
 const tally = { faults: 0, synced: 0, lost: 0, duplicated: 0 };
 
@@ -89,15 +87,15 @@ async function audit(sync: string, token: string, sent: Change[]): Promise<void>
   });
 }
 
-const revisions = (srv: TestServer) =>
-  (srv.rows('SELECT count(*) AS n FROM revisions')[0] as { n: number }).n;
+const revisions = async (srv: TestServer) =>
+  ((await srv.rows('SELECT count(*) AS n FROM revisions'))[0] as { n: number }).n;
 
 describe('connection cut', () => {
   it('in the middle of a push: nothing is written, and the retry stores the whole batch', async () => {
     const token = await server.lab('cut-push');
     const changes = benchSession(40, 'cut-plate');
     const body = Buffer.from(JSON.stringify({ device: 'phone-a', changes }));
-    const before = revisions(server);
+    const before = await revisions(server);
     await cutRequest(
       `${server.sync}/push`,
       token,
@@ -106,7 +104,7 @@ describe('connection cut', () => {
       'POST',
       body.length >> 1,
     );
-    expect(revisions(server)).toBe(before);
+    expect(await revisions(server)).toBe(before);
     const retry = await call<PushResponse>(`${server.sync}/push`, token, {
       body: { device: 'phone-a', changes },
     });
@@ -125,8 +123,8 @@ describe('connection cut', () => {
     expect(retry.status).toBe(200);
     expect(retry.json.accepted).toHaveLength(changes.length);
     await audit(server.sync, token, changes);
-    const stored = server.rows(
-      "SELECT count(*) AS n FROM revisions WHERE record_id LIKE 'lost-plate-%'",
+    const stored = (
+      await server.rows("SELECT count(*) AS n FROM revisions WHERE record_id LIKE 'lost-plate-%'")
     )[0] as { n: number };
     expect(stored.n).toBe(30);
   });
@@ -188,7 +186,7 @@ describe('connection cut', () => {
 
 describe('server process killed during a batch', () => {
   it('leaves each batch wholly there or wholly absent; after a restart the retry completes it', async () => {
-    const dir = tempDir();
+    const dir = await freshDatabase();
     const first = await startTestServer({ dir });
     const token = await first.lab('killed');
     await first.close();
@@ -219,17 +217,14 @@ describe('server process killed during a batch', () => {
       tally.faults += 1;
       await sending;
 
-      // The file as the crash left it, opened again: intact, and the batch all or nothing.
-      const db = new Database(join(dir, DATABASE_FILE));
-      expect(db.pragma('integrity_check', { simple: true })).toBe('ok');
-      const n = (
-        db
-          .prepare('SELECT count(*) AS n FROM revisions WHERE record_id LIKE ?')
-          .get(`kill-${round}-%`) as {
-          n: number;
-        }
-      ).n;
-      db.close();
+      // The database as the crash left it, opened again: intact, and the batch all or nothing.
+      if (ENGINE === 'sqlite')
+        expect(await queryOnce(dir, 'PRAGMA integrity_check')).toEqual([{ integrity_check: 'ok' }]);
+      const [{ n }] = (await queryOnce(
+        dir,
+        'SELECT count(*) AS n FROM revisions WHERE record_id LIKE ?',
+        `kill-${round}-%`,
+      )) as [{ n: number }];
       expect([0, 150]).toContain(n);
       if (moment === 'after the answer') expect(n).toBe(150);
       outcomes.push(`${n === 0 ? 'absent' : 'whole'} (killed at "${moment}")`);
@@ -243,7 +238,7 @@ describe('server process killed during a batch', () => {
     }
     await audit(child.sync, token, everything);
     await child.stop();
-    rmSync(dir, { recursive: true, force: true });
+    await dropDatabase(dir);
     console.log(
       `server killed ${killAt.length} times: the batch was ${outcomes.join(', ')} after each restart`,
     );
@@ -294,7 +289,7 @@ describe('server process killed as a photo completes', () => {
   }
 
   it('leaves the upload complete or resumable, never all bytes in and unfinished', async () => {
-    const dir = tempDir();
+    const dir = await freshDatabase();
     const setup = await startTestServer({ dir });
     const token = await setup.lab('photo-kill', { photoMaxBytes: 64 * CHUNK });
     await setup.close();
@@ -336,14 +331,14 @@ describe('server process killed as a photo completes', () => {
       );
     }
     await child.stop();
-    rmSync(dir, { recursive: true, force: true });
+    await dropDatabase(dir);
     console.log(
       `photo upload killed ${delays.length} times at its last chunk: ${outcomes.complete} complete, ${outcomes.resumed} resumed after the restart`,
     );
   });
 
   it('finishes an upload an older server left with every byte in and not complete', async () => {
-    const dir = tempDir();
+    const dir = await freshDatabase();
     const first = await startTestServer({ dir });
     const token = await first.lab('photo-stuck');
     const photo = randomBytes(3 * CHUNK);
@@ -352,9 +347,7 @@ describe('server process killed as a photo completes', () => {
     ).toBe(true);
     await first.close();
     // The state a crash between the last chunk and the check left behind.
-    const db = new Database(join(dir, DATABASE_FILE));
-    db.prepare("UPDATE uploads SET complete = 0 WHERE photo_id = 'mf-photo-stuck'").run();
-    db.close();
+    await queryOnce(dir, "UPDATE uploads SET complete = 0 WHERE photo_id = 'mf-photo-stuck'");
 
     const again = await startTestServer({ dir });
     const state = await sendFrom(again.sync, token, 'mf-photo-stuck', photo, photo.length);
@@ -363,13 +356,13 @@ describe('server process killed as a photo completes', () => {
       createHash('sha256').update(photo).digest('hex'),
     );
     await again.close();
-    rmSync(dir, { recursive: true, force: true });
+    await dropDatabase(dir);
   });
 });
 
 describe('the sync client when the server dies under it', () => {
   it('keeps its outbox through the crash, and its own next round completes the push', async () => {
-    const dir = tempDir();
+    const dir = await freshDatabase();
     const setup = await startTestServer({ dir });
     const token = await setup.lab('client-retry');
     await setup.close();
@@ -407,6 +400,6 @@ describe('the sync client when the server dies under it', () => {
     );
     phone.client.stop();
     await child.stop();
-    rmSync(dir, { recursive: true, force: true });
+    await dropDatabase(dir);
   });
 });

@@ -1,17 +1,16 @@
 /**
- * A real sync server for tests: a fresh SQLite file in a temporary folder, Fastify listening on
+ * A real sync server for tests: a fresh database of the engine under test (test-database.ts: a
+ * SQLite file in a temporary folder, or a new PostgreSQL database), Fastify listening on
  * 127.0.0.1 on a free port, labs and tokens made through the same store the command line uses.
  */
-import { mkdtempSync, rmSync } from 'node:fs';
 import { createServer } from 'node:net';
-import { tmpdir } from 'node:os';
-import { join } from 'node:path';
-import Database from 'better-sqlite3';
 import { SYNC_BASE_PATH } from '../../schema/sync-protocol.ts';
 import { buildSyncServer } from '../../server/app.ts';
-import { DATABASE_FILE, openDataFolder } from '../../server/data-folder.ts';
 import type { LabSettings } from '../../server/storage/sync-store.ts';
 import { newToken, tokenHash } from '../../server/tokens.ts';
+import { dropDatabase, freshDatabase, openReader, openTestStore } from './test-database.ts';
+
+export { ENGINE, freshDatabase, tempDir } from './test-database.ts';
 
 export interface TestServer {
   /** Base URL of the sync routes, e.g. http://127.0.0.1:41234/sync/v1 */
@@ -19,24 +18,26 @@ export interface TestServer {
   origin: string;
   /** Adds a lab and returns a fresh token for it. */
   lab(name: string, settings?: Partial<LabSettings>): Promise<string>;
-  /** Rows in a table, read through a separate connection, as another process would see them. */
-  rows(sql: string, ...params: unknown[]): unknown[];
+  /**
+   * Rows in a table, read through a separate connection, as another process would see them
+   * (`?` placeholders, on either engine).
+   */
+  rows(sql: string, ...params: unknown[]): Promise<unknown[]>;
   close(): Promise<void>;
 }
 
-export function tempDir(): string {
-  return mkdtempSync(join(tmpdir(), 'rivalplate-sync-'));
-}
-
 export async function startTestServer(
-  /** `port`: a fixed one lets a restarted server keep its address (see `freePort`). */
+  /**
+   * `dir`: the database (from freshDatabase) to serve, kept on close; `port`: a fixed one lets a
+   * restarted server keep its address (see `freePort`); `maxBytes`: SQLite's file cap.
+   */
   options: { dir?: string; maxBytes?: number; appDir?: string; port?: number } = {},
 ): Promise<TestServer> {
-  const dir = options.dir ?? tempDir();
-  const { store } = openDataFolder(dir, options.maxBytes);
+  const dir = options.dir ?? (await freshDatabase());
+  const store = await openTestStore(dir, options.maxBytes);
   const app = await buildSyncServer({ store, appDir: options.appDir ?? null, log: false });
   const origin = await app.listen({ port: options.port ?? 0, host: '127.0.0.1' });
-  const reader = new Database(join(dir, DATABASE_FILE), { readonly: true });
+  const reader = await openReader(dir);
   return {
     sync: origin + SYNC_BASE_PATH,
     origin,
@@ -52,12 +53,12 @@ export async function startTestServer(
       await store.addToken(lab.id, tokenHash(token));
       return token;
     },
-    rows: (sql, ...params) => reader.prepare(sql).all(...params),
+    rows: (sql, ...params) => reader.rows(sql, ...params),
     async close() {
-      reader.close();
+      await reader.close();
       await app.close();
       await store.close();
-      if (!options.dir) rmSync(dir, { recursive: true, force: true });
+      if (!options.dir) await dropDatabase(dir);
     },
   };
 }

@@ -4,12 +4,12 @@
  * time (the run is abandoned, and fails, past its deadline). Reports throughput and the slowest
  * request; asserts no errors and every record on the server and on every phone.
  */
-import { rmSync } from 'node:fs';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Change, PullResponse, PushResponse } from '../../schema/sync-protocol.ts';
 import { type ChildServer, startChildServer } from './child-server.ts';
-import { startTestServer, tempDir } from './harness.ts';
+import { startTestServer } from './harness.ts';
 import { changeOf, plate } from './marrowfield.ts';
+import { dropDatabase, freshDatabase } from './test-database.ts';
 
 const PHONES = 12;
 const ROUNDS = 6;
@@ -20,7 +20,7 @@ let child: ChildServer;
 let token: string;
 let dir: string;
 beforeAll(async () => {
-  dir = tempDir();
+  dir = await freshDatabase();
   const setup = await startTestServer({ dir });
   token = await setup.lab('load');
   await setup.close();
@@ -28,7 +28,7 @@ beforeAll(async () => {
 });
 afterAll(async () => {
   await child.stop();
-  rmSync(dir, { recursive: true, force: true });
+  await dropDatabase(dir);
 });
 
 interface Timed<T> {

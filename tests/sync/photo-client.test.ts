@@ -45,7 +45,7 @@ describe('photo upload from the phone', () => {
       ok: true,
       value: { photoId: 'mf-photo-client', bytes: 700_000, received: 700_000, complete: true },
     });
-    const rows = server.rows(
+    const rows = await server.rows(
       "SELECT start FROM chunks WHERE photo_id = 'mf-photo-client' ORDER BY start",
     );
     expect(rows).toEqual([
