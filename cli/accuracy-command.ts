@@ -198,12 +198,11 @@ function plateRow(label: LabelledPhoto, o: Outcome): PlateRow {
       error: o.error,
     };
   }
-  const k = 1 / o.original.decodedScale;
   const names = o.analysis.classes;
   const detections = o.analysis.colonies.flatMap((c) =>
     Array.from({ length: c.count }, () => ({
-      x: c.x * k,
-      y: c.y * k,
+      x: c.x,
+      y: c.y,
       cls: names[c.cls]?.name ?? String(c.cls),
     })),
   );

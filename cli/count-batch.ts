@@ -1,6 +1,7 @@
 import { availableParallelism } from 'node:os';
 import { Worker } from 'node:worker_threads';
 import {
+  analysisToOriginal,
   classifyWithPalette,
   type LearnedModel,
   learnPalette,
@@ -12,9 +13,8 @@ import { loadCvCore } from './opencv-quiet.ts';
 
 type CvCore = Awaited<ReturnType<typeof loadCvCore>>;
 
-export type Original = { width: number; height: number; decodedScale: number };
 export type Outcome =
-  | { file: string; analysis: PlateAnalysis; original: Original; ms: number }
+  | { file: string; analysis: PlateAnalysis; ms: number }
   | { file: string; error: string };
 
 export interface BatchOptions {
@@ -161,8 +161,9 @@ export async function countOne(
       ...(settings.palette ? { palette: settings.palette } : {}),
       ...(settings.model ? { model: settings.model } : {}),
     });
-    const original = { width: photo.width, height: photo.height, decodedScale: photo.scale };
-    return { file, analysis, original, ms: performance.now() - started };
+    // Read from the decoded copy, reported in the photo's own pixels.
+    const inPhoto = analysisToOriginal(analysis, 1 / photo.scale, photo.width, photo.height);
+    return { file, analysis: inPhoto, ms: performance.now() - started };
   } catch (e) {
     return { file, error: e instanceof Error ? e.message : String(e) };
   }

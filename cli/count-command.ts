@@ -127,7 +127,7 @@ export async function run(args: string[], io: CommandIo): Promise<number> {
   }
 
   const records = outcomes.map((o) =>
-    'analysis' in o ? countRecord(o.file, o.original, o.analysis, o.ms, options.range) : o,
+    'analysis' in o ? countRecord(o.file, o.analysis, o.ms, options.range) : o,
   );
   const text = render(records, options.format, names);
   if (options.out) await writeFile(options.out, text);

@@ -5,10 +5,7 @@ import {
   countableStatus,
 } from '../fitness/countable-range.ts';
 
-/**
- * One line of `rivalplate count` output: an analysis in the ORIGINAL photo's pixels (the photo
- * may have been decoded smaller; `decodedScale` is decoded pixels per original pixel).
- */
+/** One line of `rivalplate count` output: an analysis in the photo's own upright pixels. */
 export interface CountRecord {
   file: string;
   width: number;
@@ -27,30 +24,28 @@ export interface CountRecord {
 
 export function countRecord(
   file: string,
-  original: { width: number; height: number; decodedScale: number },
   a: PlateAnalysis,
   ms: number,
   range: CountableRange,
 ): CountRecord {
-  const k = 1 / original.decodedScale;
   const r1 = (v: number) => Math.round(v * 10) / 10;
   const total = a.colonies.reduce((s, c) => s + c.count, 0);
   return {
     file,
-    width: original.width,
-    height: original.height,
+    width: a.width,
+    height: a.height,
     dish: a.dish && {
-      cx: r1(a.dish.cx * k),
-      cy: r1(a.dish.cy * k),
-      r: r1(a.dish.r * k),
-      rx: r1(a.dish.rx * k),
-      ry: r1(a.dish.ry * k),
+      cx: r1(a.dish.cx),
+      cy: r1(a.dish.cy),
+      r: r1(a.dish.r),
+      rx: r1(a.dish.rx),
+      ry: r1(a.dish.ry),
       angleDeg: r1(a.dish.angleDeg),
     },
     colonies: a.colonies.map((c) => ({
-      x: r1(c.x * k),
-      y: r1(c.y * k),
-      r: r1(c.r * k),
+      x: r1(c.x),
+      y: r1(c.y),
+      r: r1(c.r),
       cls: c.cls,
       confidence: c.confidence,
       count: c.count,

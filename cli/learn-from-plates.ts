@@ -66,11 +66,7 @@ async function labelPlates(
       withCandidates: true,
       searchReach,
     });
-    const final = plate.colonies.map((c) => ({
-      x: c.x * photo.scale,
-      y: c.y * photo.scale,
-      cls: c.cls,
-    }));
+    const final = plate.colonies.map((c) => core.pointToDecoded(c, 1 / photo.scale));
     labels.push(...core.labelsFromCorrections(analysis.candidates ?? [], final));
   }
   return labels;

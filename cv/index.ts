@@ -15,4 +15,5 @@ export {
 export { modelToJson, parseModel } from './model-file.ts';
 export { loadOpenCv, provideOpenCvModule } from './opencv.ts';
 export { classifyWithPalette, learnPalette, paletteFromExamples } from './palette.ts';
+export { analysisToOriginal, dishToDecoded, pointToDecoded } from './photo-pixels.ts';
 export type * from './types.ts';

@@ -11,10 +11,10 @@ import {
   paletteFromExamples,
 } from '../cv/index.ts';
 import { loadOpenCv } from '../cv/opencv.ts';
+import { analysisToOriginal, dishToDecoded } from '../cv/photo-pixels.ts';
 import type { AnalyzeOptions, Colony, LearnedModel, Palette, PlateAnalysis } from '../cv/types.ts';
 import { decodePhoto } from './decode.ts';
 import { type FitResult, fitExperimentModel, type TeachingPlate } from './learning.ts';
-import { analysisToOriginal, dishToDecoded } from './rescale.ts';
 
 export interface AnalyseRequest {
   photo: Blob;

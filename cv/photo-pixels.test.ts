@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import type { PlateAnalysis } from '../cv/types.ts';
-import { analysisToOriginal, dishToDecoded } from './rescale.ts';
+import { analysisToOriginal, dishToDecoded, pointToDecoded } from './photo-pixels.ts';
+import type { PlateAnalysis } from './types.ts';
 
 const decoded: PlateAnalysis = {
   width: 2400,
@@ -53,6 +53,12 @@ describe('analysisToOriginal', () => {
     expect(out.counts).toEqual(decoded.counts);
   });
 
+  it('scales the objects of neither colour too: the person taps them in the photo', () => {
+    const odd = { ...decoded.colonies[0]!, x: 300, y: 200 };
+    const out = analysisToOriginal({ ...decoded, neither: [odd] }, 2, 4800, 3600);
+    expect(out.neither?.map((c) => [c.x, c.y, c.r, c.area])).toEqual([[600, 400, 8, 200]]);
+  });
+
   it("scales the considered objects' positions and radii, and leaves their sizes in mm", () => {
     const candidate = {
       id: 7,
@@ -73,6 +79,14 @@ describe('analysisToOriginal', () => {
     const out = analysisToOriginal({ ...decoded, candidates: [candidate] }, 2, 4800, 3600);
     expect(out.candidates).toEqual([{ ...candidate, x: 240, y: 120, r: 10 }]);
     expect(analysisToOriginal(decoded, 2, 4800, 3600).candidates).toBeUndefined();
+  });
+
+  it('a tapped point goes to the decoded copy by the same k', () => {
+    expect(pointToDecoded({ x: 600, y: 400, cls: 'red' }, 2)).toEqual({
+      x: 300,
+      y: 200,
+      cls: 'red',
+    });
   });
 
   it('a dish placed in original pixels round-trips through the decoded copy', () => {
