@@ -57,6 +57,15 @@ test('the demo is one tap away, marked as demo data, with photos, counts and fit
   await expect(blocked.first()).toContainText('SD between blocks');
   // Every pair of the six lines at each of the three generations, by Tukey's HSD.
   await expect(page.getByTestId('tukey-pairs').locator('tbody tr')).toHaveCount(3 * 15);
+  // Each line against the ancestor and each line's change between generations, folded tables.
+  for (const [id, header] of [
+    ['lines-vs-ancestor', 'p Holm'],
+    ['line-changes', 'p (Welch)'],
+  ] as const) {
+    const table = page.getByTestId(id);
+    await expect(table.locator('thead')).toContainText(header);
+    expect(await table.locator('tbody tr').count()).toBeGreaterThanOrEqual(6);
+  }
   // Whether the six lines share one curve: one shared fit against six, by the F test.
   const shared = page.getByTestId('shared-curves');
   await expect(shared).toContainText(

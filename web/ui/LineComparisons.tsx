@@ -1,6 +1,7 @@
 import type { LabComparisons } from '../../fitness/lab-comparisons.ts';
 import { fixed3, interval, pValue } from '../results/format.ts';
 import { BlockedGuide, BlockedResults } from './BlockedResults.tsx';
+import { ResultsTable } from './ResultsTable.tsx';
 
 /**
  * The lab's comparisons of its lines (fitness/lab-comparisons.ts): lines against each other within
@@ -104,74 +105,43 @@ export function LineComparisons({
         </>
       )}
       {lab.vsAncestor.length > 0 && (
-        <details>
-          <summary>Each line against the ancestor (W = 1), adjusted for many tests</summary>
-          <div className="table-wrap">
-            <table className="results num" data-testid="lines-vs-ancestor">
-              <thead>
-                <tr>
-                  <th>Line</th>
-                  <th>Generation</th>
-                  <th>mean W</th>
-                  <th>95% CI</th>
-                  <th>p</th>
-                  <th>p Holm</th>
-                  <th>p BH</th>
-                </tr>
-              </thead>
-              <tbody>
-                {lab.vsAncestor.map((x) => (
-                  <tr key={`${x.line}@${x.generation}`}>
-                    <td>{x.line}</td>
-                    <td>{x.generation}</td>
-                    <td>{fixed3(x.meanW)}</td>
-                    <td>{interval(x.ci)}</td>
-                    <td>{pValue(x.test?.p)}</td>
-                    <td>{pValue(x.pHolm)}</td>
-                    <td>{pValue(x.pBH)}</td>
-                  </tr>
-                ))}
-              </tbody>
-            </table>
-          </div>
-        </details>
+        <ResultsTable
+          summary="Each line against the ancestor (W = 1), adjusted for many tests"
+          testId="lines-vs-ancestor"
+          head={['Line', 'Generation', 'mean W', '95% CI', 'p', 'p Holm', 'p BH']}
+          rows={lab.vsAncestor.map((x) => ({
+            key: `${x.line}@${x.generation}`,
+            cells: [
+              x.line,
+              x.generation,
+              fixed3(x.meanW),
+              interval(x.ci),
+              pValue(x.test?.p),
+              pValue(x.pHolm),
+              pValue(x.pBH),
+            ],
+          }))}
+        />
       )}
       {lab.changes.length > 0 && (
-        <details>
-          <summary>
-            Each line's change between measured generations, adjusted for many tests
-          </summary>
-          <div className="table-wrap">
-            <table className="results num" data-testid="line-changes">
-              <thead>
-                <tr>
-                  <th>Line</th>
-                  <th>From</th>
-                  <th>To</th>
-                  <th>change in W</th>
-                  <th>95% CI</th>
-                  <th>p (Welch)</th>
-                  <th>p Holm</th>
-                  <th>p BH</th>
-                </tr>
-              </thead>
-              <tbody>
-                {lab.changes.map((x) => (
-                  <tr key={`${x.line}@${x.from}-${x.to}`}>
-                    <td>{x.line}</td>
-                    <td>{x.from}</td>
-                    <td>{x.to}</td>
-                    <td>{fixed3(x.diff)}</td>
-                    <td>{interval(x.ci)}</td>
-                    <td>{pValue(x.test?.p)}</td>
-                    <td>{pValue(x.pHolm)}</td>
-                    <td>{pValue(x.pBH)}</td>
-                  </tr>
-                ))}
-              </tbody>
-            </table>
-          </div>
-        </details>
+        <ResultsTable
+          summary="Each line's change between measured generations, adjusted for many tests"
+          testId="line-changes"
+          head={['Line', 'From', 'To', 'change in W', '95% CI', 'p (Welch)', 'p Holm', 'p BH']}
+          rows={lab.changes.map((x) => ({
+            key: `${x.line}@${x.from}-${x.to}`,
+            cells: [
+              x.line,
+              x.from,
+              x.to,
+              fixed3(x.diff),
+              interval(x.ci),
+              pValue(x.test?.p),
+              pValue(x.pHolm),
+              pValue(x.pBH),
+            ],
+          }))}
+        />
       )}
       {corrected && (lab.vsAncestor.length > 0 || lab.changes.length > 0) && (
         <p className="muted">
