@@ -78,13 +78,14 @@ export class ModelError extends Error {
 
 /**
  * Learns a model from the labels of `plates` checked plates. `names` are the colour names in the
- * order the lab uses them (at most two). Throws ModelError when the labels cannot teach anything.
+ * order the lab uses them (at most two); `reach` is how far its search reaches (searchReach,
+ * worked out by the caller from plates read with the default search). Throws ModelError when the labels cannot teach anything.
  */
 export function learnModel(
   labels: readonly CandidateLabel[],
   plates: number,
   names: readonly string[],
-  searched = 1,
+  reach = 1,
 ): LearnedModel {
   const usable = labels.filter((l) => l.features !== null);
   const colonies = usable.filter((l) => l.colony).length;
@@ -118,7 +119,7 @@ export function learnModel(
     intercept: sig(fit.intercept),
     weights: fit.weights.map(sig),
     lambda: LAMBDA,
-    reach: searchReach(labels, searched),
+    reach,
     palette: labelledPalette(usable, names),
   };
 }
@@ -127,7 +128,9 @@ export function learnModel(
  * How far the candidate search must reach, from the colonies people had to add where the search
  * (run with thresholds × `searched`) had considered nothing: the thresholds are lowered in
  * proportion to the share of checked colonies it missed, reach = searched × (1 − missed share),
- * and never below MIN_REACH. A rule of thumb of this project, not a published method: a lower
+ * and never below MIN_REACH. Worked out from plates read with one search only (the default one,
+ * in the app and in `learn`), so refitting after every checked plate does not lower it again for
+ * the same missed colonies. A rule of thumb of this project, not a published method: a lower
  * threshold finds more faint objects and more noise, and it is the model, fitted on plates read
  * with that reach, that tells them apart (the default rules never see what only the wider search
  * found). Plates where nothing was added keep the reach they were read with.

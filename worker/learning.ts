@@ -6,12 +6,20 @@
  */
 // The modules themselves, not the core's index: the app's thread must not pull in opencv.js.
 import { type FinalColony, labelsFromCorrections } from '../cv/labels.ts';
-import { coloniesNeeded, decidesColonies, learnModel, ModelError } from '../cv/learned-model.ts';
+import {
+  coloniesNeeded,
+  decidesColonies,
+  learnModel,
+  ModelError,
+  searchReach,
+} from '../cv/learned-model.ts';
 import { modelToJson, parseModel } from '../cv/model-file.ts';
 import type { CandidateFeatures, LearnedModel } from '../cv/types.ts';
 
 /** One checked plate as learning needs it: what the analysis considered, and what the person kept. */
 export interface TeachingPlate {
+  /** Read by the default analysis (no learned model, so with the default search). */
+  readByDefaults: boolean;
   candidates: CandidateFeatures[];
   /** The colonies after the person's corrections, original photo pixels, colour by the lab's name. */
   final: FinalColony[];
@@ -23,20 +31,24 @@ export type FitResult =
 
 /**
  * The experiment's model from every checked plate (labels from corrections, then the L2-regularised
- * logistic regression of cv/learned-model.ts), as the text of a model file. `searched` is the
- * reach of the model the plates were read with (1 for the defaults): the new model's reach starts
- * from it (cv searchReach). Labels that teach
+ * logistic regression of cv/learned-model.ts), as the text of a model file. Its search reach comes
+ * from the plates the default analysis read (cv searchReach); with none of those, the experiment's
+ * current reach is kept. Labels that teach
  * nothing (no colony on a measured object, or nothing that was not one) give a reason instead of
  * throwing across the worker boundary.
  */
 export function fitExperimentModel(
   plates: readonly TeachingPlate[],
   names: readonly [string, string],
-  searched = 1,
+  currentReach = 1,
 ): FitResult {
-  const labels = plates.flatMap((p) => labelsFromCorrections(p.candidates, p.final));
+  const labelsOf = (p: TeachingPlate) => labelsFromCorrections(p.candidates, p.final);
+  const labels = plates.flatMap(labelsOf);
+  // Only plates the default search read say how far it falls short; with none, the reach stays.
+  const byDefaults = plates.filter((p) => p.readByDefaults).flatMap(labelsOf);
+  const reach = byDefaults.length > 0 ? searchReach(byDefaults) : currentReach;
   try {
-    const model = learnModel(labels, plates.length, names, searched);
+    const model = learnModel(labels, plates.length, names, reach);
     return {
       ok: true,
       model: modelToJson(model),

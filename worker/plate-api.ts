@@ -112,8 +112,8 @@ export const plateApi = {
   async fitModel(
     plates: TeachingPlate[],
     names: [string, string],
-    searched = 1,
+    currentReach = 1,
   ): Promise<FitResult> {
-    return fitExperimentModel(plates, names, searched);
+    return fitExperimentModel(plates, names, currentReach);
   },
 };

@@ -31,6 +31,7 @@ export async function teachingPlates(
     if (!reading || !candidates) continue;
     if (since !== null && reading.analysis.updatedAt <= since) continue;
     out.push({
+      readByDefaults: reading.analysis.learnedFrom === null,
       candidates: candidateFeaturesOf(candidates),
       final: reading.corrected.map((c) => ({ x: c.x, y: c.y, cls: names[c.cls]! })),
     });
@@ -55,12 +56,12 @@ export async function refitModel(
     experiment.markerColours[0].name,
     experiment.markerColours[1].name,
   ];
-  // The plates since the last model were read with its reach; the new one starts from there.
+  // Kept when no plate read by the defaults says how far the search falls short.
   const current = experiment.learning.model ? readModelText(experiment.learning.model) : null;
-  const searched = current?.ok ? current.model.reach : 1;
+  const reach = current?.ok ? current.model.reach : 1;
   const fit =
     plates.length > 0
-      ? await worker.call<FitResult>((api) => api.fitModel(plates, names, searched))
+      ? await worker.call<FitResult>((api) => api.fitModel(plates, names, reach))
       : null;
   const model = fit?.ok ? fit.model : null;
   // Read again: the fit ran in the worker, and the record may have changed meanwhile.
