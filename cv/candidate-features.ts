@@ -1,4 +1,4 @@
-import type { ComponentStats, RegionStats } from './measure.ts';
+import { type ComponentStats, elongationOf, type RegionStats } from './measure.ts';
 import type { CandidateFeatures, CandidateVerdict } from './types.ts';
 
 /**
@@ -54,7 +54,7 @@ export function candidateFeatures(input: FeatureInput): CandidateFeatures[] {
         db: round(d[2]!, 2),
         dE: round(r.contrast, 2),
         radiusMm: round(Math.sqrt(r.area / Math.PI) * mmPerPx, 3),
-        elongation: round(r.area / (Math.PI * Math.max(1, r.halfWidth) ** 2), 3),
+        elongation: round(elongationOf(r), 3),
         ridgeVariation: round(byId.get(r.component)?.ridgeVariation ?? 0, 3),
         wallMm: round(input.wallMm(r.x, r.y), 2),
         verdict: input.verdict.get(r.id) ?? 'rejected',

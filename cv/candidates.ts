@@ -1,5 +1,5 @@
 import { deltaE76 } from './colour.ts';
-import type { ComponentStats, RegionStats } from './measure.ts';
+import { type ComponentStats, elongationOf, type RegionStats } from './measure.ts';
 import {
   darkInkUsable,
   hasPenColour,
@@ -228,7 +228,7 @@ function dropSatellites(regions: RegionStats[], minArea: number, gapPx: number):
 }
 
 function clumpCount(region: RegionStats, typicalArea: number): number {
-  const elongation = region.area / (Math.PI * Math.max(1, region.halfWidth) ** 2);
+  const elongation = elongationOf(region);
   if (elongation <= CLUMP_ELONGATION) return 1;
   return Math.max(2, Math.min(Math.round(elongation), Math.round(region.area / typicalArea)));
 }
@@ -239,7 +239,7 @@ function componentVerdict(
   typicalRadius: number,
 ): 'keep' | 'specks' | 'strokes' | 'wall' {
   if (c.area < minArea) return 'specks';
-  const elongation = c.area / (Math.PI * Math.max(1, c.halfWidth) ** 2);
+  const elongation = elongationOf(c);
   if (elongation > STROKE_ELONGATION && c.ridgeVariation < STROKE_RIDGE_VARIATION) {
     return 'strokes';
   }
@@ -252,12 +252,12 @@ function componentVerdict(
  * of writing, whatever its colour.
  */
 function isRound(c: ComponentStats): boolean {
-  return c.rimPixels === 0 && c.area / (Math.PI * Math.max(1, c.halfWidth) ** 2) <= ROUND_BLOB;
+  return c.rimPixels === 0 && elongationOf(c) <= ROUND_BLOB;
 }
 
 /** A round region that is the whole of a round blob touching nothing. */
 function isRoundAlone(r: RegionStats, c: ComponentStats): boolean {
-  return c.regions === 1 && isRound(c) && clumpCount(r, r.area) === 1;
+  return c.regions === 1 && isRound(c) && elongationOf(r) <= CLUMP_ELONGATION;
 }
 
 /**

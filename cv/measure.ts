@@ -40,6 +40,14 @@ export interface ComponentStats {
   ridgeVariation: number;
 }
 
+/**
+ * A blob's area over that of the largest disc it holds (π·halfWidth²): about 1 for any round
+ * colony, big or small, about 2 for a fused pair, large for a stroke.
+ */
+export function elongationOf(b: { area: number; halfWidth: number }): number {
+  return b.area / (Math.PI * Math.max(1, b.halfWidth) ** 2);
+}
+
 export function measureRegions(
   regions: Mat,
   regionCount: number,
