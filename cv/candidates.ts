@@ -31,8 +31,10 @@ import {
  *   point. A long blob whose ridge varies less than STROKE_RIDGE_VARIATION is a band. The
  *   pieces of the same writing that shape cannot tell are found by the pen's colour and
  *   thickness, learned from those bands, or as dark, colourless ink where the plate's own round
- *   colonies are not of that colour (writing.ts). A round blob that touches nothing is never
- *   taken for writing.
+ *   colonies are not of that colour (writing.ts). Inside a stroke's own blob, a piece of the
+ *   blob's ink thinner than a colony is the line even when the plate's colonies share the ink's
+ *   colour (blue writing on a plate of blue colonies). A round blob that touches nothing is
+ *   never taken for writing.
  * - Grey shades: regions darker than the agar with hardly any tint of their own against it (the
  *   soft edge of an ink stroke, the shadowed side of a droplet, shading under condensation, the
  *   dim rim round lid glare). A colony of the agar's own hue, only darker (deep red on pink
@@ -127,12 +129,20 @@ export function selectCandidates(
   }
   const roundIds = new Set(components.filter(isRound).map((c) => c.id));
   const roundBlobs = regions.filter((r) => roundIds.has(r.component));
-  const pens = pensFromStrokes(
+  // The ink's colour is read away from the wall, where the meniscus's shading and the wall's
+  // reflections join writing that crosses them into one blob.
+  const { usable: pens, byStroke } = pensFromStrokes(
     components.filter((c) => verdict.get(c.id) === 'strokes'),
-    regions,
+    regions.filter((r) => !nearWall(r)),
     roundBlobs,
   );
   const darkInk = darkInkUsable(roundBlobs);
+  // A blob's own pen, even one the round blobs share, tells its pieces thinner than a colony
+  // (the line) from the colony-thick ones (colonies the line touches, or a chain of colonies).
+  const inkOf = (r: RegionStats) => {
+    const own = byStroke.get(r.component);
+    return own && r.halfWidth < STROKE_THINNESS * typicalRadius ? [...pens, own] : pens;
+  };
   const kept = regions.filter((r) => {
     const v = verdict.get(r.component);
     // A colony touching a pen stroke or a glint on the wall shares its blob; it is as thick as a
@@ -140,7 +150,7 @@ export function selectCandidates(
     const comp = byId.get(r.component);
     const fatInThin =
       comp !== undefined &&
-      ((v === 'strokes' && isColonyOnStroke(r, strokeHalfWidth(comp), pens, darkInk)) ||
+      ((v === 'strokes' && isColonyOnStroke(r, strokeHalfWidth(comp), inkOf(r), darkInk)) ||
         (v === 'wall' && r.halfWidth >= STROKE_THINNESS * typicalRadius));
     if ((v !== 'keep' && !fatInThin) || r.area < minArea) return false;
     // A region no different from the agar on average is agar enclosed by something else (the

@@ -38,23 +38,29 @@ const AMBIGUOUS_SHARE = 0.1;
 
 /**
  * The pens of a plate, one per stroke blob (a plate may be labelled with more than one pen, and
- * each blob's colour is measured on its own so a lamp's line reflection cannot blur a pen's),
- * leaving out any whose colour the round blobs share.
+ * each blob's colour is measured on its own so a lamp's line reflection cannot blur a pen's).
+ * `usable` leaves out any whose colour the round blobs share: those cannot tell writing from
+ * colonies elsewhere on the plate. `byStroke` keeps every blob's own pen, which still tells the
+ * writing's pieces inside that blob from a colony of another colour touching it.
  */
 export function pensFromStrokes(
   strokes: readonly ComponentStats[],
   regions: readonly RegionStats[],
   roundBlobs: readonly RegionStats[],
-): Pen[] {
-  return strokes.flatMap((stroke) => {
+): { usable: Pen[]; byStroke: Map<number, Pen> } {
+  const byStroke = new Map<number, Pen>();
+  for (const stroke of strokes) {
     const pen = penOf(
       stroke,
       regions.filter((r) => r.component === stroke.id),
     );
-    if (!pen) return [];
-    const sameColour = roundBlobs.filter((r) => hasPenColour(r, pen)).length;
-    return sameColour > AMBIGUOUS_SHARE * roundBlobs.length ? [] : [pen];
-  });
+    if (pen) byStroke.set(stroke.id, pen);
+  }
+  const usable = [...byStroke.values()].filter(
+    (pen) =>
+      roundBlobs.filter((r) => hasPenColour(r, pen)).length <= AMBIGUOUS_SHARE * roundBlobs.length,
+  );
+  return { usable, byStroke };
 }
 
 function penOf(stroke: ComponentStats, pieces: readonly RegionStats[]): Pen | null {
