@@ -34,6 +34,8 @@ import type {
  */
 const BLURRED_EDGE_MM = 0.5;
 const SMOOTHING_MM = 0.07;
+/** More than this share of a plate's objects of neither learned colour: not the model's medium. */
+const UNLIKE_SHARE = 0.5;
 
 /**
  * Analyses one plate photo: dish → working frame → agar model → foreground → split → measure →
@@ -158,10 +160,15 @@ function runPipeline(
       deltaLab: roundLab(samples[i]!.deltaLab),
     };
   });
-  // A learned model that decides colonies has already judged each object one: its colour is the
-  // nearer one. A model that only sorts colours leaves the default rules' judgement as it is.
+  // An object of neither colour is shown for the person to decide. A learned model that decides
+  // colonies has judged each object one, and a colour unlike both of the lab's is still set
+  // aside (counted, a model learned on three plates took 90 faint objects of neither colour on
+  // another plate for colonies) — unless most of the plate is unlike them: then the plate is not
+  // of the medium the model learned, and its objects take the nearer colour as before.
+  const outliers = classes.outlier.filter(Boolean).length;
   const judged = options.model !== undefined && decidesColonies(options.model);
-  const outlier = (i: number) => !judged && classes.outlier[i]!;
+  const unlikeModel = judged && outliers > UNLIKE_SHARE * all.length;
+  const outlier = (i: number) => !unlikeModel && classes.outlier[i]!;
   const colonies = all.filter((_, i) => !outlier(i));
   const neither = all.filter((_, i) => outlier(i));
   stage('classify', 0.95);

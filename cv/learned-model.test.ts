@@ -101,6 +101,16 @@ describe('the learned model', () => {
 
 describe('the model file', () => {
   const good = modelToJson(learnModel(labels(5), 3, ['red', 'white']));
+
+  it('keeps how many colonies the default rules had rejected, and reads a file from before it', () => {
+    const model = parseModel(good);
+    const rescued = labels(5).filter((l) => l.colony && l.features!.verdict === 'rejected');
+    expect(rescued.length).toBeGreaterThan(0);
+    expect(model.examples.found).toBe(rescued.length);
+    const older = JSON.parse(good) as { examples: Record<string, number> };
+    delete older.examples.found;
+    expect(parseModel(JSON.stringify(older)).examples.found).toBeUndefined();
+  });
   const edit = (f: (m: Record<string, unknown>) => void) => {
     const m = JSON.parse(good) as Record<string, unknown>;
     f(m);

@@ -110,7 +110,11 @@ export function learnModel(
     format: 'rivalplate-model',
     version: MODEL_VERSION,
     plates,
-    examples: { colonies, other: usable.length - colonies },
+    examples: {
+      colonies,
+      other: usable.length - colonies,
+      found: usable.filter((l) => l.colony && l.features!.verdict === 'rejected').length,
+    },
     features: [...FEATURE_NAMES],
     mean: mean.map(sig),
     sd: sd.map(sig),

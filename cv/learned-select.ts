@@ -1,5 +1,5 @@
 import type { Candidate } from './candidates.ts';
-import { isColony } from './learned-model.ts';
+import { colonyProbability, isColony } from './learned-model.ts';
 import type { RegionStats } from './measure.ts';
 import type { CandidateFeatures, LearnedModel, QualityFlag } from './types.ts';
 
@@ -16,6 +16,13 @@ import type { CandidateFeatures, LearnedModel, QualityFlag } from './types.ts';
  * unlike the plates it learned from: it keeps the default colonies and only adds the objects it
  * found, so a plate is never read much worse than the defaults read it (on one set of photos a
  * model learned from three plates otherwise dropped 467 of 493 colonies of a crowded plate).
+ *
+ * Nor does it add more than its labels can vouch for: on the checked plates a share of the
+ * colonies were objects the default rules had rejected (`examples.found`). A plate gets at most
+ * as many additions as the upper one-sided 95 % Wilson score bound of that share (Wilson 1927,
+ * J. Am. Stat. Assoc. 22:209) implies beside its other colonies, the most probable first. Three
+ * plates of one look otherwise taught a model to add a hundred faint objects to a plate of
+ * another (the same photos: 9 false colonies became 103).
  */
 const DISAGREE_SHARE = 0.2;
 const DISAGREE_MIN = 3;
@@ -28,8 +35,11 @@ export function learnedCandidates(
 ): { candidates: Candidate[]; flag: QualityFlag | null } {
   const byId = new Map(regions.map((r) => [r.id, r]));
   const kept = new Map(defaults.map((c) => [c.region.id, c]));
-  const chosen = considered.filter((f) => isColony(model, f));
-  const added = chosen.filter((f) => !kept.has(f.id)).length;
+  const wanted = considered.filter((f) => isColony(model, f));
+  const proposed = wanted.filter((f) => !kept.has(f.id));
+  const additions = boundedAdditions(model, proposed, wanted.length - proposed.length);
+  const chosen = wanted.filter((f) => kept.has(f.id) || additions.has(f));
+  const added = additions.size;
   const dropped = defaults.length - (chosen.length - added);
   const limit = Math.max(DISAGREE_MIN, DISAGREE_SHARE * defaults.length);
   const differs = added + dropped > limit;
@@ -43,4 +53,37 @@ export function learnedCandidates(
     candidates: dropped > limit ? [...defaults, ...addedOnly] : fromModel,
     flag: differs ? { kind: 'learned-differs', added, dropped } : null,
   };
+}
+
+/** One-sided 95 % normal quantile, for the Wilson bound. */
+const Z_95 = 1.645;
+
+/**
+ * The additions a plate may take: all of them for a model that did not record what its labels
+ * rescued, else the most probable, up to what the Wilson upper bound of the rescued share allows
+ * beside `others` colonies (share s of all colonies gives s / (1 − s) per other colony).
+ */
+function boundedAdditions(
+  model: LearnedModel,
+  candidates: readonly CandidateFeatures[],
+  others: number,
+): Set<CandidateFeatures> {
+  const found = model.examples.found;
+  if (found === undefined) return new Set(candidates);
+  const share = wilsonUpper(found, model.examples.colonies);
+  const limit = share >= 1 ? Number.POSITIVE_INFINITY : Math.ceil((others * share) / (1 - share));
+  const ranked = candidates
+    .map((f) => ({ f, p: colonyProbability(model, f) }))
+    .sort((a, b) => b.p - a.p || a.f.id - b.f.id);
+  return new Set(ranked.slice(0, limit).map((r) => r.f));
+}
+
+/** Upper Wilson score bound of a binomial share k / n at normal quantile z. */
+export function wilsonUpper(k: number, n: number, z = Z_95): number {
+  if (n === 0) return 1;
+  const p = k / n;
+  const z2 = z ** 2;
+  const centre = p + z2 / (2 * n);
+  const spread = z * Math.sqrt((p * (1 - p)) / n + z2 / (4 * n * n));
+  return Math.min(1, (centre + spread) / (1 + z2 / n));
 }

@@ -11,7 +11,11 @@ export function modelToJson(m: LearnedModel): string {
     format: m.format,
     version: m.version,
     plates: m.plates,
-    examples: { colonies: m.examples.colonies, other: m.examples.other },
+    examples: {
+      colonies: m.examples.colonies,
+      other: m.examples.other,
+      ...(m.examples.found === undefined ? {} : { found: m.examples.found }),
+    },
     features: m.features,
     mean: m.mean,
     sd: m.sd,
@@ -68,6 +72,7 @@ export function parseModel(text: string): LearnedModel {
     examples: {
       colonies: count(examples.colonies, 'examples.colonies'),
       other: count(examples.other, 'examples.other'),
+      ...(examples.found === undefined ? {} : { found: count(examples.found, 'examples.found') }),
     },
     features: [...FEATURE_NAMES],
     mean: numbers(raw.mean, 'mean', n),

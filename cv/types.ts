@@ -171,8 +171,11 @@ export interface LearnedModel {
   version: 1;
   /** Checked plates it was learned from. */
   plates: number;
-  /** Labelled objects: colonies and not. */
-  examples: { colonies: number; other: number };
+  /**
+   * Labelled objects: colonies and not, and of the colonies those the default rules had rejected
+   * (`found`; absent in models learned before it was kept: their additions are not bounded).
+   */
+  examples: { colonies: number; other: number; found?: number };
   features: string[];
   mean: number[];
   sd: number[];
