@@ -198,7 +198,7 @@ async function pushState(c: Client, labId: number, changes: HashedChange[]): Pro
   const records = await run<{ kind: string; record_id: string; heads: string; n: number }>(
     c,
     'headsAndCounts',
-    [labId, touched.map((ch) => ch.kind), touched.map((ch) => ch.id)],
+    [touched.map((ch) => ch.kind), touched.map((ch) => ch.id), labId],
   );
   for (const r of records) {
     state.heads.set(recordKey(r.kind, r.record_id), JSON.parse(r.heads));
@@ -208,10 +208,10 @@ async function pushState(c: Client, labId: number, changes: HashedChange[]): Pro
     c,
     'revisionsOfMany',
     [
-      labId,
       changes.map((x) => x.change.kind),
       changes.map((x) => x.change.id),
       changes.map((x) => x.hash),
+      labId,
     ],
   );
   for (const r of stored) state.stored.add(`${recordKey(r.kind, r.record_id)}\u0000${r.hash}`);

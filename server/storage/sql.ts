@@ -230,16 +230,23 @@ export const SQL = {
    */
   headsAndCounts: {
     sqlite: '',
-    postgres: `SELECT kind, record_id, heads,
+    // Looked up record by record (LATERAL, by the primary key; OFFSET 0 keeps the planner from
+    // flattening it), so the cost follows the push's size, not the lab's: with the table's
+    // statistics behind its growth the planner would otherwise read every record of the lab.
+    postgres: `SELECT r.kind, r.record_id, r.heads,
        (SELECT count(*) FROM revisions v
          WHERE v.lab_id = r.lab_id AND v.kind = r.kind AND v.record_id = r.record_id) AS n
-     FROM records r
-     WHERE lab_id = ? AND (kind, record_id) IN (SELECT * FROM unnest(?::text[], ?::text[]))`,
+     FROM unnest(?::text[], ?::text[]) AS t(kind, record_id)
+     CROSS JOIN LATERAL (SELECT * FROM records
+       WHERE lab_id = ? AND kind = t.kind AND record_id = t.record_id OFFSET 0) r`,
   },
   revisionsOfMany: {
     sqlite: '',
-    postgres: `SELECT kind, record_id, hash FROM revisions
-     WHERE lab_id = ? AND (kind, record_id, hash) IN (SELECT * FROM unnest(?::text[], ?::text[], ?::text[]))`,
+    // Revision by revision through the unique key, as headsAndCounts goes record by record.
+    postgres: `SELECT v.kind, v.record_id, v.hash
+     FROM unnest(?::text[], ?::text[], ?::text[]) AS t(kind, record_id, hash)
+     CROSS JOIN LATERAL (SELECT kind, record_id, hash FROM revisions
+       WHERE lab_id = ? AND kind = t.kind AND record_id = t.record_id AND hash = t.hash OFFSET 0) v`,
   },
   /**
    * PostgreSQL only: insertRevision and upsertRecord for many revisions in one statement, one
