@@ -195,26 +195,30 @@ async function pushState(c: Client, labId: number, changes: HashedChange[]): Pro
     ...new Map(changes.map(({ change: ch }) => [recordKey(ch.kind, ch.id), ch])).values(),
   ];
   const state: PushState = { heads: new Map(), stored: new Set(), kept: new Map() };
-  const records = await run<{ kind: string; record_id: string; heads: string; n: number }>(
-    c,
-    'headsAndCounts',
-    [touched.map((ch) => ch.kind), touched.map((ch) => ch.id), labId],
-  );
-  for (const r of records) {
-    state.heads.set(recordKey(r.kind, r.record_id), JSON.parse(r.heads));
-    state.kept.set(recordKey(r.kind, r.record_id), r.n);
+  const rows = await run<{
+    what: 'record' | 'revision';
+    kind: string;
+    record_id: string;
+    heads: string;
+    hash: string;
+    n: number;
+  }>(c, 'pushReads', [
+    touched.map((ch) => ch.kind),
+    touched.map((ch) => ch.id),
+    labId,
+    changes.map((x) => x.change.kind),
+    changes.map((x) => x.change.id),
+    changes.map((x) => x.hash),
+    labId,
+  ]);
+  for (const r of rows) {
+    const k = recordKey(r.kind, r.record_id);
+    if (r.what === 'revision') state.stored.add(`${k}\u0000${r.hash}`);
+    else {
+      state.heads.set(k, JSON.parse(r.heads));
+      state.kept.set(k, r.n);
+    }
   }
-  const stored = await run<{ kind: string; record_id: string; hash: string }>(
-    c,
-    'revisionsOfMany',
-    [
-      changes.map((x) => x.change.kind),
-      changes.map((x) => x.change.id),
-      changes.map((x) => x.hash),
-      labId,
-    ],
-  );
-  for (const r of stored) state.stored.add(`${recordKey(r.kind, r.record_id)}\u0000${r.hash}`);
   return state;
 }
 
@@ -341,7 +345,7 @@ export async function openPostgresStore(options: PostgresOptions): Promise<SyncS
   }
 
   /**
-   * The same steps as sqlite-store.ts's pushAll, in six round trips whatever the push's size:
+   * The same steps as sqlite-store.ts's pushAll, in five round trips whatever the push's size:
    * what they read of the touched records is fetched up front (pushState) and kept up to date
    * here as changes apply; the new revisions are written together (PendingRevisions), before a
    * record's oldest revisions are trimmed and at the end; the lab is charged and its cap checked

@@ -222,28 +222,25 @@ export const SQL = {
   revisionAt: 'SELECT hash FROM revisions WHERE lab_id = ? AND seq = ?',
   dropChunks: 'DELETE FROM chunks WHERE lab_id = ? AND photo_id = ?',
   /**
-   * PostgreSQL only: what a push needs to know of the records it touches, read in two queries
+   * PostgreSQL only: what a push needs to know of the records it touches, read in one query
    * before its changes are applied (over a network every statement is a round trip; SQLite reads
-   * them one change at a time, in-process): each record's heads with how many revisions it keeps
-   * (a record has a row here from its first revision on, and always keeps its heads), and which
-   * of the pushed revisions are stored already.
+   * them one change at a time, in-process): a 'record' row per touched record that exists, with
+   * its heads and how many revisions it keeps (a record has a row from its first revision on,
+   * and always keeps its heads), and a 'revision' row per pushed revision stored already. Each is
+   * looked up by its key (LATERAL; OFFSET 0 keeps the planner from flattening it), so the cost
+   * follows the push's size, not the lab's: with the table's statistics behind its growth the
+   * planner would otherwise read every record of the lab.
    */
-  headsAndCounts: {
+  pushReads: {
     sqlite: '',
-    // Looked up record by record (LATERAL, by the primary key; OFFSET 0 keeps the planner from
-    // flattening it), so the cost follows the push's size, not the lab's: with the table's
-    // statistics behind its growth the planner would otherwise read every record of the lab.
-    postgres: `SELECT r.kind, r.record_id, r.heads,
+    postgres: `SELECT 'record' AS what, r.kind, r.record_id, r.heads, NULL AS hash,
        (SELECT count(*) FROM revisions v
          WHERE v.lab_id = r.lab_id AND v.kind = r.kind AND v.record_id = r.record_id) AS n
      FROM unnest(?::text[], ?::text[]) AS t(kind, record_id)
      CROSS JOIN LATERAL (SELECT * FROM records
-       WHERE lab_id = ? AND kind = t.kind AND record_id = t.record_id OFFSET 0) r`,
-  },
-  revisionsOfMany: {
-    sqlite: '',
-    // Revision by revision through the unique key, as headsAndCounts goes record by record.
-    postgres: `SELECT v.kind, v.record_id, v.hash
+       WHERE lab_id = ? AND kind = t.kind AND record_id = t.record_id OFFSET 0) r
+     UNION ALL
+     SELECT 'revision', v.kind, v.record_id, NULL, v.hash, NULL
      FROM unnest(?::text[], ?::text[], ?::text[]) AS t(kind, record_id, hash)
      CROSS JOIN LATERAL (SELECT kind, record_id, hash FROM revisions
        WHERE lab_id = ? AND kind = t.kind AND record_id = t.record_id AND hash = t.hash OFFSET 0) v`,
