@@ -13,6 +13,7 @@ import { join, resolve } from 'node:path';
 import { Worker } from 'node:worker_threads';
 import { writePlate } from '../../fixtures/plate-files.ts';
 import { generatePlate } from '../../fixtures/plate-generator.ts';
+import { machineBusySeconds } from './process-cpu.ts';
 
 const OUT = resolve(import.meta.dirname, '../../bench/out/batch');
 const BIN = resolve(import.meta.dirname, '../../bin/rivalplate.js');
@@ -32,8 +33,12 @@ const jobsList = [...new Set([1, 2, cores])].sort((a, b) => a - b);
 /** Runs of each number of jobs, taken in turn (1, 2, …, 1, 2, …) so a busy spell hits all alike. */
 const RUNS = Number(process.env.RIVALPLATE_BENCH_RUNS ?? 3);
 
-/** One `count --jobs N` run as a user starts it: wall ms, CPU s (NaN without GNU time), output. */
-function countRun(jobs: number): { ms: number; cpu: number; records: string } {
+/**
+ * One `count --jobs N` run as a user starts it: wall ms, CPU s (NaN without GNU time), the CPU
+ * seconds other work on the machine took meanwhile (NaN without /proc), and the output.
+ */
+function countRun(jobs: number): { ms: number; cpu: number; others: number; records: string } {
+  const busy = machineBusySeconds();
   const started = performance.now();
   // GNU time, when there, also says how much CPU the run got: on a machine busy with other work
   // the wall time says more about the neighbours than about the jobs.
@@ -45,6 +50,7 @@ function countRun(jobs: number): { ms: number; cpu: number; records: string } {
     { encoding: 'utf8', maxBuffer: 256 << 20 },
   );
   const ms = performance.now() - started;
+  const machine = machineBusySeconds() - busy;
   if (run.status !== 0) throw new Error(`count --jobs ${jobs} failed: ${run.stderr}`);
   const cpu = timed
     ? run.stderr
@@ -62,7 +68,7 @@ function countRun(jobs: number): { ms: number; cpu: number; records: string } {
       return JSON.stringify(rest);
     })
     .join('\n');
-  return { ms, cpu, records };
+  return { ms, cpu, others: Math.max(0, machine - cpu), records };
 }
 
 const median = (values: number[]) => {
@@ -88,6 +94,10 @@ const rows = jobsList.map((jobs) => {
     'CPU s': Number(cpu.toFixed(1)),
     'cores it got': Number((cpu / (ms / 1000)).toFixed(2)),
     'same output as 1 job': of.every((r) => r.records === reference) ? 'yes' : 'NO',
+    // Each run's wall time, and the cores other work took meanwhile (CPU s / wall s).
+    runs: of
+      .map((r) => `${(r.ms / 1000).toFixed(1)} s (others ${(r.others / (r.ms / 1000)).toFixed(2)})`)
+      .join(', '),
   };
 });
 /**
@@ -115,6 +125,9 @@ console.log(
   `Batch counting: rivalplate count --jobs N on ${PHOTOS} generated 3 MP photos, medians of ${RUNS} runs each, ${cores} cores, load average ${loadavg()[0]!.toFixed(1)} at the end`,
 );
 console.table(rows);
+console.log(
+  'runs: the wall time of each run, and in brackets the cores other work on the machine took meanwhile',
+);
 console.log(
   `Control: a busy loop in ${cores} threads at once got ${control.toFixed(2)} cores of ${cores} (the room there was for a speed-up)`,
 );

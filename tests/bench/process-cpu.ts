@@ -38,3 +38,18 @@ export function withChildren(pid: number): number[] {
     .filter((p) => statFields(p)?.[1] === String(pid));
   return [pid, ...children];
 }
+
+/**
+ * CPU seconds every process of the machine has used since boot, from /proc/stat's first line
+ * (user, nice, system, irq, softirq and steal ticks): a benchmark subtracts its own share to see
+ * what other work took of the cores while it ran. NaN where /proc is not there.
+ */
+export function machineBusySeconds(): number {
+  if (!existsSync('/proc/stat')) return Number.NaN;
+  const [, user, nice, system, , , irq, softirq, steal] = readFileSync('/proc/stat', 'utf8')
+    .split('\n')[0]!
+    .trim()
+    .split(/\s+/)
+    .map(Number);
+  return (user! + nice! + system! + irq! + softirq! + steal!) / TICKS_PER_SECOND;
+}

@@ -17,7 +17,7 @@ import { newToken, tokenHash } from '../../server/tokens.ts';
 import { type Cluster, startCluster } from '../support/postgres-cluster.ts';
 import { type ChildServer, startChildServer } from '../sync/child-server.ts';
 import { changeOf, plate } from '../sync/marrowfield.ts';
-import { cpuSeconds, withChildren } from './process-cpu.ts';
+import { cpuSeconds, machineBusySeconds, withChildren } from './process-cpu.ts';
 
 /**
  * The load is kept cheap, so that what the benchmark measures is the servers: one keep-alive
@@ -86,10 +86,14 @@ async function labs(where: string): Promise<string[]> {
   return tokens;
 }
 
-/** CPU seconds so far of this process (the load), the servers and the database. */
+/**
+ * CPU seconds so far of this process (the load), the servers, the database, and the whole
+ * machine (so what other work took meanwhile can be told apart).
+ */
 function cpuNow(servers: readonly ChildServer[], database: () => number[]) {
   const own = process.cpuUsage();
   return {
+    machine: machineBusySeconds(),
     load: (own.user + own.system) / 1e6,
     servers: cpuSeconds(servers.map((s) => s.process.pid!)),
     database: cpuSeconds(database()),
@@ -143,8 +147,10 @@ async function measure(where: string, processes: number, database: () => number[
   times.sort((a, b) => a - b);
   // CPU per push, in ms, over the measured time (the warm-up excluded, and the few pushes still
   // in flight at its ends counted with the time).
+  const spent = (part: keyof typeof cpuTo) => cpuTo[part] - cpuFrom[part];
   const perPush = (part: keyof typeof cpuTo) =>
-    Number((((cpuTo[part] - cpuFrom[part]) * 1000) / Math.max(1, pushes)).toFixed(2));
+    Number(((spent(part) * 1000) / Math.max(1, pushes)).toFixed(2));
+  const ours = spent('load') + spent('servers') + spent('database');
   return {
     'pushes/s': Number((pushes / SECONDS).toFixed(1)),
     'records/s': Math.round((pushes * PER_PUSH) / SECONDS),
@@ -155,6 +161,9 @@ async function measure(where: string, processes: number, database: () => number[
     'CPU ms/push load': perPush('load'),
     servers: perPush('servers'),
     database: perPush('database'),
+    // The cores the benchmark's own processes got, and those other work on the machine took.
+    'cores used': Number((ours / SECONDS).toFixed(2)),
+    'others took': Number(((spent('machine') - ours) / SECONDS).toFixed(2)),
   };
 }
 
