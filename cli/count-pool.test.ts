@@ -79,4 +79,29 @@ describe('countInPool', () => {
       'analysis' in o ? { file: o.file, analysis: { ...o.analysis, timings: {} } } : o;
     expect(two.map(strip)).toEqual(alone.map(strip));
   }, 120_000);
+
+  it('reports the photo a worker stopped on, and a new worker reads the rest', async () => {
+    const crash = join(dir, 'crash-plate.jpg');
+    await writeFile(crash, 'never read');
+    const batch = [crash, ...files, crash.replace('crash-plate', 'crash-again')];
+    await writeFile(batch.at(-1)!, 'never read');
+    const alone = await countInPool(loadCvCore, files, { dishMm: 90 }, 1);
+    started.workers = 0;
+    // This thread starts reading only once the first worker has stopped (its replacement is
+    // started), so the photo it stopped on was the worker's.
+    const slowCore = async () => {
+      while (started.workers < 2) await new Promise((r) => setTimeout(r, 20));
+      return loadCvCore();
+    };
+    const entry = new URL('../tests/support/failing-count-worker.js', import.meta.url);
+    const outcomes = await countInPool(slowCore, batch, { dishMm: 90 }, 2, undefined, entry);
+    expect(outcomes.map((o) => o.file)).toEqual(batch);
+    expect(outcomes[0]).toEqual({
+      file: crash,
+      error: `the worker reading it failed: stopped on ${crash}`,
+    });
+    const strip = (o: (typeof alone)[number]) =>
+      'analysis' in o ? { file: o.file, analysis: { ...o.analysis, timings: {} } } : o;
+    expect(outcomes.slice(1, -1).map(strip)).toEqual(alone.map(strip));
+  }, 120_000);
 });

@@ -71,6 +71,7 @@ const WORKER_ENTRY = new URL('./count-worker.js', import.meta.url);
 
 /** What the pool's workers share with this thread. */
 interface Pool {
+  entry: URL;
   input: Omit<WorkerInput, 'slot'>;
   queue: PhotoQueue;
   finish: (index: number, outcome: Outcome) => void;
@@ -93,6 +94,8 @@ export async function countInPool(
   settings: PhotoSettings,
   jobs: number,
   onPhoto?: (done: number, total: number, file: string) => void,
+  /** The workers' script: another one only in tests of a worker that fails. */
+  entry: URL = WORKER_ENTRY,
 ): Promise<Outcome[]> {
   const queue = PhotoQueue.forWorkers(files.length, jobs - 1);
   const outcomes: Outcome[] = new Array(files.length);
@@ -107,6 +110,7 @@ export async function countInPool(
   });
   failed.catch(() => {}); // awaited below, once this thread has no photo left
   const pool: Pool = {
+    entry,
     input: { files, settings, queue: queue.shared },
     queue,
     finish: (index, outcome) => {
@@ -146,7 +150,7 @@ export async function countInPool(
  */
 function startWorker(pool: Pool, slot: number, restart: (slot: number) => void): Worker {
   pool.queue.release(slot);
-  const worker = new Worker(WORKER_ENTRY, { workerData: { ...pool.input, slot } });
+  const worker = new Worker(pool.entry, { workerData: { ...pool.input, slot } });
   let error: Error | undefined;
   worker.on('message', (reply: WorkerReply) => pool.finish(reply.index, reply.outcome));
   worker.on('error', (e) => {
