@@ -32,11 +32,13 @@ describe('PhotoQueue', () => {
     queue.release(0);
     queue.release(1);
     expect(queue.heldBy(0)).toBe(-2);
+    expect(queue.hasMore()).toBe(true);
     expect(queue.take()).toBe(0);
     expect(inWorker.take(1)).toBe(1);
     expect(queue.heldBy(1)).toBe(1);
     expect(inWorker.take(0)).toBe(2);
     expect(queue.take()).toBe(-1);
+    expect(queue.hasMore()).toBe(false);
     expect(inWorker.take(1)).toBe(-1);
     expect(queue.heldBy(1)).toBe(-1);
     const closed = PhotoQueue.forWorkers(5, 1);

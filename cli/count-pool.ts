@@ -47,6 +47,11 @@ export class PhotoQueue {
     return Atomics.load(this.slots, 1 + slot);
   }
 
+  /** Whether any photo is still to be taken. */
+  hasMore(): boolean {
+    return Atomics.load(this.slots, 0) < this.size;
+  }
+
   /** No thread takes another photo: the batch is over. */
   close(): void {
     Atomics.store(this.slots, 0, this.size);
@@ -86,7 +91,7 @@ interface Pool {
  * photos being read are decoded at any moment (one per thread), whatever the batch's size. The
  * workers start first, so their opencv.js loads while `loadCore` loads this thread's. A worker that
  * dies takes only its photo with it (reported as not counted) and is replaced while photos
- * remain. Outcomes come back in the order of `files`; `onPhoto` is called as each is known.
+ * remain to be taken. Outcomes come back in the order of `files`; `onPhoto` is called as each is known.
  */
 export async function countInPool(
   loadCore: () => Promise<CvCore>,
@@ -158,16 +163,16 @@ function startWorker(pool: Pool, slot: number, restart: (slot: number) => void):
   });
   // 'exit' comes after every message the worker sent, so a photo it answered for is not lost.
   worker.on('exit', (code) => {
-    if (pool.closed || (error === undefined && code === 0)) return;
+    if (pool.closed) return;
     const held = pool.queue.heldBy(slot);
     const why = error?.message ?? `exit code ${code}`;
     if (held === NONE_YET) return pool.fail(new Error(`a counting worker could not start: ${why}`));
-    if (held < 0) return;
+    if (held < 0) return; // it found the queue empty: its work is done
     pool.finish(held, {
       file: pool.input.files[held]!,
       error: `the worker reading it failed: ${why}`,
     });
-    restart(slot);
+    if (pool.queue.hasMore()) restart(slot);
   });
   return worker;
 }
