@@ -5,7 +5,8 @@
  * (PHONES of them, over LABS labs) each push batches of new plate records in a loop, spread over
  * the processes in turn, for a fixed time after a short warm-up; a phone whose push fails counts
  * the failure and goes on. The load comes from this process, on the same machine as the servers
- * and the database, which takes its share of the cores.
+ * and the database, which takes its share of the cores: the CPU each part spent per push (load,
+ * servers, database) is shown beside the throughput, with what other work on the machine took.
  */
 
 import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
