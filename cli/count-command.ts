@@ -43,7 +43,7 @@ Options:
   --range NAME|MIN-MAX   countable range per plate: bam (25–250, default), sm9215 (30–300),
                          iso7218 (10–300), or MIN-MAX
   --dish-mm N            inner dish diameter in mm (default 90)
-  --jobs N               photos read at once, each in a worker thread of its own (default: the
+  --jobs N               photos read at once: this thread and N − 1 worker threads (default: the
                          machine's cores, here ${availableParallelism()}); the output is the same for any N
   -h, --help             show this help
 

@@ -1,7 +1,7 @@
 /**
- * `count --jobs 2` reads photos in two worker threads: the same records, in the same order, as
- * `--jobs 1` (everything but the time each photo took), a palette learned from the whole batch in
- * both, and a bad file reported in its place.
+ * `count --jobs 2` reads photos in this thread and a worker thread: the same records, in the
+ * same order, as `--jobs 1` (everything but the time each photo took), a palette learned from
+ * the whole batch in both, and a bad file reported in its place.
  */
 import { mkdtemp, readFile, rm, writeFile } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
@@ -46,7 +46,7 @@ async function count(jobs: number) {
 }
 
 describe('rivalplate count --jobs', () => {
-  it('gives with two workers exactly what one thread gives, in input order', async () => {
+  it('gives with two jobs exactly what one thread gives, in input order', async () => {
     const one = await count(1);
     const two = await count(2);
     expect(one.code).toBe(1); // the empty file

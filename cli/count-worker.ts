@@ -1,16 +1,16 @@
 /**
- * One worker of `count --jobs N` (count-batch.ts): loads its own opencv.js, says it is ready, then
- * reads the photo it is sent, answers with the outcome, and waits for the next.
+ * One worker of `count --jobs N` (count-pool.ts): loads its own opencv.js, then takes photos from
+ * the batch's shared queue one after another and answers with each outcome, until none are left.
  */
 import { parentPort, workerData } from 'node:worker_threads';
-import { countOne, type PhotoSettings, type WorkerReply } from './count-batch.ts';
+import { countOne } from './count-one.ts';
+import { PhotoQueue, type WorkerInput, type WorkerReply } from './count-pool.ts';
 import { loadCvCore } from './opencv-quiet.ts';
 
-const settings = workerData as PhotoSettings;
+const { files, settings, queue: shared, slot } = workerData as WorkerInput;
+const queue = new PhotoQueue(files.length, shared);
 const core = await loadCvCore();
-const port = parentPort!;
-port.on('message', async ({ index, file }: { index: number; file: string }) => {
-  const reply: WorkerReply = { index, outcome: await countOne(core, file, settings) };
-  port.postMessage(reply);
-});
-port.postMessage({ ready: true } satisfies WorkerReply);
+for (let index = queue.take(slot); index >= 0; index = queue.take(slot)) {
+  const reply: WorkerReply = { index, outcome: await countOne(core, files[index]!, settings) };
+  parentPort!.postMessage(reply);
+}

@@ -1,5 +1,7 @@
 import { createRequire } from 'node:module';
 
+export type CvCore = typeof import('../cv/index.ts');
+
 /**
  * Loads the cv core in a Node process without opencv.js's process hooks. When its emscripten
  * runtime is evaluated it installs an uncaughtException handler that re-throws (printing the
@@ -7,7 +9,7 @@ import { createRequire } from 'node:module';
  * tool reports its own errors, so those two handlers are taken off again. opencv.js is loaded
  * with require(), past tsx's import hooks (see provideOpenCvModule).
  */
-export async function loadCvCore(): Promise<typeof import('../cv/index.ts')> {
+export async function loadCvCore(): Promise<CvCore> {
   const before = {
     uncaught: new Set(process.listeners('uncaughtException')),
     rejection: new Set(process.listeners('unhandledRejection')),

@@ -17,6 +17,7 @@ import {
   revised,
   tombstoneOf,
 } from '../tests/sync/marrowfield.ts';
+import { revisionHash } from './revision-hash.ts';
 import { REVISIONS_KEPT } from './storage/sync-store.ts';
 
 let server: TestServer;
@@ -474,6 +475,40 @@ describe('revisions kept', () => {
         `SELECT sum(octet_length(coalesce(body, '')) + octet_length(device)
                     + octet_length(record_id) + 100) AS n
          FROM revisions JOIN labs ON labs.id = lab_id WHERE labs.name = 'kept'`,
+      ),
+    );
+  });
+
+  it('keeps the same revisions when they all come in one push, each replacing the one before', async () => {
+    const token = await server.lab('kept-one-push');
+    const changes = [];
+    let current = plate('mf-plate-one-push');
+    let replaces: string[] = [];
+    for (let i = 0; i < REVISIONS_KEPT + 10; i++) {
+      if (i > 0) current = revised(current, { volumeUl: 100 + i }, i);
+      const change = changeOf('plates', current, replaces);
+      changes.push(change);
+      replaces = [revisionHash(change)];
+    }
+    const answer = await push(token, { device: 'a', changes });
+    expect(answer.status).toBe(200);
+    expect(answer.json.accepted.map((r) => r.hash)).toEqual(changes.map(revisionHash));
+    expect(answer.json.conflicts).toEqual([]);
+    expect(await revisionCount('kept-one-push')).toBe(REVISIONS_KEPT);
+    const { json } = await pull(token);
+    expect(json.records).toHaveLength(1);
+    expect(json.records[0]!.heads.map((h) => h.revision)).toEqual([REVISIONS_KEPT + 10]);
+    // The newest five again: all still stored, so all repeats, and nothing changes.
+    const again = await push(token, { device: 'a', changes: changes.slice(-5) });
+    expect(again.json.accepted.every((r) => r.repeat)).toBe(true);
+    expect(await revisionCount('kept-one-push')).toBe(REVISIONS_KEPT);
+    expect(
+      await server.rows("SELECT used_bytes AS n FROM labs WHERE name = 'kept-one-push'"),
+    ).toEqual(
+      await server.rows(
+        `SELECT sum(octet_length(coalesce(body, '')) + octet_length(device)
+                    + octet_length(record_id) + 100) AS n
+         FROM revisions JOIN labs ON labs.id = lab_id WHERE labs.name = 'kept-one-push'`,
       ),
     );
   });

@@ -114,6 +114,18 @@ async function one<R extends pg.QueryResultRow>(
   return (await run<R>(db, name, values))[0];
 }
 
+/**
+ * The statement that opens a transaction, with the lab's lock taken in the same round trip when
+ * there is one (two statements in one simple query; the lab id is checked to be an integer, so
+ * it can be written into the text).
+ */
+function begin(options: { lab?: number; readOnlySnapshot?: boolean }): string {
+  if (options.readOnlySnapshot) return 'BEGIN ISOLATION LEVEL REPEATABLE READ READ ONLY';
+  if (options.lab === undefined) return 'BEGIN';
+  if (!Number.isSafeInteger(options.lab)) throw new Error(`not a lab id: ${options.lab}`);
+  return `BEGIN; ${forPostgres('lockLab').replace('$1', String(options.lab))}`;
+}
+
 /** Runs the schema steps this database lacks, one process at a time. */
 async function migrate(pool: pg.Pool): Promise<void> {
   const client = await pool.connect();
@@ -157,6 +169,94 @@ export function describeUrl(url: string): string {
   }
 }
 
+/** Refuses `bytes` more for a lab holding `held` bytes in unfinished uploads besides its own. */
+function checkFits(lab: LabRow, held: number, bytes: number): void {
+  if (lab.max_bytes !== null && lab.used_bytes + held + bytes > lab.max_bytes)
+    throw new SyncRefusal(
+      'storage-full',
+      `lab "${lab.name}" holds ${mb(lab.used_bytes + held)} of the ${mb(lab.max_bytes)} it may use on this server, and this needs ${mb(bytes)}: nothing was stored`,
+    );
+}
+
+const recordKey = (kind: string, id: string) => `${kind}\u0000${id}`;
+
+/** What a push knows of the records it touches, kept up to date as its changes apply. */
+interface PushState {
+  /** Heads by recordKey. */
+  heads: Map<string, string[]>;
+  /** `recordKey NUL hash` of the pushed revisions stored already. */
+  stored: Set<string>;
+  /** Revisions kept by recordKey. */
+  kept: Map<string, number>;
+}
+
+async function pushState(c: Client, labId: number, changes: HashedChange[]): Promise<PushState> {
+  const touched = [
+    ...new Map(changes.map(({ change: ch }) => [recordKey(ch.kind, ch.id), ch])).values(),
+  ];
+  const state: PushState = { heads: new Map(), stored: new Set(), kept: new Map() };
+  const rows = await run<{
+    what: 'record' | 'revision';
+    kind: string;
+    record_id: string;
+    heads: string;
+    hash: string;
+    n: number;
+  }>(c, 'pushReads', [
+    touched.map((ch) => ch.kind),
+    touched.map((ch) => ch.id),
+    labId,
+    changes.map((x) => x.change.kind),
+    changes.map((x) => x.change.id),
+    changes.map((x) => x.hash),
+    labId,
+  ]);
+  for (const r of rows) {
+    const k = recordKey(r.kind, r.record_id);
+    if (r.what === 'revision') state.stored.add(`${k}\u0000${r.hash}`);
+    else {
+      state.heads.set(k, JSON.parse(r.heads));
+      state.kept.set(k, r.n);
+    }
+  }
+  return state;
+}
+
+/** New revisions of a push, one array per column, written in one statement. */
+class PendingRevisions {
+  private columns: unknown[][] = [[], [], [], [], [], [], [], []];
+
+  constructor(
+    private readonly labId: number,
+    private readonly device: string,
+    private readonly receivedAt: string,
+  ) {}
+
+  add(change: HashedChange['change'], hash: string, body: string | null, heads: string[]): void {
+    const row = [
+      change.kind,
+      change.id,
+      hash,
+      change.revision,
+      change.updatedAt,
+      change.deleted ? 1 : 0,
+      body,
+      JSON.stringify(heads),
+    ];
+    row.forEach((value, i) => {
+      this.columns[i]!.push(value);
+    });
+  }
+
+  /** Writes what was added since the last write (nothing to do when nothing was). */
+  async write(c: Client): Promise<void> {
+    if (this.columns[0]!.length === 0) return;
+    const [labId, device, at] = [this.labId, this.device, this.receivedAt];
+    await run(c, 'insertRevisionsAndHeads', [...this.columns, labId, device, at, labId]);
+    this.columns = this.columns.map(() => []);
+  }
+}
+
 export async function openPostgresStore(options: PostgresOptions): Promise<SyncStore> {
   const pool = new pg.Pool({
     connectionString: options.url,
@@ -194,10 +294,7 @@ export async function openPostgresStore(options: PostgresOptions): Promise<SyncS
     };
     client.on('error', dropped);
     try {
-      await client.query(
-        options.readOnlySnapshot ? 'BEGIN ISOLATION LEVEL REPEATABLE READ READ ONLY' : 'BEGIN',
-      );
-      if (options.lab !== undefined) await run(client, 'lockLab', [options.lab]);
+      await client.query(begin(options));
       const result = await work(client);
       await client.query('COMMIT');
       return result;
@@ -215,12 +312,11 @@ export async function openPostgresStore(options: PostgresOptions): Promise<SyncS
   async function mustFit(c: Client, labId: number, bytes: number): Promise<void> {
     const lab = (await one<LabRow>(c, 'labById', [labId]))!;
     const open = await run<{ bytes: number; received: number }>(c, 'openUploads', [labId]);
-    const held = open.reduce((sum, u) => sum + u.bytes - u.received, 0);
-    if (lab.max_bytes !== null && lab.used_bytes + held + bytes > lab.max_bytes)
-      throw new SyncRefusal(
-        'storage-full',
-        `lab "${lab.name}" holds ${mb(lab.used_bytes + held)} of the ${mb(lab.max_bytes)} it may use on this server, and this needs ${mb(bytes)}: nothing was stored`,
-      );
+    checkFits(
+      lab,
+      open.reduce((sum, u) => sum + u.bytes - u.received, 0),
+      bytes,
+    );
   }
 
   const charge = (c: Client, labId: number, bytes: number) => run(c, 'addUsed', [bytes, labId]);
@@ -246,6 +342,78 @@ export async function openPostgresStore(options: PostgresOptions): Promise<SyncS
       ...uploadFromRow((await one<UploadRow>(c, 'upload', [labId, row.photo_id]))!),
       ...(verified ? {} : { mismatch: true }),
     };
+  }
+
+  /**
+   * The same steps as sqlite-store.ts's pushAll, in five round trips whatever the push's size:
+   * what they read of the touched records is fetched up front (pushState) and kept up to date
+   * here as changes apply; the new revisions are written together (PendingRevisions), before a
+   * record's oldest revisions are trimmed and at the end; the lab is charged and its cap checked
+   * in one statement.
+   */
+  async function pushAll(
+    c: Client,
+    labId: number,
+    device: string,
+    changes: HashedChange[],
+  ): Promise<PushResponse> {
+    const state = await pushState(c, labId, changes);
+    const pending = new PendingRevisions(labId, device, now());
+    const answer: PushResponse = { accepted: [], conflicts: [] };
+    let added = 0;
+    for (const { change, hash } of changes) {
+      const { kind, id, revision } = change;
+      const k = recordKey(kind, id);
+      const current = state.heads.get(k) ?? [];
+      const repeat = state.stored.has(`${k}\u0000${hash}`);
+      let heads = current;
+      if (!repeat) {
+        const body = change.body === null ? null : JSON.stringify(change.body);
+        heads = headsAfter(change, current, change.replaces, hash);
+        pending.add(change, hash, body, heads);
+        state.heads.set(k, heads);
+        state.stored.add(`${k}\u0000${hash}`);
+        added += storedBytes(body, device, id);
+        const count = (state.kept.get(k) ?? 0) + 1;
+        state.kept.set(k, count);
+        if (count > REVISIONS_KEPT) {
+          await pending.write(c);
+          added -= await trimRecord(c, labId, change, heads, state);
+        }
+      }
+      const receipt: Receipt = { kind, id, revision, hash, repeat };
+      if (heads.length > 1 && heads.includes(hash)) answer.conflicts.push(receipt);
+      else answer.accepted.push(receipt);
+    }
+    await pending.write(c);
+    const lab = (await one<LabRow & { held: number }>(c, 'chargeLab', [added, labId]))!;
+    checkFits({ ...lab, used_bytes: lab.used_bytes - added }, lab.held, added);
+    return answer;
+  }
+
+  /** Drops a record's revisions beyond the newest REVISIONS_KEPT, its heads spared: bytes freed. */
+  async function trimRecord(
+    c: Client,
+    labId: number,
+    { kind, id }: { kind: string; id: string },
+    heads: readonly string[],
+    state: PushState,
+  ): Promise<number> {
+    const k = recordKey(kind, id);
+    let freed = 0;
+    const old = await run<{ seq: number; hash: string; body: string | null; device: string }>(
+      c,
+      'beyondKept',
+      [labId, kind, id, REVISIONS_KEPT],
+    );
+    for (const o of old) {
+      if (heads.includes(o.hash)) continue;
+      await run(c, 'dropRevision', [o.seq]);
+      state.stored.delete(`${k}\u0000${o.hash}`);
+      state.kept.set(k, state.kept.get(k)! - 1);
+      freed += storedBytes(o.body, o.device, id);
+    }
+    return freed;
   }
 
   /** The cursor's point in this lab's history must be a revision this database holds. */
@@ -315,98 +483,7 @@ export async function openPostgresStore(options: PostgresOptions): Promise<SyncS
       return { lab: labFromRow(row), revokedAt: row.revoked_at };
     },
     async push(labId, device, changes: HashedChange[]) {
-      return tx(
-        async (c) => {
-          // The same steps as sqlite-store.ts's pushAll, with what they read of the touched
-          // records fetched up front in three queries and kept up to date here as changes apply.
-          const key = (kind: string, id: string) => `${kind}\u0000${id}`;
-          const touched = [
-            ...new Map(changes.map(({ change: ch }) => [key(ch.kind, ch.id), ch])).values(),
-          ];
-          const kinds = touched.map((ch) => ch.kind);
-          const ids = touched.map((ch) => ch.id);
-          const headsNow = new Map<string, string[]>();
-          for (const r of await run<{ kind: string; record_id: string; heads: string }>(
-            c,
-            'headsOfMany',
-            [labId, kinds, ids],
-          ))
-            headsNow.set(key(r.kind, r.record_id), JSON.parse(r.heads));
-          const stored = new Set<string>();
-          for (const r of await run<{ kind: string; record_id: string; hash: string }>(
-            c,
-            'revisionsOfMany',
-            [
-              labId,
-              changes.map((x) => x.change.kind),
-              changes.map((x) => x.change.id),
-              changes.map((x) => x.hash),
-            ],
-          ))
-            stored.add(`${key(r.kind, r.record_id)}\u0000${r.hash}`);
-          const kept = new Map<string, number>();
-          for (const r of await run<{ kind: string; record_id: string; n: number }>(
-            c,
-            'revisionCounts',
-            [labId, kinds, ids],
-          ))
-            kept.set(key(r.kind, r.record_id), r.n);
-
-          const answer: PushResponse = { accepted: [], conflicts: [] };
-          let added = 0;
-          for (const { change, hash } of changes) {
-            const { kind, id, revision } = change;
-            const k = key(kind, id);
-            const current = headsNow.get(k) ?? [];
-            const repeat = stored.has(`${k}\u0000${hash}`);
-            let heads = current;
-            if (!repeat) {
-              const body = change.body === null ? null : JSON.stringify(change.body);
-              heads = headsAfter(change, current, change.replaces, hash);
-              await run(c, 'insertRevisionAndHeads', [
-                labId,
-                kind,
-                id,
-                hash,
-                revision,
-                change.updatedAt,
-                change.deleted ? 1 : 0,
-                body,
-                device,
-                now(),
-                JSON.stringify(heads),
-              ]);
-              headsNow.set(k, heads);
-              stored.add(`${k}\u0000${hash}`);
-              added += storedBytes(body, device, id);
-              const count = (kept.get(k) ?? 0) + 1;
-              kept.set(k, count);
-              if (count > REVISIONS_KEPT) {
-                const old = await run<{
-                  seq: number;
-                  hash: string;
-                  body: string | null;
-                  device: string;
-                }>(c, 'beyondKept', [labId, kind, id, REVISIONS_KEPT]);
-                for (const o of old) {
-                  if (heads.includes(o.hash)) continue;
-                  await run(c, 'dropRevision', [o.seq]);
-                  stored.delete(`${k}\u0000${o.hash}`);
-                  kept.set(k, kept.get(k)! - 1);
-                  added -= storedBytes(o.body, o.device, id);
-                }
-              }
-            }
-            const receipt: Receipt = { kind, id, revision, hash, repeat };
-            if (heads.length > 1 && heads.includes(hash)) answer.conflicts.push(receipt);
-            else answer.accepted.push(receipt);
-          }
-          await mustFit(c, labId, added);
-          await charge(c, labId, added);
-          return answer;
-        },
-        { lab: labId },
-      );
+      return tx((c) => pushAll(c, labId, device, changes), { lab: labId });
     },
     async pull(labId, since, limit, maxBytes) {
       // One snapshot, so the records, their heads and the cursor are from the same moment.

@@ -222,35 +222,59 @@ export const SQL = {
   revisionAt: 'SELECT hash FROM revisions WHERE lab_id = ? AND seq = ?',
   dropChunks: 'DELETE FROM chunks WHERE lab_id = ? AND photo_id = ?',
   /**
-   * PostgreSQL only: what a push needs to know of the records it touches, read in one query each
+   * PostgreSQL only: what a push needs to know of the records it touches, read in one query
    * before its changes are applied (over a network every statement is a round trip; SQLite reads
-   * them one change at a time, in-process).
+   * them one change at a time, in-process): a 'record' row per touched record that exists, with
+   * its heads and how many revisions it keeps (a record has a row from its first revision on,
+   * and always keeps its heads), and a 'revision' row per pushed revision stored already. Each is
+   * looked up by its key (LATERAL; OFFSET 0 keeps the planner from flattening it), so the cost
+   * follows the push's size, not the lab's: with the table's statistics behind its growth the
+   * planner would otherwise read every record of the lab.
    */
-  headsOfMany: {
+  pushReads: {
     sqlite: '',
-    postgres: `SELECT kind, record_id, heads FROM records
-     WHERE lab_id = ? AND (kind, record_id) IN (SELECT * FROM unnest(?::text[], ?::text[]))`,
+    postgres: `SELECT 'record' AS what, r.kind, r.record_id, r.heads, NULL AS hash,
+       (SELECT count(*) FROM revisions v
+         WHERE v.lab_id = r.lab_id AND v.kind = r.kind AND v.record_id = r.record_id) AS n
+     FROM unnest(?::text[], ?::text[]) AS t(kind, record_id)
+     CROSS JOIN LATERAL (SELECT * FROM records
+       WHERE lab_id = ? AND kind = t.kind AND record_id = t.record_id OFFSET 0) r
+     UNION ALL
+     SELECT 'revision', v.kind, v.record_id, NULL, v.hash, NULL
+     FROM unnest(?::text[], ?::text[], ?::text[]) AS t(kind, record_id, hash)
+     CROSS JOIN LATERAL (SELECT kind, record_id, hash FROM revisions
+       WHERE lab_id = ? AND kind = t.kind AND record_id = t.record_id AND hash = t.hash OFFSET 0) v`,
   },
-  revisionsOfMany: {
+  /**
+   * PostgreSQL only: insertRevision and upsertRecord for many revisions in one statement, one
+   * array per column, in the push's order (ord). A record revised more than once in the batch
+   * gets its newest revision's seq and the heads after the last of them.
+   */
+  insertRevisionsAndHeads: {
     sqlite: '',
-    postgres: `SELECT kind, record_id, hash FROM revisions
-     WHERE lab_id = ? AND (kind, record_id, hash) IN (SELECT * FROM unnest(?::text[], ?::text[], ?::text[]))`,
-  },
-  revisionCounts: {
-    sqlite: '',
-    postgres: `SELECT kind, record_id, count(*) AS n FROM revisions
-     WHERE lab_id = ? AND (kind, record_id) IN (SELECT * FROM unnest(?::text[], ?::text[]))
-     GROUP BY kind, record_id`,
-  },
-  /** PostgreSQL only: insertRevision and upsertRecord in one statement. */
-  insertRevisionAndHeads: {
-    sqlite: '',
-    postgres: `WITH added AS (
+    postgres: `WITH incoming AS (
+       SELECT * FROM unnest(?::text[], ?::text[], ?::text[], ?::bigint[], ?::text[], ?::integer[], ?::text[], ?::text[])
+         WITH ORDINALITY AS t(kind, record_id, hash, revision, updated_at, deleted, body, heads, ord)),
+     added AS (
        INSERT INTO revisions (lab_id, kind, record_id, hash, revision, updated_at, deleted, body, device, received_at)
-       VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?) RETURNING lab_id, kind, record_id, seq)
+       SELECT ?, kind, record_id, hash, revision, updated_at, deleted, body, ?, ? FROM incoming ORDER BY ord
+       RETURNING kind, record_id, hash, seq)
      INSERT INTO records (lab_id, kind, record_id, last_seq, heads)
-       SELECT lab_id, kind, record_id, seq, ? FROM added
+       SELECT ?, a.kind, a.record_id, max(a.seq), (array_agg(i.heads ORDER BY i.ord DESC))[1]
+       FROM added a JOIN incoming i USING (kind, record_id, hash)
+       GROUP BY a.kind, a.record_id
      ON CONFLICT (lab_id, kind, record_id) DO UPDATE SET last_seq = excluded.last_seq, heads = excluded.heads`,
+  },
+  /**
+   * PostgreSQL only: a push's bytes charged to its lab, answering what the cap check needs (the
+   * lab as it is now, and what its unfinished uploads hold) in the same round trip; a push that
+   * does not fit is then refused and its transaction, this charge included, rolled back.
+   */
+  chargeLab: {
+    sqlite: '',
+    postgres: `UPDATE labs SET used_bytes = used_bytes + ? WHERE id = ?
+     RETURNING *, (SELECT coalesce(sum(bytes - received), 0) FROM uploads
+       WHERE uploads.lab_id = labs.id AND complete = 0) AS held`,
   },
   /**
    * PostgreSQL only: every write of a lab (push, upload, chunk) holds this lab's lock to its
