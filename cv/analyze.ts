@@ -1,4 +1,4 @@
-import { modelAgar, WALL_ZONE_MM } from './agar.ts';
+import { type AgarModel, modelAgar, WALL_ZONE_MM } from './agar.ts';
 import { resizeRegion } from './banded-resize.ts';
 import { candidateFeatures } from './candidate-features.ts';
 import { selectCandidates } from './candidates.ts';
@@ -16,7 +16,7 @@ import { withMats } from './mat-scope.ts';
 import { measureRegions } from './measure.ts';
 import { loadOpenCv, type Mat, type OpenCv } from './opencv.ts';
 import { plateDoubts } from './plate-doubts.ts';
-import { splitTouching } from './split.ts';
+import { type Split, splitTouching } from './split.ts';
 import { colonyFlags, countsByClass } from './summary.ts';
 import type {
   AnalyzeOptions,
@@ -94,20 +94,9 @@ function runPipeline(
   stage('foreground', 0.6);
   const split = splitTouching(cv, keep, rgb, fg.mask, frame);
   stage('split', 0.75);
-  const measured = measureRegions(
-    split.regions,
-    split.regionCount,
-    split.components,
-    split.componentCount,
-    split.distance,
-    agar.lab8,
-    agar.background8,
-    agar.deltaE,
-    deltaESlope(cv, keep, agar.deltaE),
-    agar.rim,
-    split.ridge,
-  );
-  const { candidates: byDefault, rejected } = selectCandidates(
+  const slope = deltaESlope(cv, keep, agar.deltaE);
+  const measured = measureSplit(split, agar, slope);
+  const { candidates: selected, rejected } = selectCandidates(
     measured.regions,
     measured.components,
     split.typicalRadius,
@@ -115,16 +104,27 @@ function runPipeline(
     fg.threshold,
     fg.faintThreshold,
     (r) => (1 - ellipseRadius(dishW, r.x, r.y)) * dishW.r * frame.mmPerPx < WALL_ZONE_MM,
-    (r) => agar.glareZone.data[Math.floor(r.y) * agar.glareZone.cols + Math.floor(r.x)]! > 0,
+    (r) => onMask(agar.glareZone, r.x, r.y),
   );
+  const byDefault = selected;
+  // What only a learned model's wider search found is split and measured on its own, after the
+  // default reading, which it cannot change: the model judges it, the default rules never see it.
+  const wider = fg.widerOnly
+    ? renumbered(
+        measureSplit(splitTouching(cv, keep, rgb, fg.widerOnly, frame), agar, slope),
+        split.regionCount,
+        split.componentCount,
+      )
+    : { regions: [], components: [] };
+  const allRegions = [...measured.regions, ...wider.regions];
   // The person looks there: a colony under writing shares the stroke's blob and may go with it.
   if (rejected.strokes > 0) flags.push({ kind: 'ink', pieces: rejected.strokes });
   // Learning's hook: every object considered, with its features, only when asked for.
   const considered =
     options.withCandidates || options.model
       ? candidateFeatures({
-          regions: measured.regions,
-          components: measured.components,
+          regions: allRegions,
+          components: [...measured.components, ...wider.components],
           verdict: new Map(byDefault.map((c) => [c.region.id, 'colony' as const])),
           mmPerPx: frame.mmPerPx,
           scale: frame.scale,
@@ -133,7 +133,7 @@ function runPipeline(
         })
       : null;
   const learned = options.model
-    ? learnedCandidates(options.model, considered!, measured.regions, byDefault)
+    ? learnedCandidates(options.model, considered!, allRegions, byDefault)
     : null;
   if (learned?.flag) flags.push(learned.flag);
   const candidates = learned?.candidates ?? byDefault;
@@ -222,6 +222,41 @@ function workingImage(cv: OpenCv, image: RgbaImage, frame: WorkingFrame): Mat {
     cv.GaussianBlur(rgb, rgb, new cv.Size(0, 0), SMOOTHING_MM / frame.mmPerPx);
     return rgb;
   });
+}
+
+type MeasuredRegions = ReturnType<typeof measureRegions>;
+
+function measureSplit(split: Split, agar: AgarModel, slope: Mat): MeasuredRegions {
+  return measureRegions(
+    split.regions,
+    split.regionCount,
+    split.components,
+    split.componentCount,
+    split.distance,
+    agar.lab8,
+    agar.background8,
+    agar.deltaE,
+    slope,
+    agar.rim,
+    split.ridge,
+  );
+}
+
+/** Region and blob ids moved past the default reading's, so that both sets can be considered. */
+function renumbered(m: MeasuredRegions, regions: number, components: number): MeasuredRegions {
+  return {
+    ...m,
+    regions: m.regions.map((r) => ({
+      ...r,
+      id: r.id + regions,
+      component: r.component + components,
+    })),
+    components: m.components.map((c) => ({ ...c, id: c.id + components })),
+  };
+}
+
+function onMask(mask: Mat, x: number, y: number): boolean {
+  return mask.data[Math.floor(y) * mask.cols + Math.floor(x)]! > 0;
 }
 
 function toWorkingDish(d: Dish, f: WorkingFrame): Dish {

@@ -28,6 +28,12 @@ export interface Foreground {
   threshold: number;
   /** The lower threshold a large, round, faint disc must clear (see addFaintDiscs). */
   faintThreshold: number;
+  /**
+   * With a wider search (reach < 1): the objects only it found (0/255), apart from `mask`: they
+   * are the learned model's to judge and never the default rules' (see findWiderObjects); null
+   * otherwise.
+   */
+  widerOnly: Mat | null;
 }
 
 export function segmentForeground(
@@ -40,10 +46,9 @@ export function segmentForeground(
   const noise = medianWithin(agar.deltaE, agar.countMask);
   const threshold = Math.max(MIN_CONTRAST, NOISE_MULTIPLE * noise);
   const mask = keep(new cv.Mat());
-  withMats((k) => {
-    thresholdMask(cv, k, mask, agar, frame, threshold);
-    if (reach < 1) addWiderObjects(cv, k, mask, agar, frame, reach * threshold);
-  });
+  const widerOnly =
+    reach < 1 ? keep(cv.Mat.zeros(agar.deltaE.rows, agar.deltaE.cols, cv.CV_8UC1)) : null;
+  withMats((k) => thresholdMask(cv, k, mask, agar, frame, threshold));
   const faintThreshold = Math.max(FAINT_MIN_CONTRAST, FAINT_MULTIPLE * noise);
   withMats((k) => addFaintDiscs(cv, k, mask, agar, frame, faintThreshold));
   withMats((k) => {
@@ -51,7 +56,9 @@ export function segmentForeground(
     fillColonyHoles(cv, mask, lighter, Math.PI * (RING_COLONY_MAX_MM / 2 / frame.mmPerPx) ** 2);
   });
   cutLightFromDark(cv, mask, agar);
-  return { mask, threshold, faintThreshold };
+  if (widerOnly)
+    withMats((k) => findWiderObjects(cv, k, mask, widerOnly, agar, frame, reach * threshold));
+  return { mask, threshold, faintThreshold, widerOnly };
 }
 
 /** The pixels above `level`, noise specks opened away, the wall's arcs and ring cleared. */
@@ -76,15 +83,15 @@ function thresholdMask(
 
 /**
  * A learned model may widen the search (reach < 1, see cv learned-model.ts searchReach): objects
- * above the lower `level` that touch nothing the default threshold found are added, for the model
- * to judge (the thresholds handed on to the default rules stay as they are, so those rules reject
- * them). What the default threshold found keeps its outline, so the default reading of every
- * other object is unchanged.
+ * above the lower `level` that touch nothing the default threshold found go into `widerOnly`, for
+ * the model to judge. They stay out of `mask`, so the default reading (its outlines, its seeds,
+ * the plate's typical colony, the pens learned from its writing) is exactly the one without them.
  */
-function addWiderObjects(
+function findWiderObjects(
   cv: OpenCv,
   k: Keep,
   mask: Mat,
+  widerOnly: Mat,
   agar: AgarModel,
   frame: WorkingFrame,
   level: number,
@@ -100,8 +107,8 @@ function addWiderObjects(
   const m = near.data;
   for (let i = 0; i < l.length; i++) if (m[i] && l[i]) touching[l[i]!] = 1;
   const w = wide.data;
-  const out = mask.data;
-  for (let i = 0; i < l.length; i++) if (w[i] && !touching[l[i]!]) out[i] = 255;
+  const only = widerOnly.data;
+  for (let i = 0; i < l.length; i++) if (w[i] && !touching[l[i]!]) only[i] = 255;
 }
 
 /**

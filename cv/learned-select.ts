@@ -19,9 +19,8 @@ import type { CandidateFeatures, LearnedModel, QualityFlag } from './types.ts';
  *
  * Nor does it add more than its labels can vouch for: on the checked plates a share of the
  * colonies were objects the default rules had rejected (`examples.found`). A plate gets at most
- * as many additions as the upper one-sided 95 % Wilson score bound of that share (Wilson 1927,
- * J. Am. Stat. Assoc. 22:209) implies beside its other colonies, the most probable first. Three
- * plates of one look otherwise taught a model to add a hundred faint objects to a plate of
+ * as many additions as that share implies beside its other colonies, the most probable first.
+ * Three plates of one look otherwise taught a model to add a hundred faint objects to a plate of
  * another (the same photos: 9 false colonies became 103).
  */
 const DISAGREE_SHARE = 0.2;
@@ -55,13 +54,12 @@ export function learnedCandidates(
   };
 }
 
-/** One-sided 95 % normal quantile, for the Wilson bound. */
-const Z_95 = 1.645;
-
 /**
  * The additions a plate may take: all of them for a model that did not record what its labels
- * rescued, else the most probable, up to what the Wilson upper bound of the rescued share allows
- * beside `others` colonies (share s of all colonies gives s / (1 − s) per other colony).
+ * rescued, else the most probable, up to as many as the rescued share implies beside `others`
+ * colonies (a share s of all colonies gives s / (1 − s) per other colony). The share's point
+ * estimate, not an upper bound: from a few plates with a single rescued colony an upper bound
+ * still allowed a tenth of a crowded plate to be added, nearly all of it wrong.
  */
 function boundedAdditions(
   model: LearnedModel,
@@ -70,20 +68,10 @@ function boundedAdditions(
 ): Set<CandidateFeatures> {
   const found = model.examples.found;
   if (found === undefined) return new Set(candidates);
-  const share = wilsonUpper(found, model.examples.colonies);
+  const share = found / Math.max(1, model.examples.colonies);
   const limit = share >= 1 ? Number.POSITIVE_INFINITY : Math.ceil((others * share) / (1 - share));
   const ranked = candidates
     .map((f) => ({ f, p: colonyProbability(model, f) }))
     .sort((a, b) => b.p - a.p || a.f.id - b.f.id);
   return new Set(ranked.slice(0, limit).map((r) => r.f));
-}
-
-/** Upper Wilson score bound of a binomial share k / n at normal quantile z. */
-export function wilsonUpper(k: number, n: number, z = Z_95): number {
-  if (n === 0) return 1;
-  const p = k / n;
-  const z2 = z ** 2;
-  const centre = p + z2 / (2 * n);
-  const spread = z * Math.sqrt((p * (1 - p)) / n + z2 / (4 * n * n));
-  return Math.min(1, (centre + spread) / (1 + z2 / n));
 }
