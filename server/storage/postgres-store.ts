@@ -97,6 +97,23 @@ function guardedError(e: unknown): unknown {
 type Client = pg.PoolClient;
 
 /** A statement by its name in sql.ts, prepared by PostgreSQL once per connection. */
+/** The head revisions of a pull's page, by headKey, in one round trip (sql.ts pageHeads). */
+async function pageHeads(
+  c: pg.PoolClient,
+  labId: number,
+  page: readonly { kind: string; record_id: string; hashes: readonly string[] }[],
+): Promise<Map<string, RevisionRow & { kind: string; record_id: string }>> {
+  const keys = page.flatMap((r) => r.hashes.map((hash) => [r.kind, r.record_id, hash] as const));
+  if (keys.length === 0) return new Map();
+  const rows = await run<RevisionRow & { kind: string; record_id: string }>(c, 'pageHeads', [
+    keys.map((k) => k[0]),
+    keys.map((k) => k[1]),
+    keys.map((k) => k[2]),
+    labId,
+  ]);
+  return new Map(rows.map((r) => [headKey(r.kind, r.record_id, r.hash), r]));
+}
+
 async function run<R extends pg.QueryResultRow = pg.QueryResultRow>(
   db: Client | pg.Pool,
   name: StatementName,
@@ -179,6 +196,7 @@ function checkFits(lab: LabRow, held: number, bytes: number): void {
 }
 
 const recordKey = (kind: string, id: string) => `${kind}\u0000${id}`;
+const headKey = (kind: string, id: string, hash: string) => `${recordKey(kind, id)}\u0000${hash}`;
 
 /** What a push knows of the records it touches, kept up to date as its changes apply. */
 interface PushState {
@@ -496,21 +514,20 @@ export async function openPostgresStore(options: PostgresOptions): Promise<SyncS
             last_seq: number;
             heads: string;
           }>(c, 'changedSince', [labId, since.seq, limit + 1]);
+          const page = rows
+            .slice(0, limit)
+            .map((r) => ({ ...r, hashes: JSON.parse(r.heads) as string[] }));
+          const headRows = await pageHeads(c, labId, page);
           const records: PulledRecord[] = [];
           let bytes = PAGE_OVERHEAD;
           let last = since.seq;
-          for (const r of rows.slice(0, limit)) {
-            const heads = [];
-            for (const h of JSON.parse(r.heads) as string[])
-              heads.push(
-                revisionFromRow(
-                  (await one<RevisionRow>(c, 'revisionByHash', [labId, r.kind, r.record_id, h]))!,
-                ),
-              );
+          for (const r of page) {
             const record: PulledRecord = {
               kind: r.kind as PulledRecord['kind'],
               id: r.record_id,
-              heads,
+              heads: r.hashes.map((h) =>
+                revisionFromRow(headRows.get(headKey(r.kind, r.record_id, h))!),
+              ),
             };
             bytes += Buffer.byteLength(JSON.stringify(record)) + 1;
             if (records.length > 0 && bytes > maxBytes) break;

@@ -246,6 +246,16 @@ export const SQL = {
        WHERE lab_id = ? AND kind = t.kind AND record_id = t.record_id AND hash = t.hash OFFSET 0) v`,
   },
   /**
+   * PostgreSQL only: the head revisions of a pull's page in one query, each looked up by its key
+   * as in pushReads (SQLite reads them one at a time with revisionByHash, in-process).
+   */
+  pageHeads: {
+    sqlite: '',
+    postgres: `SELECT v.* FROM unnest(?::text[], ?::text[], ?::text[]) AS t(kind, record_id, hash)
+     CROSS JOIN LATERAL (SELECT * FROM revisions
+       WHERE lab_id = ? AND kind = t.kind AND record_id = t.record_id AND hash = t.hash OFFSET 0) v`,
+  },
+  /**
    * PostgreSQL only: insertRevision and upsertRecord for many revisions in one statement, one
    * array per column, in the push's order (ord). A record revised more than once in the batch
    * gets its newest revision's seq and the heads after the last of them.
