@@ -96,7 +96,7 @@ function runPipeline(
   stage('split', 0.75);
   const slope = deltaESlope(cv, keep, agar.deltaE);
   const measured = measureSplit(split, agar, slope);
-  const { candidates: selected, rejected } = selectCandidates(
+  const { candidates: byDefault, rejected } = selectCandidates(
     measured.regions,
     measured.components,
     split.typicalRadius,
@@ -106,7 +106,6 @@ function runPipeline(
     (r) => (1 - ellipseRadius(dishW, r.x, r.y)) * dishW.r * frame.mmPerPx < WALL_ZONE_MM,
     (r) => onMask(agar.glareZone, r.x, r.y),
   );
-  const byDefault = selected;
   // What only a learned model's wider search found is split and measured on its own, after the
   // default reading, which it cannot change: the model judges it, the default rules never see it.
   const wider = fg.widerOnly
@@ -162,8 +161,8 @@ function runPipeline(
   });
   // An object of neither colour is shown for the person to decide. A learned model that decides
   // colonies has judged each object one, and a colour unlike both of the lab's is still set
-  // aside (counted, a model learned on three plates took 90 faint objects of neither colour on
-  // another plate for colonies) — unless most of the plate is unlike them: then the plate is not
+  // aside (counted, they made about 40 false colonies on one plates-dev photo read with a model
+  // learned from three plates) — unless most of the plate is unlike them: then the plate is not
   // of the medium the model learned, and its objects take the nearer colour as before.
   const outliers = classes.outlier.filter(Boolean).length;
   const judged = options.model !== undefined && decidesColonies(options.model);
