@@ -25,7 +25,6 @@ import {
 import type { PlateWorker } from '../web/analysis/plate-reading.ts';
 import { analysisRecord } from '../web/analysis/records.ts';
 import { WorkerBridge } from '../web/analysis/worker-bridge.ts';
-import { newExperiment } from '../web/bench/experiments.ts';
 import { backupJson, readBackup } from '../web/exchange/backup.ts';
 import { labAccuracy } from '../web/review/lab-accuracy.ts';
 import { markChecked } from '../web/review/mark-checked.ts';
@@ -35,6 +34,7 @@ import { newStamp, revised } from '../web/storage/stamp.ts';
 import { fitExperimentModel, readModelText } from '../worker/learning.ts';
 import { plateApi } from '../worker/plate-api.ts';
 import type { PlateWorkerApi } from '../worker/plate-worker.ts';
+import { kestrelExperiment } from './support/kestrel-experiment.ts';
 
 const PINPOINT = {
   colonyRadiusMm: [0.16, 0.26] as [number, number],
@@ -70,18 +70,10 @@ let stores = 0;
 async function setUp() {
   const store = await openIdbStore(`app-learning-${++stores}`);
   const first = generated(701, 150);
-  const experiment = newExperiment({
-    name: 'Kestrel brook isolates',
-    lines: ['K1'],
-    referenceName: 'KB-anc',
-    transferDilution: 100,
-    defaultDilutionFold: 1e5,
-    defaultVolumeUl: 100,
-    markerColours: [
-      { name: first.truth.classes[0].name, hex: '#d0607a' },
-      { name: first.truth.classes[1].name, hex: '#e8d25a' },
-    ],
-  });
+  const experiment = kestrelExperiment([
+    { name: first.truth.classes[0].name, hex: '#d0607a' },
+    { name: first.truth.classes[1].name, hex: '#e8d25a' },
+  ]);
   await store.put('experiments', experiment);
   return { store, experiment, first };
 }

@@ -1,7 +1,7 @@
 import 'fake-indexeddb/auto';
 import { describe, expect, it } from 'vitest';
 import type { Analysis, ColonyRecord, Edit, Plate } from '../../schema/records.ts';
-import { newExperiment } from '../bench/experiments.ts';
+import { kestrelExperiment } from '../../tests/support/kestrel-experiment.ts';
 import { openIdbStore } from '../storage/idb-store.ts';
 import { newStamp } from '../storage/stamp.ts';
 import { labAccuracy } from './lab-accuracy.ts';
@@ -71,14 +71,7 @@ async function checkedPlate(
 describe('the lab accuracy before and after learning', () => {
   it('puts plates read by the default analysis and with a learned model apart', async () => {
     const store = await openIdbStore('lab-accuracy-1');
-    const experiment = newExperiment({
-      name: 'Kestrel brook isolates',
-      lines: ['K1'],
-      referenceName: 'KB-anc',
-      transferDilution: 100,
-      defaultDilutionFold: 1e5,
-      defaultVolumeUl: 100,
-    });
+    const experiment = kestrelExperiment();
     await store.put('experiments', experiment);
     // Worked by hand: 10 found, 2 removed and 1 added → 3 corrections over the 9 left: 1/3.
     await checkedPlate(
