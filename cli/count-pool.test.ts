@@ -9,6 +9,7 @@ import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import { writePlate } from '../fixtures/plate-files.ts';
 import { generatePlate } from '../fixtures/plate-generator.ts';
+import type { Outcome } from './count-one.ts';
 import { countInPool, PhotoQueue } from './count-pool.ts';
 import { loadCvCore } from './opencv-quiet.ts';
 
@@ -63,6 +64,11 @@ afterAll(async () => {
   await rm(dir, { recursive: true, force: true });
 });
 
+/** An outcome with everything but how long the photo and each stage took. */
+function strip(o: Outcome) {
+  return 'analysis' in o ? { file: o.file, analysis: { ...o.analysis, timings: {} } } : o;
+}
+
 describe('countInPool', () => {
   it('reads with this thread and jobs − 1 workers the same outcomes as this thread alone', async () => {
     const loads = vi.fn(loadCvCore);
@@ -76,9 +82,6 @@ describe('countInPool', () => {
     expect(progress).toEqual([1, 2, 3, 4]);
     expect(two.map((o) => o.file)).toEqual(files);
     expect(two[1]).toHaveProperty('error');
-    // Everything but how long each photo and stage took.
-    const strip = (o: (typeof alone)[number]) =>
-      'analysis' in o ? { file: o.file, analysis: { ...o.analysis, timings: {} } } : o;
     expect(two.map(strip)).toEqual(alone.map(strip));
   }, 120_000);
 
@@ -102,8 +105,6 @@ describe('countInPool', () => {
       file: crash,
       error: `the worker reading it failed: stopped on ${crash}`,
     });
-    const strip = (o: (typeof alone)[number]) =>
-      'analysis' in o ? { file: o.file, analysis: { ...o.analysis, timings: {} } } : o;
     expect(outcomes.slice(1, -1).map(strip)).toEqual(alone.map(strip));
   }, 120_000);
 });
