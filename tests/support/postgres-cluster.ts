@@ -11,9 +11,9 @@
  */
 import { execFileSync, spawnSync } from 'node:child_process';
 import { chownSync, existsSync, mkdtempSync, readdirSync, readFileSync, rmSync } from 'node:fs';
-import { createServer } from 'node:net';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+import { freePort } from './free-port.ts';
 
 export interface Cluster {
   /** postgres://rivalplate@127.0.0.1:PORT/postgres: the superuser, on the maintenance database. */
@@ -57,17 +57,6 @@ export function ensurePostgres(): string {
     if (bin) return bin;
   }
   throw new Error(`PostgreSQL (initdb, pg_ctl) was not found. ${ROOT_HINT}`);
-}
-
-export function freePort(): Promise<number> {
-  return new Promise((done, fail) => {
-    const probe = createServer();
-    probe.once('error', fail);
-    probe.listen(0, '127.0.0.1', () => {
-      const { port } = probe.address() as { port: number };
-      probe.close(() => done(port));
-    });
-  });
 }
 
 export async function startCluster(): Promise<Cluster> {

@@ -3,12 +3,13 @@
  * SQLite file in a temporary folder, or a new PostgreSQL database), Fastify listening on
  * 127.0.0.1 on a free port, labs and tokens made through the same store the command line uses.
  */
-import { createServer } from 'node:net';
 import { SYNC_BASE_PATH } from '../../schema/sync-protocol.ts';
 import { buildSyncServer } from '../../server/app.ts';
 import type { LabSettings } from '../../server/storage/sync-store.ts';
 import { newToken, tokenHash } from '../../server/tokens.ts';
 import { dropDatabase, freshDatabase, openReader, openTestStore } from './test-database.ts';
+
+export { freePort } from '../support/free-port.ts';
 
 export { ENGINE, freshDatabase, tempDir } from './test-database.ts';
 
@@ -82,16 +83,4 @@ export async function call<T = unknown>(
   const res = await fetch(url, { method: init.method ?? (body ? 'POST' : 'GET'), headers, body });
   const text = await res.text();
   return { status: res.status, json: (text ? JSON.parse(text) : null) as T };
-}
-
-/** A port free right now on 127.0.0.1, so a restarted server can come back at the same address. */
-export function freePort(): Promise<number> {
-  return new Promise((done, fail) => {
-    const probe = createServer();
-    probe.once('error', fail);
-    probe.listen(0, '127.0.0.1', () => {
-      const { port } = probe.address() as { port: number };
-      probe.close(() => done(port));
-    });
-  });
 }
