@@ -11,7 +11,8 @@ import type { ColonyClass, ColourClass, Lab, Palette, PaletteColour } from './ty
  * chromatic axes: marker colours differ mainly in hue and chroma, while residual shading moves
  * lightness. Without a palette a plate is clustered on its own (cluster.ts decides one colour or
  * two); with a palette every colony goes to the nearer palette colour, distances scaled by each
- * colour's own spread, so a 97:3 or 100:0 plate is classified like any other.
+ * colour's own spread and measured to the colour's density line (fromDensityLine: a weaker or
+ * stronger shade of the same pigment), so a 97:3 or 100:0 plate is classified like any other.
  */
 export interface ColourSample {
   lab: Lab;
@@ -75,8 +76,10 @@ export function classify(samples: readonly ColourSample[], palette?: Palette): C
   const confidence: number[] = [];
   const outlier: boolean[] = [];
   for (const f of features) {
-    const d0 = distance(f, centres[0]!) / spreads[0]!;
-    const d1 = distance(f, centres[1]!) / spreads[1]!;
+    // Which pigment, by the density line (a colony of a colour may be weaker or stronger than
+    // the palette's); whether it is either marker at all, by the palette colours themselves.
+    const d0 = fromDensityLine(f, centres[0]!) / spreads[0]!;
+    const d1 = fromDensityLine(f, centres[1]!) / spreads[1]!;
     const k: ColonyClass = d0 <= d1 ? 0 : 1;
     cls.push(k);
     const total = d0 + d1;
@@ -105,14 +108,14 @@ function twoColoursOf(features: readonly Point[]): TwoClusters | null {
 
 /**
  * The plate's own two colours are the palette's two: each is nearer to a different palette colour
- * and lies within OUTLIER_SPREADS of it. A plate of one colour split by shade (a 194:6 plate whose
+ * and lies within OUTLIER_SPREADS of it or of a shade of it (fromDensityLine). A plate of one colour split by shade (a 194:6 plate whose
  * blue colonies vary) has both its clusters nearest the same palette colour, and is sorted by the
  * palette instead.
  */
 function agrees(own: TwoClusters, palette: Palette): boolean {
   const p = palette.colours.map((c) => colourFeature(c.deltaLab));
   const s = palette.colours.map((c) => Math.max(MIN_SPREAD, c.spread));
-  const scaled = (o: Point, k: number) => distance(o, p[k]!) / s[k]!;
+  const scaled = (o: Point, k: number) => fromDensityLine(o, p[k]!) / s[k]!;
   const nearest = (o: Point) => (scaled(o, 0) <= scaled(o, 1) ? 0 : 1);
   const [a, b] = own.centres;
   const ka = nearest(a);
@@ -204,6 +207,20 @@ function paletteClasses(p: Palette): ColourClass[] {
     deltaLab: c.deltaLab,
   }));
 }
+
+/**
+ * Distance from f to the colour c or a shade of it from 1/DENSITY_RANGE to DENSITY_RANGE times as
+ * far from the agar. A colony's difference from the agar grows with its optical density
+ * (Beer–Lambert): the same strain reads stronger on a plate of big, old colonies than on one of
+ * young ones, and lighting moves all colonies of a plate alike.
+ */
+function fromDensityLine(f: Point, c: Point): number {
+  const cc = c[0] * c[0] + c[1] * c[1] + c[2] * c[2];
+  const t = cc === 0 ? 1 : (f[0] * c[0] + f[1] * c[1] + f[2] * c[2]) / cc;
+  const k = Math.min(DENSITY_RANGE, Math.max(1 / DENSITY_RANGE, t));
+  return distance(f, [k * c[0], k * c[1], k * c[2]]);
+}
+const DENSITY_RANGE = 2;
 
 function distance(p: Point, q: Point): number {
   return Math.hypot(p[0] - q[0], p[1] - q[1], p[2] - q[2]);

@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { generatePlate } from '../fixtures/plate-generator.ts';
 import { analyzePlate } from './analyze.ts';
 import { classifyWithPalette, learnPalette, paletteFromExamples } from './palette.ts';
-import type { Colony, Lab, PlateAnalysis } from './types.ts';
+import type { Colony, Lab, Palette, PlateAnalysis } from './types.ts';
 
 /** A plate's analysis holding colonies of the given colours relative to the agar (ΔL*, Δa*, Δb*). */
 function plateOf(groups: { delta: Lab; n: number }[]): PlateAnalysis {
@@ -84,6 +84,23 @@ describe('palettes', () => {
     const learnedPale = palette.colours.find((c) => c.deltaLab[0] > 0)!;
     expect(Math.abs(learnedPale.deltaLab[0] - pale[0])).toBeLessThan(2);
     expect(Math.abs(learnedPale.deltaLab[1] - pale[1])).toBeLessThan(2);
+  });
+
+  it('colonies weaker than the palette colour are sorted by their pigment, not their strength', () => {
+    // This plate's dark colonies are half as far from the agar as the palette's (young colonies:
+    // by the Beer–Lambert law a thinner layer of the same pigment differs less from the agar, in
+    // the same direction). In plain distance, scaled by the colours' spreads, they are nearer the
+    // widely spread pale colour; along the dark colour's line they are the dark strain.
+    const palette: Palette = {
+      version: 1,
+      colours: [
+        { name: 'ancestor', hex: '#5a1e28', deltaLab: [-24, 20, -6], spread: 4 },
+        { name: 'evolved', hex: '#f0e6dc', deltaLab: [5, -2, -3], spread: 8 },
+      ],
+    };
+    const young = plateOf([{ delta: [-12, 10, -3], n: 30 }]);
+    const sorted = classifyWithPalette(young, palette);
+    expect(sorted.counts).toEqual({ ancestor: 30, evolved: 0 });
   });
 
   it('re-sorting keeps image flags and recounts the colony flags', async () => {
