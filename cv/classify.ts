@@ -99,6 +99,11 @@ export function spreadsApart(f: Point, c: PaletteColour): number {
   return distance(f, colourFeature(c.deltaLab)) / Math.max(MIN_SPREAD, c.spread);
 }
 
+/** How far a colour feature lies from a shade of a palette colour (fromDensityLine), in spreads. */
+export function spreadsFromShade(f: Point, c: PaletteColour): number {
+  return fromDensityLine(f, colourFeature(c.deltaLab)) / Math.max(MIN_SPREAD, c.spread);
+}
+
 /** This plate's own two colours, when its colonies show two (cluster.ts), else null. */
 function twoColoursOf(features: readonly Point[]): TwoClusters | null {
   const clusters = kmeans2(features);
@@ -113,9 +118,7 @@ function twoColoursOf(features: readonly Point[]): TwoClusters | null {
  * palette instead.
  */
 function agrees(own: TwoClusters, palette: Palette): boolean {
-  const p = palette.colours.map((c) => colourFeature(c.deltaLab));
-  const s = palette.colours.map((c) => Math.max(MIN_SPREAD, c.spread));
-  const scaled = (o: Point, k: number) => fromDensityLine(o, p[k]!) / s[k]!;
+  const scaled = (o: Point, k: number) => spreadsFromShade(o, palette.colours[k]!);
   const nearest = (o: Point) => (scaled(o, 0) <= scaled(o, 1) ? 0 : 1);
   const [a, b] = own.centres;
   const ka = nearest(a);

@@ -4,7 +4,7 @@ import {
   OUTLIER_SPREADS,
   paletteFrom,
   paletteFromSamples,
-  spreadsApart,
+  spreadsFromShade,
 } from './classify.ts';
 import { deltaE76 } from './colour.ts';
 import { colonyFlags, countsByClass, imageFlags } from './summary.ts';
@@ -49,8 +49,8 @@ const MIN_TEACHING_SHARE = 0.1;
  * the medoid plate (the one closest to all others, so one odd plate cannot lead) by the smaller
  * total distance, then averaged, weighted by colony numbers; spreads are pooled as root mean
  * squares. A plate whose pair does not match the medoid's (either colour further than
- * OUTLIER_SPREADS of the medoid colour's spreads: it split glare from colonies, or one colour by
- * shade) is left out rather than averaged in.
+ * OUTLIER_SPREADS of the medoid colour's spreads from any shade of it, classify.ts: it split glare
+ * from colonies, or one colour by shade) is left out rather than averaged in.
  */
 function mergePalettes(parts: readonly { palette: Palette; weight: number }[]): Palette {
   const ref = medoid(parts.map((p) => p.palette));
@@ -78,7 +78,7 @@ function mergePalettes(parts: readonly { palette: Palette; weight: number }[]): 
 }
 
 function isNearColour(c: PaletteColour, ref: PaletteColour): boolean {
-  return spreadsApart(colourFeature(c.deltaLab), ref) <= OUTLIER_SPREADS;
+  return spreadsFromShade(colourFeature(c.deltaLab), ref) <= OUTLIER_SPREADS;
 }
 
 export function paletteFromExamples(a: Colony, b: Colony, names?: [string, string]): Palette {
