@@ -28,7 +28,8 @@ import {
  *   ridge holds one value, so its coefficient of variation is near 0 (corners and junctions of
  *   writing add a little); along a chain of touching discs of radius R it follows
  *   √(R² − x²), whose coefficient of variation is about 0.28, and a single disc's ridge is one
- *   point. A long blob whose ridge varies less than STROKE_RIDGE_VARIATION is a band. The
+ *   point. A long blob whose ridge varies less than STROKE_RIDGE_VARIATION is a band (a very long
+ *   one, less than LONG_STROKE_RIDGE_VARIATION). The
  *   pieces of the same writing that shape cannot tell are found by the pen's colour and
  *   thickness, learned from those bands, or as dark, colourless ink where the plate's own round
  *   colonies are not of that colour (writing.ts). Inside a stroke's own blob, a piece of the
@@ -70,6 +71,15 @@ const SATELLITE_GAP_MM = 0.3;
 const STROKE_ELONGATION = 3;
 /** Between a band's ridge variation (≈ 0) and a chain of colonies' (≈ 0.28). */
 const STROKE_RIDGE_VARIATION = 0.2;
+/**
+ * A blob more than LONG_BLOB times its widest disc is a stroke unless its ridge varies more than
+ * LONG_STROKE_RIDGE_VARIATION. Writing and lamp reflections are that long on any plate, and their
+ * thickness varies more than a band's (a letter's curves and joins, a reflection's taper); a row
+ * of eight colonies or more happens only on a crowded plate, and each of its colonies is as thick
+ * as a colony, so it is kept as a colony on the stroke (isColonyOnStroke).
+ */
+const LONG_BLOB = 8;
+const LONG_STROKE_RIDGE_VARIATION = 0.4;
 const STROKE_THINNESS = 0.7;
 /** A region of a stroke's blob this many times thicker than the stroke is a colony under it. */
 const COLONY_ON_STROKE = 1.6;
@@ -250,7 +260,8 @@ function componentVerdict(
 ): 'keep' | 'specks' | 'strokes' | 'wall' {
   if (c.area < minArea) return 'specks';
   const elongation = elongationOf(c);
-  if (elongation > STROKE_ELONGATION && c.ridgeVariation < STROKE_RIDGE_VARIATION) {
+  const variation = elongation > LONG_BLOB ? LONG_STROKE_RIDGE_VARIATION : STROKE_RIDGE_VARIATION;
+  if (elongation > STROKE_ELONGATION && c.ridgeVariation < variation) {
     return 'strokes';
   }
   if (c.rimPixels > 0 && c.halfWidth < WALL_THINNESS * typicalRadius) return 'wall';
