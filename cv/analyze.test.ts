@@ -27,6 +27,16 @@ describe('analyzePlate', () => {
     expect(cv.HEAP8.length).toBe(before);
   }, 60_000);
 
+  it('flags a photo too coarse for small colonies, and not one of ordinary size', async () => {
+    // 480 px for a dish of 0.85 × 480 px over 90 mm: 4.5 px per mm, a 0.5 mm colony 2.3 px across.
+    const coarse = await analyzePlate(generatePlate({ seed: 8, width: 640, height: 480 }).image);
+    const flag = coarse.flags.find((f) => f.kind === 'coarse-photo');
+    expect(flag).toBeDefined();
+    expect((flag as { pxPerMm: number }).pxPerMm).toBeCloseTo(4.5, 0);
+    const fine = await analyzePlate(generatePlate({ seed: 8 }).image);
+    expect(fine.flags.map((f) => f.kind)).not.toContain('coarse-photo');
+  }, 30_000);
+
   it('reports the working scale and keeps coordinates in the photo’s own pixels', async () => {
     const { image, truth } = generatePlate({ seed: 7, width: 3000, height: 2250, colonies: 40 });
     const a = await analyzePlate(image);

@@ -7,7 +7,13 @@ import { now } from './clock.ts';
 import { DEFAULT_DISH_MM, detectDish, ellipseRadius, givenDish } from './dish.ts';
 import { deltaESlope, edgeWidthMm } from './focus.ts';
 import { segmentForeground } from './foreground.ts';
-import { frameForDish, inscribedDish, toOriginal, type WorkingFrame } from './frame.ts';
+import {
+  frameForDish,
+  inscribedDish,
+  originalPxPerMm,
+  toOriginal,
+  type WorkingFrame,
+} from './frame.ts';
 import { checkImage } from './image-input.ts';
 import { decidesColonies } from './learned-model.ts';
 import { learnedCandidates } from './learned-select.ts';
@@ -34,6 +40,12 @@ import type {
  */
 const BLURRED_EDGE_MM = 0.5;
 const SMOOTHING_MM = 0.07;
+/**
+ * Below this many photo pixels per millimetre a 0.5 mm colony (about the smallest counted,
+ * common practice) spans fewer than 2.5 pixels, near the two samples per detail the sampling
+ * theorem asks for: small colonies are lost or taken for specks, and the count is flagged.
+ */
+const COARSE_PX_PER_MM = 5;
 /** More than this share of a plate's objects of neither learned colour: not the model's medium. */
 const UNLIKE_SHARE = 0.5;
 
@@ -76,6 +88,8 @@ function runPipeline(
   if (!dish) flags.push({ kind: 'dish-not-found' });
   const geometry = dish ?? inscribedDish(image.width, image.height);
   const frame = frameForDish(geometry, image.width, image.height, dishMm);
+  const pxPerMm = originalPxPerMm(frame);
+  if (pxPerMm < COARSE_PX_PER_MM) flags.push({ kind: 'coarse-photo', pxPerMm: round(pxPerMm, 1) });
   stage('dish', 0.2);
 
   const rgb = keep(workingImage(cv, image, frame));

@@ -63,6 +63,11 @@ export function inscribedDish(imageWidth: number, imageHeight: number): Dish {
   };
 }
 
+/** Original pixels per millimetre of the dish: how finely the photo itself resolves the plate. */
+export function originalPxPerMm(f: WorkingFrame): number {
+  return 1 / (f.mmPerPx * f.scale);
+}
+
 export function toOriginal(f: WorkingFrame, x: number, y: number): [number, number] {
   return [f.roi.x + x / f.scale, f.roi.y + y / f.scale];
 }

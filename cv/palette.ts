@@ -28,6 +28,7 @@ export function learnPalette(analyses: readonly PlateAnalysis[]): Palette | null
 /** Plates that may teach colours: the dish was found and nothing whole-plate is in doubt. */
 const DOUBTFUL = new Set<string>([
   'dish-not-found',
+  'coarse-photo',
   'out-of-focus',
   'nothing-found',
   'many-rejected',

@@ -89,6 +89,8 @@ export type QualityFlag =
   /** Ink (writing on the lid or the plate) left out, in `pieces`; colonies under it may be too. */
   | { kind: 'ink'; pieces: number }
   | { kind: 'out-of-focus'; edgeWidthMm: number }
+  /** The photo resolves the dish in fewer than COARSE_PX_PER_MM pixels per mm (analyze.ts). */
+  | { kind: 'coarse-photo'; pxPerMm: number }
   | { kind: 'one-colour'; reason: string }
   /** No colony counted though part of the agar differs from the agar round it. */
   | { kind: 'nothing-found'; foregroundShare: number }

@@ -21,6 +21,9 @@ describe('flag codes in words', () => {
       '1 clump that could not be split, counted from their shape as 3 colonies.',
     );
     expect(plateFlagSentence({ kind: 'glare', fraction: 0.124 })).toContain('12%');
+    expect(plateFlagSentence({ kind: 'coarse-photo', pxPerMm: 4.46 })).toContain(
+      '4.5 pixels per mm',
+    );
     expect(plateFlagSentence({ kind: 'new-thing', count: 2 })).toBe('new thing: count 2');
     expect(plateFlagSentence({ kind: 'learned-differs', added: 1, dropped: 7 })).toBe(
       'What the experiment learned disagrees with the usual rules here (1 object added, 7 dropped): check the colonies.',

@@ -14,6 +14,7 @@ const PLATE_FLAG_LABELS: Record<string, string> = {
   'colour-outliers': 'odd colours left out',
   ink: 'writing on the lid',
   'out-of-focus': 'out of focus',
+  'coarse-photo': 'photo too coarse',
   'one-colour': 'one colour only',
   'nothing-found': 'nothing counted, something there',
   'many-rejected': 'most objects set aside',
@@ -91,6 +92,8 @@ export function plateFlagSentence(flag: PlateFlagCode): string {
       return `${counted(num(flag.colonies), 'colony', 'colonies')} with an uncertain colour: check them (Unsure).`;
     case 'out-of-focus':
       return `The photo looks out of focus (edges ${num(flag.edgeWidthMm).toFixed(2)} mm wide).`;
+    case 'coarse-photo':
+      return `The photo resolves the dish in only ${num(flag.pxPerMm).toFixed(1)} pixels per mm: small colonies may be missed. Take it closer, the dish filling the frame.`;
     case 'ink':
       return `Writing on the lid left out in ${counted(num(flag.pieces), 'piece', 'pieces')}: check for colonies under it.`;
     case 'colour-outliers':
