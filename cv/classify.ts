@@ -11,8 +11,8 @@ import type { ColonyClass, ColourClass, Lab, Palette, PaletteColour } from './ty
  * chromatic axes: marker colours differ mainly in hue and chroma, while residual shading moves
  * lightness. Without a palette a plate is clustered on its own (cluster.ts decides one colour or
  * two); with a palette every colony goes to the nearer palette colour, distances scaled by each
- * colour's own spread and measured to the colour's density line (fromDensityLine: a weaker or
- * stronger shade of the same pigment), so a 97:3 or 100:0 plate is classified like any other.
+ * colour's own spread and measured to the colour's density line (fromDensityLine: a weaker
+ * shade of the same pigment), so a 97:3 or 100:0 plate is classified like any other.
  */
 export interface ColourSample {
   lab: Lab;
@@ -99,9 +99,14 @@ export function spreadsApart(f: Point, c: PaletteColour): number {
   return distance(f, colourFeature(c.deltaLab)) / Math.max(MIN_SPREAD, c.spread);
 }
 
-/** How far a colour feature lies from a shade of a palette colour (fromDensityLine), in spreads. */
+/**
+ * How far a plate's colour lies from a weaker or stronger shade of a palette colour
+ * (fromDensityLine), in that colour's spreads.
+ */
 export function spreadsFromShade(f: Point, c: PaletteColour): number {
-  return fromDensityLine(f, colourFeature(c.deltaLab)) / Math.max(MIN_SPREAD, c.spread);
+  return (
+    fromDensityLine(f, colourFeature(c.deltaLab), DENSITY_RANGE) / Math.max(MIN_SPREAD, c.spread)
+  );
 }
 
 /** This plate's own two colours, when its colonies show two (cluster.ts), else null. */
@@ -212,15 +217,18 @@ function paletteClasses(p: Palette): ColourClass[] {
 }
 
 /**
- * Distance from f to the colour c or a shade of it from 1/DENSITY_RANGE to DENSITY_RANGE times as
+ * Distance from f to the colour c or a shade of it, from 1/DENSITY_RANGE to `strongest` times as
  * far from the agar. A colony's difference from the agar grows with its optical density
- * (Beer–Lambert): the same strain reads stronger on a plate of big, old colonies than on one of
- * young ones, and lighting moves all colonies of a plate alike.
+ * (Beer–Lambert): the same strain reads weaker on a plate of young colonies than on one of big,
+ * old ones, and lighting moves all colonies of a plate alike. A colony is sorted against the
+ * palette colour and its weaker shades only: the palette is learned from the clearest colonies,
+ * and what is stronger still is more often ink than a colony. Two plates' colours are compared
+ * both ways (either may be the stronger).
  */
-function fromDensityLine(f: Point, c: Point): number {
+function fromDensityLine(f: Point, c: Point, strongest = 1): number {
   const cc = c[0] * c[0] + c[1] * c[1] + c[2] * c[2];
   const t = cc === 0 ? 1 : (f[0] * c[0] + f[1] * c[1] + f[2] * c[2]) / cc;
-  const k = Math.min(DENSITY_RANGE, Math.max(1 / DENSITY_RANGE, t));
+  const k = Math.min(strongest, Math.max(1 / DENSITY_RANGE, t));
   return distance(f, [k * c[0], k * c[1], k * c[2]]);
 }
 const DENSITY_RANGE = 2;
