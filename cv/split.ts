@@ -9,9 +9,7 @@ import type { Mat, OpenCv } from './opencv.ts';
  * Meyer 1993) seeded at the peaks of the Euclidean distance transform of the foreground, the
  * usual recipe for touching round objects. Peaks are found at the scale of each colony (see
  * scaledPeaks), so that a pair overlapping down to 0.7× the sum of their radii still gets two
- * seeds while one big colony gets one. A colony that still gets no seed (a shoulder of a bigger
- * neighbour's peak) is seeded from the foreground left in no region (orphanSeeds), and the
- * watershed runs again.
+ * seeds while one big colony gets one.
  *
  * Output: `regions` (CV_32S, 1..n per colony candidate, 0 elsewhere), `components` (CV_32S, the
  * connected foreground blobs before splitting), `distance` (CV_32F), and the typical radius used.
@@ -48,25 +46,8 @@ export function splitTouching(
     const floor8 = k(new cv.Mat());
     floor.convertTo(floor8, cv.CV_8U);
     cv.bitwise_and(peaks, floor8, peaks);
-    const n = flood(cv, rgb, mask, peaks, regions);
-    const orphans = k(orphanSeeds(cv, regions, n, mask, distance, typicalRadius));
-    if (cv.countNonZero(orphans) === 0) return n;
-    // Flooded again from all the seeds, so the colonies share the blob by the image's edges.
-    cv.bitwise_or(peaks, orphans, peaks);
-    return flood(cv, rgb, mask, peaks, regions);
-  });
-  const ridge = keep(ridgeOf(cv, distance));
-  return { regions, regionCount, components, componentCount, distance, ridge, typicalRadius };
-}
-
-/**
- * Marker-controlled watershed from `peaks` (8-bit, seeds > 0) over the RGB image, the background
- * marked outside a slightly grown mask. Writes the colony regions (1..n, 0 elsewhere) to
- * `regions` and returns n.
- */
-function flood(cv: OpenCv, rgb: Mat, mask: Mat, peaks: Mat, regions: Mat): number {
-  return withMats((k) => {
     const n = cv.connectedComponents(peaks, regions, 8, cv.CV_32S) - 1;
+
     // Watershed wants every pixel known to be background labelled too: outside a slightly grown mask.
     const grown = k(new cv.Mat());
     cv.dilate(mask, grown, k(cv.getStructuringElement(cv.MORPH_ELLIPSE, new cv.Size(5, 5))));
@@ -89,77 +70,8 @@ function flood(cv: OpenCv, rgb: Mat, mask: Mat, peaks: Mat, regions: Mat): numbe
     regions.setTo([0, 0, 0, 0], notMask);
     return n;
   });
-}
-
-/**
- * Seeds for colonies that got none. A colony overshadowed in the distance map by a bigger
- * neighbour (a shoulder of its peak, not a peak of its own) is flooded from the background and
- * left in no region. What of the foreground no region took is either such a colony or the fringe
- * round a kept one, which the foreground takes in and the colony's region does not (a blurred
- * edge, a halo). The peaks of the leftover's own distance map seed a colony where they hold a
- * disc of ORPHAN_DISC typical colonies and of NEIGHBOUR_SHARE of the biggest region beside them:
- * a fringe is thin beside the colony it surrounds.
- */
-function orphanSeeds(
-  cv: OpenCv,
-  regions: Mat,
-  n: number,
-  mask: Mat,
-  distance: Mat,
-  typicalRadius: number,
-): Mat {
-  return withMats((k) => {
-    const zero = k(new cv.Mat(regions.rows, regions.cols, cv.CV_32S, [0, 0, 0, 0]));
-    const orphan = k(new cv.Mat());
-    cv.compare(regions, zero, orphan, cv.CMP_EQ);
-    cv.bitwise_and(orphan, mask, orphan);
-    const d = k(new cv.Mat());
-    cv.distanceTransform(orphan, d, cv.DIST_L2, cv.DIST_MASK_5);
-    const seeds = scaledPeaks(cv, d);
-    const high = k(new cv.Mat());
-    cv.threshold(d, high, Math.max(1.5, ORPHAN_DISC * typicalRadius), 255, cv.THRESH_BINARY);
-    const high8 = k(new cv.Mat());
-    high.convertTo(high8, cv.CV_8U);
-    cv.bitwise_and(seeds, high8, seeds);
-    dropBesideBigger(seeds, d, regions, regionRadii(regions, n, distance));
-    return seeds;
-  });
-}
-const ORPHAN_DISC = 0.7;
-const NEIGHBOUR_SHARE = 0.6;
-
-/** Each region's largest foreground distance-map value: the radius of the disc it holds. */
-function regionRadii(regions: Mat, n: number, distance: Mat): Float32Array {
-  const radius = new Float32Array(n + 1);
-  const r = regions.data32S;
-  const d = distance.data32F;
-  for (let i = 0; i < r.length; i++) if (r[i]! > 0 && d[i]! > radius[r[i]!]!) radius[r[i]!] = d[i]!;
-  return radius;
-}
-
-/**
- * Clears the seeds (8-bit, few) whose own disc, of radius `own` at the seed, is under
- * NEIGHBOUR_SHARE of the radius of the biggest region within twice that radius.
- */
-function dropBesideBigger(seeds: Mat, own: Mat, regions: Mat, radius: Float32Array): void {
-  const s = seeds.data;
-  const od = own.data32F;
-  const r = regions.data32S;
-  const w = seeds.cols;
-  const h = seeds.rows;
-  for (let i = 0; i < s.length; i++) {
-    if (!s[i]) continue;
-    const reach = Math.ceil(2 * od[i]!) + 1;
-    const x0 = i % w;
-    const y0 = (i / w) | 0;
-    let biggest = 0;
-    for (let y = Math.max(0, y0 - reach); y <= Math.min(h - 1, y0 + reach); y++)
-      for (let x = Math.max(0, x0 - reach); x <= Math.min(w - 1, x0 + reach); x++) {
-        const id = r[y * w + x]!;
-        if (id > 0 && radius[id]! > biggest) biggest = radius[id]!;
-      }
-    if (od[i]! < NEIGHBOUR_SHARE * biggest) s[i] = 0;
-  }
+  const ridge = keep(ridgeOf(cv, distance));
+  return { regions, regionCount, components, componentCount, distance, ridge, typicalRadius };
 }
 
 /** Local maxima of the distance map (3×3), at least one pixel inside the foreground. */
