@@ -76,8 +76,8 @@ export function classify(samples: readonly ColourSample[], palette?: Palette): C
   const confidence: number[] = [];
   const outlier: boolean[] = [];
   for (const f of features) {
-    // Which pigment, by the density line (a colony of a colour may be weaker or stronger than
-    // the palette's); whether it is either marker at all, by the palette colours themselves.
+    // Which pigment, by the density line (a colony may be a weaker shade of the palette's colour);
+    // whether it is either marker at all, by the palette colours themselves.
     const d0 = fromDensityLine(f, centres[0]!) / spreads[0]!;
     const d1 = fromDensityLine(f, centres[1]!) / spreads[1]!;
     const k: ColonyClass = d0 <= d1 ? 0 : 1;
@@ -118,9 +118,9 @@ function twoColoursOf(features: readonly Point[]): TwoClusters | null {
 
 /**
  * The plate's own two colours are the palette's two: each is nearer to a different palette colour
- * and lies within OUTLIER_SPREADS of it or of a shade of it (fromDensityLine). A plate of one colour split by shade (a 194:6 plate whose
- * blue colonies vary) has both its clusters nearest the same palette colour, and is sorted by the
- * palette instead.
+ * and lies within OUTLIER_SPREADS of it or of a weaker or stronger shade of it (fromDensityLine).
+ * A plate of one colour split by shade (a 194:6 plate whose blue colonies vary) has both its
+ * clusters nearest the same palette colour, and is sorted by the palette instead.
  */
 function agrees(own: TwoClusters, palette: Palette): boolean {
   const scaled = (o: Point, k: number) => spreadsFromShade(o, palette.colours[k]!);
