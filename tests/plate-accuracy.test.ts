@@ -22,6 +22,16 @@ async function run(scene: PlateScene, palette?: Palette): Promise<Run> {
   return { scene, truth, analysis };
 }
 
+/** Each seed's varied plate with these options, analysed and scored against its truth. */
+async function scoredVariety(seeds: readonly number[], options: Omit<PlateScene, 'seed'>) {
+  const out = [];
+  for (const seed of seeds) {
+    const r = await run(varietyScene(seed, options));
+    out.push({ seed, run: r, score: scoreAnalysis(r.truth, r.analysis) });
+  }
+  return out;
+}
+
 const SWEEP_COUNTS = [25, 40, 60, 80, 100, 120, 150, 180, 210, 240, 270, 300];
 
 describe('a batch of varied plates with 25–300 colonies', () => {
@@ -85,11 +95,12 @@ describe('a batch of varied plates with 25–300 colonies', () => {
 
 describe('plates under lid glare', () => {
   it('flags the glare, counts nothing in it, and misses no more than the glare covers', async () => {
-    for (const seed of [41, 42, 43]) {
-      const r = await run(varietyScene(seed, { colonies: 150, glare: 2 }));
+    for (const { run: r, score: s } of await scoredVariety([41, 42, 43], {
+      colonies: 150,
+      glare: 2,
+    })) {
       const glare = r.analysis.flags.find((f) => f.kind === 'glare');
       expect(glare).toBeDefined();
-      const s = scoreAnalysis(r.truth, r.analysis);
       expect(s.precision).toBeGreaterThan(0.95);
       expect(-s.countError).toBeLessThan(0.03 + 2 * (glare as { fraction: number }).fraction);
     }
@@ -130,20 +141,25 @@ describe('media and writing the first rules got wrong', () => {
   // blue-grey colonies dropped as ink because ink was told by colour, and writing in a coloured
   // pen counted as colonies.
   it('finds deep red colonies on pink agar and does not take them for shading', async () => {
-    for (const seed of [201, 202]) {
-      const r = await run(varietyScene(seed, { colonies: 150, colours: 'deepred-pink', glare: 0 }));
-      const s = scoreAnalysis(r.truth, r.analysis);
+    const plates = await scoredVariety([201, 202], {
+      colonies: 150,
+      colours: 'deepred-pink',
+      glare: 0,
+    });
+    for (const { score: s } of plates) {
       expect(Math.abs(s.countError)).toBeLessThan(0.05);
       expect(s.recall).toBeGreaterThan(0.95);
     }
   }, 60_000);
 
   it('finds blue-grey colonies as dark and colourless as ink, and does not drop them as writing', async () => {
-    for (const seed of [201, 202]) {
-      const r = await run(
-        varietyScene(seed, { colonies: 150, colours: 'slate-yellow', glare: 0, penMarks: true }),
-      );
-      const s = scoreAnalysis(r.truth, r.analysis);
+    const plates = await scoredVariety([201, 202], {
+      colonies: 150,
+      colours: 'slate-yellow',
+      glare: 0,
+      penMarks: true,
+    });
+    for (const { score: s } of plates) {
       expect(Math.abs(s.countError)).toBeLessThan(0.05);
       expect(s.recall).toBeGreaterThan(0.95);
     }
@@ -152,17 +168,13 @@ describe('media and writing the first rules got wrong', () => {
   it('finds large pale colonies only about 4 ΔE lighter than the agar, and nothing on that agar bare', async () => {
     // Such colonies stay under the per-pixel threshold; the lower threshold for round patches of
     // colony size (cv/foreground.ts) finds them. Before it, recall was 0.59–0.70 on these seeds.
-    const recalls = [];
-    for (const seed of [211, 212, 213]) {
-      const scene = varietyScene(seed, {
-        colonies: 150,
-        colours: 'faint-peach',
-        fractionClass1: 0.7,
-        glare: 0,
-      });
-      const r = await run(scene);
-      recalls.push(scoreAnalysis(r.truth, r.analysis).recall);
-    }
+    const plates = await scoredVariety([211, 212, 213], {
+      colonies: 150,
+      colours: 'faint-peach',
+      fractionClass1: 0.7,
+      glare: 0,
+    });
+    const recalls = plates.map((p) => p.score.recall);
     expect(Math.min(...recalls)).toBeGreaterThan(0.65);
     expect(recalls.reduce((a, b) => a + b, 0) / recalls.length).toBeGreaterThan(0.72);
     const bare = await run(varietyScene(214, { colonies: 0, colours: 'faint-peach', glare: 0 }));
@@ -174,21 +186,17 @@ describe('media and writing the first rules got wrong', () => {
     // anywhere on the plate, but inside the writing's own blob the pieces of its ink that are
     // thinner than a colony are the line (cv/candidates.ts). Before that rule, precision on these
     // seeds was 0.76, 0.78 and 0.90 and the count 10–30 % high.
-    const errors = [];
-    for (const seed of [401, 402, 403]) {
-      const scene = varietyScene(seed, {
-        colonies: 80,
-        colours: 'blue-cream',
-        penInk: 'blue',
-        penMarks: true,
-        penAcrossWall: true,
-        glare: 0,
-      });
-      const r = await run(scene);
-      const s = scoreAnalysis(r.truth, r.analysis);
-      expect(s.precision, `seed ${seed}`).toBeGreaterThan(0.85);
-      errors.push(Math.abs(s.countError));
-    }
+    const plates = await scoredVariety([401, 402, 403], {
+      colonies: 80,
+      colours: 'blue-cream',
+      penInk: 'blue',
+      penMarks: true,
+      penAcrossWall: true,
+      glare: 0,
+    });
+    for (const { seed, score } of plates)
+      expect(score.precision, `seed ${seed}`).toBeGreaterThan(0.85);
+    const errors = plates.map((p) => Math.abs(p.score.countError));
     expect(errors.reduce((a, b) => a + b, 0) / errors.length).toBeLessThan(0.1);
   }, 90_000);
 
