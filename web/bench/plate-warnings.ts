@@ -6,9 +6,8 @@ import { plateFlagLabel } from '../words/flag-words.ts';
  * the agar, out of focus, one colour only). Remarks about single objects (unsure colours,
  * clumps, writing on the lid, a few blobs of neither colour left out) are for the person to look
  * at where they are; they do not ask for a second tap, or a guard that fires on nearly every
- * plate would be tapped through unread. (How many blobs were left out is only in the remark's
- * sentence for now; once flags carry their numbers, a plate with most of its objects left out
- * belongs with the whole-plate warnings.)
+ * plate would be tapped through unread. A plate with most of its objects set aside is a
+ * whole-plate remark of its own ('many-rejected'), and so is a photo too coarse for small colonies.
  */
 const LOCAL_REMARKS = new Set(['low-confidence', 'clumps-estimated', 'ink', 'colour-outliers']);
 
