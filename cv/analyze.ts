@@ -1,5 +1,6 @@
 import { type AgarModel, modelAgar, WALL_ZONE_MM } from './agar.ts';
 import { resizeRegion } from './banded-resize.ts';
+import { contrastBlobs } from './blob-seeds.ts';
 import { candidateFeatures } from './candidate-features.ts';
 import { selectCandidates } from './candidates.ts';
 import { classify } from './classify.ts';
@@ -106,7 +107,8 @@ function runPipeline(
     (options.model && decidesColonies(options.model) ? options.model.reach : 1);
   const fg = segmentForeground(cv, keep, agar, frame, reach);
   stage('foreground', 0.6);
-  const split = splitTouching(cv, keep, rgb, fg.mask, frame);
+  const blobs = contrastBlobs(cv, agar.deltaE, agar.countMask, fg.mask, frame.mmPerPx);
+  const split = splitTouching(cv, keep, rgb, fg.mask, frame, blobs);
   stage('split', 0.75);
   const slope = deltaESlope(cv, keep, agar.deltaE);
   const measured = measureSplit(split, agar, slope);

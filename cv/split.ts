@@ -1,8 +1,10 @@
+import type { Blob } from './blob-seeds.ts';
 import type { WorkingFrame } from './frame.ts';
 import { oddAtLeast } from './kernel-size.ts';
 import type { Keep } from './mat-scope.ts';
 import { withMats } from './mat-scope.ts';
 import type { Mat, OpenCv } from './opencv.ts';
+import { PointGrid } from './point-grid.ts';
 
 /**
  * Splits touching and slightly overlapping colonies: marker-controlled watershed (Beucher &
@@ -31,6 +33,7 @@ export function splitTouching(
   rgb: Mat,
   mask: Mat,
   frame: WorkingFrame,
+  blobs: readonly Blob[] = [],
 ): Split {
   const distance = keep(new cv.Mat());
   cv.distanceTransform(mask, distance, cv.DIST_L2, cv.DIST_MASK_5);
@@ -46,6 +49,7 @@ export function splitTouching(
     const floor8 = k(new cv.Mat());
     floor.convertTo(floor8, cv.CV_8U);
     cv.bitwise_and(peaks, floor8, peaks);
+    addBlobSeeds(cv, peaks, distance, blobs);
     const n = cv.connectedComponents(peaks, regions, 8, cv.CV_32S) - 1;
 
     // Watershed wants every pixel known to be background labelled too: outside a slightly grown mask.
@@ -72,6 +76,36 @@ export function splitTouching(
   });
   const ridge = keep(ridgeOf(cv, distance));
   return { regions, regionCount, components, componentCount, distance, ridge, typicalRadius };
+}
+
+/**
+ * A contrast blob (blob-seeds.ts) that no distance-map seed accounts for is a colony the outline
+ * did not separate, and gets a seed of its own: a disc of a third of its radius, where the blob
+ * lies mostly inside the foreground (its centre at least INSIDE radii from the edge). A seed
+ * accounts for a blob that lies within the seed's inscribed disc (the colony's rim, highlight or
+ * shaded side) or holds the seed in its own disc (the same colony seen smaller).
+ */
+const INSIDE = 0.7;
+function addBlobSeeds(cv: OpenCv, peaks: Mat, distance: Mat, blobs: readonly Blob[]): void {
+  const p = peaks.data;
+  const d = distance.data32F;
+  const w = peaks.cols;
+  const seeds = new PointGrid<{ x: number; y: number; r: number }>(8);
+  let widest = 0;
+  for (let i = 0; i < p.length; i++) {
+    if (!p[i]) continue;
+    seeds.add({ x: i % w, y: Math.floor(i / w), r: d[i]! });
+    widest = Math.max(widest, d[i]!);
+  }
+  for (const b of blobs) {
+    const x = Math.round(b.x);
+    const y = Math.round(b.y);
+    if (d[y * w + x]! < INSIDE * b.r) continue;
+    const reach = Math.max(b.r, widest);
+    if (seeds.some(b.x, b.y, reach, (s) => Math.hypot(s.x - b.x, s.y - b.y) < Math.max(s.r, b.r)))
+      continue;
+    cv.circle(peaks, new cv.Point(x, y), Math.floor(b.r / 3), [255, 0, 0, 0], -1);
+  }
 }
 
 /** Local maxima of the distance map (3×3), at least one pixel inside the foreground. */
