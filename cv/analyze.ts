@@ -108,7 +108,7 @@ function runPipeline(
   const fg = segmentForeground(cv, keep, agar, frame, reach);
   stage('foreground', 0.6);
   const blobs = contrastBlobs(cv, agar.deltaE, agar.countMask, fg.mask, frame.mmPerPx);
-  const split = splitTouching(cv, keep, rgb, fg.mask, frame, blobs);
+  const split = splitTouching(cv, keep, rgb, fg.mask, frame, { blobs, deltaE: agar.deltaE });
   stage('split', 0.75);
   const slope = deltaESlope(cv, keep, agar.deltaE);
   const measured = measureSplit(split, agar, slope);

@@ -1,9 +1,9 @@
 import { describe, expect, it } from 'vitest';
 import { type Blob, contrastBlobs } from './blob-seeds.ts';
 import { frameForDish } from './frame.ts';
-import { withMats } from './mat-scope.ts';
+import { type Keep, withMats } from './mat-scope.ts';
 import { loadOpenCv, type Mat, type OpenCv } from './opencv.ts';
-import { splitTouching } from './split.ts';
+import { type Split, splitTouching } from './split.ts';
 
 const SIZE = 200;
 const PX_PER_MM = 12;
@@ -79,28 +79,35 @@ describe('contrast blobs', () => {
 
   // The watershed is seeded at the distance map's peaks; the faint colony sits on the strong
   // one's flank with no neck between them, so it gets no peak of its own and, without the
-  // contrast blob's seed, the background floods it (its label is 0: checked by hand with an
-  // empty blob list).
+  // contrast blob's seed, the background floods it (its label is 0: checked by hand with no
+  // seeding).
   it('gives the faint colony its own region when its blob seeds the split', async () => {
     const { cv } = await loadOpenCv();
     withMats((keep) => {
       const dE = keep(deltaEPlane(cv, [STRONG, FAINT]));
-      const fg = keep(new cv.Mat());
-      cv.threshold(dE, fg, 4, 255, cv.THRESH_BINARY);
-      fg.convertTo(fg, cv.CV_8U);
-      // The photo the watershed floods: darker where ΔE is higher, grey.
-      const rgb = keep(new cv.Mat(SIZE, SIZE, cv.CV_8UC3, [0, 0, 0, 0]));
-      dE.data32F.forEach((e, i) => {
-        rgb.data.fill(Math.max(0, 220 - 4 * e), 3 * i, 3 * i + 3);
-      });
-      const agar = keep(new cv.Mat(SIZE, SIZE, cv.CV_8UC1, [255, 0, 0, 0]));
-      const frame = frameForDish({ cx: 100, cy: 100, rx: 95, ry: 95 }, SIZE, SIZE, 16);
-      const label = (s: ReturnType<typeof splitTouching>, p: { x: number; y: number }) =>
-        s.regions.data32S[p.y * SIZE + p.x]!;
-      const blobs = contrastBlobs(cv, dE, agar, fg, 1 / PX_PER_MM);
-      const seeded = splitTouching(cv, keep, rgb, fg, frame, blobs);
-      expect(label(seeded, FAINT)).not.toBe(0);
-      expect(label(seeded, FAINT)).not.toBe(label(seeded, STRONG));
+      const split = seededSplit(cv, keep, dE);
+      expect(label(split, FAINT)).not.toBe(0);
+      expect(label(split, FAINT)).not.toBe(label(split, STRONG));
     });
   });
 });
+
+function label(s: Split, p: { x: number; y: number }): number {
+  return s.regions.data32S[p.y * SIZE + p.x]!;
+}
+
+/** The foreground above ΔE 4, split with the contrast blobs as extra seeds. */
+function seededSplit(cv: OpenCv, keep: Keep, dE: Mat): Split {
+  const fg = keep(new cv.Mat());
+  cv.threshold(dE, fg, 4, 255, cv.THRESH_BINARY);
+  fg.convertTo(fg, cv.CV_8U);
+  // The photo the watershed floods: darker where ΔE is higher, grey.
+  const rgb = keep(new cv.Mat(SIZE, SIZE, cv.CV_8UC3, [0, 0, 0, 0]));
+  dE.data32F.forEach((e, i) => {
+    rgb.data.fill(Math.max(0, 220 - 4 * e), 3 * i, 3 * i + 3);
+  });
+  const agar = keep(new cv.Mat(SIZE, SIZE, cv.CV_8UC1, [255, 0, 0, 0]));
+  const frame = frameForDish({ cx: 100, cy: 100, rx: 95, ry: 95 }, SIZE, SIZE, 16);
+  const blobs = contrastBlobs(cv, dE, agar, fg, 1 / PX_PER_MM);
+  return splitTouching(cv, keep, rgb, fg, frame, { blobs, deltaE: dE });
+}

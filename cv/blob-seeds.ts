@@ -145,9 +145,9 @@ function localMaxima(response: Mat, fg: Mat, floor: number): number[] {
  * principal curvatures is below EDGE_RATIO, tested as Tr²/Det < (ρ+1)²/ρ (Lowe 2004, "Distinctive
  * image features from scale-invariant keypoints", §4.1, which uses ρ = 10 to drop edges). A
  * colony's bump is round; the shaded crescent beside a colony, the halo's ring and a stroke are
- * ridges. ρ = 3 still passes an ellipse of axes about 1.7:1 (curvatures scale as the axes²).
+ * ridges. ρ = 2 still passes an ellipse of axes about 1.4:1 (curvatures scale as the axes²).
  */
-const EDGE_RATIO = 3;
+const EDGE_RATIO = 2;
 function roundBump(smooth: Mat, i: number): boolean {
   const w = smooth.cols;
   const v = smooth.data32F;

@@ -42,7 +42,8 @@ import {
  *   agar), is as large as a colony and far darker than any shading, and is kept: size and
  *   contrast, not tint, tell it from a shade.
  * - Glare fringes: regions next to lid glare that are lighter than the agar but not tinted: the
- *   fainter edge of the glare, beyond the patch that glare.ts takes out.
+ *   fainter edge of the glare, beyond the patch that glare.ts takes out. The same light, untinted
+ *   look in a stroke's blob is a lamp's arc reflected by the lid, not a colony on a stroke.
  * - Wall glints: blobs on the rim of the counting area thinner than WALL_THINNESS typical colony
  *   radii, and regions within WALL_ZONE_MM of the wall smaller than a third of a typical colony
  *   and thinner than WALL_CRUMB_THICKNESS of its radius (a colony the wall half hides is small
@@ -163,6 +164,12 @@ export function selectCandidates(
       ((v === 'strokes' && isColonyOnStroke(r, strokeHalfWidth(comp), inkOf(r), darkInk)) ||
         (v === 'wall' && r.halfWidth >= STROKE_THINNESS * typicalRadius));
     if ((v !== 'keep' && !fatInThin) || r.area < minArea) return false;
+    // A light, untinted piece of a stroke's blob is the line itself where a lamp or ring light
+    // reflects off the lid (a bright arc), not a colony on it.
+    if (v === 'strokes' && isGlareFringe(r)) {
+      rejected.strokes++;
+      return false;
+    }
     // A region no different from the agar on average is agar enclosed by something else (the
     // inside of a pen letter, a filled ring) or a fringe of ringing round a dark colony, whose
     // pixels stray both ways: its mean colour must differ from the agar as much as its pixels do.

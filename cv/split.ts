@@ -27,13 +27,19 @@ export interface Split {
   typicalRadius: number;
 }
 
+/** Contrast blobs (blob-seeds.ts) and the ΔE they were found in, to seed what outlines miss. */
+export interface BlobSeeding {
+  blobs: readonly Blob[];
+  deltaE: Mat;
+}
+
 export function splitTouching(
   cv: OpenCv,
   keep: Keep,
   rgb: Mat,
   mask: Mat,
   frame: WorkingFrame,
-  blobs: readonly Blob[] = [],
+  seeding?: BlobSeeding,
 ): Split {
   const distance = keep(new cv.Mat());
   cv.distanceTransform(mask, distance, cv.DIST_L2, cv.DIST_MASK_5);
@@ -49,7 +55,7 @@ export function splitTouching(
     const floor8 = k(new cv.Mat());
     floor.convertTo(floor8, cv.CV_8U);
     cv.bitwise_and(peaks, floor8, peaks);
-    addBlobSeeds(cv, peaks, distance, blobs);
+    if (seeding) addBlobSeeds(cv, peaks, distance, seeding);
     const n = cv.connectedComponents(peaks, regions, 8, cv.CV_32S) - 1;
 
     // Watershed wants every pixel known to be background labelled too: outside a slightly grown mask.
@@ -82,11 +88,14 @@ export function splitTouching(
  * A contrast blob (blob-seeds.ts) that no distance-map seed accounts for is a colony the outline
  * did not separate, and gets a seed of its own: a disc of a third of its radius, where the blob
  * lies mostly inside the foreground (its centre at least INSIDE radii from the edge). A seed
- * accounts for a blob that lies within the seed's inscribed disc (the colony's rim, highlight or
- * shaded side) or holds the seed in its own disc (the same colony seen smaller).
+ * accounts for a blob whose own disc holds the seed (the same colony seen smaller), or that lies
+ * within the seed's inscribed disc with no dip in ΔE between them: there the blob is the colony's
+ * own rim, highlight, halo or shaded side. A separate colony, however close, is a second dome, and
+ * ΔE falls between the two: two domes have a saddle between them, one dome's flank does not.
  */
 const INSIDE = 0.7;
-function addBlobSeeds(cv: OpenCv, peaks: Mat, distance: Mat, blobs: readonly Blob[]): void {
+function addBlobSeeds(cv: OpenCv, peaks: Mat, distance: Mat, seeding: BlobSeeding): void {
+  const { blobs, deltaE } = seeding;
   const p = peaks.data;
   const d = distance.data32F;
   const w = peaks.cols;
@@ -102,10 +111,34 @@ function addBlobSeeds(cv: OpenCv, peaks: Mat, distance: Mat, blobs: readonly Blo
     const y = Math.round(b.y);
     if (d[y * w + x]! < INSIDE * b.r) continue;
     const reach = Math.max(b.r, widest);
-    if (seeds.some(b.x, b.y, reach, (s) => Math.hypot(s.x - b.x, s.y - b.y) < Math.max(s.r, b.r)))
-      continue;
+    const accounts = (s: { x: number; y: number; r: number }) => {
+      const dist = Math.hypot(s.x - b.x, s.y - b.y);
+      if (dist < b.r) return true;
+      return dist < s.r && !dipBetween(deltaE, b, s);
+    };
+    if (seeds.some(b.x, b.y, reach, accounts)) continue;
     cv.circle(peaks, new cv.Point(x, y), Math.floor(b.r / 3), [255, 0, 0, 0], -1);
   }
+}
+
+/** ΔE must fall this share below the blob's centre on the way to a seed to count as a dip. */
+const DIP = 0.2;
+/** Whether ΔE falls on the way from the blob's centre to p by more than DIP of its value there. */
+function dipBetween(
+  deltaE: Mat,
+  b: { x: number; y: number },
+  p: { x: number; y: number },
+): boolean {
+  const v = deltaE.data32F;
+  const w = deltaE.cols;
+  const at = (x: number, y: number) => v[Math.round(y) * w + Math.round(x)]!;
+  const start = at(b.x, b.y);
+  const steps = Math.ceil(Math.hypot(p.x - b.x, p.y - b.y));
+  for (let i = 1; i < steps; i++) {
+    const t = i / steps;
+    if (at(b.x + t * (p.x - b.x), b.y + t * (p.y - b.y)) < (1 - DIP) * start) return true;
+  }
+  return false;
 }
 
 /** Local maxima of the distance map (3×3), at least one pixel inside the foreground. */
