@@ -1,4 +1,5 @@
 import type { AgarModel } from './agar.ts';
+import { openWithDisc } from './disc-opening.ts';
 import type { WorkingFrame } from './frame.ts';
 import { oddAtLeast } from './kernel-size.ts';
 import type { Keep } from './mat-scope.ts';
@@ -125,10 +126,8 @@ function clearThinAlongWall(
   wallBand: Mat,
   frame: WorkingFrame,
 ): void {
-  const size = oddAtLeast(3, WALL_OPENING_MM / frame.mmPerPx);
-  const disc = k(cv.getStructuringElement(cv.MORPH_ELLIPSE, new cv.Size(size, size)));
   const opened = k(new cv.Mat());
-  cv.morphologyEx(mask, opened, cv.MORPH_OPEN, disc);
+  openWithDisc(cv, mask, opened, discRadius(WALL_OPENING_MM, frame));
   opened.copyTo(mask, wallBand);
 }
 
@@ -277,14 +276,8 @@ function cutFromWall(cv: OpenCv, k: Keep, mask: Mat, agar: AgarModel, frame: Wor
   }
   cv.bitwise_and(along, agar.wallBand, along);
   // What in that part holds a disc WALL_COLONY_MM across is a colony growing at the wall: kept.
-  const size = oddAtLeast(3, WALL_COLONY_MM / frame.mmPerPx);
   const thick = k(new cv.Mat());
-  cv.morphologyEx(
-    along,
-    thick,
-    cv.MORPH_OPEN,
-    k(cv.getStructuringElement(cv.MORPH_ELLIPSE, new cv.Size(size, size))),
-  );
+  openWithDisc(cv, along, thick, discRadius(WALL_COLONY_MM, frame));
   cv.subtract(along, thick, along);
   cv.subtract(mask, along, mask);
 }
@@ -323,6 +316,11 @@ function cutLightFromDark(cv: OpenCv, mask: Mat, agar: AgarModel): void {
     cv.bitwise_and(seam, light, seam);
     cv.subtract(mask, seam, mask);
   });
+}
+
+/** The radius in whole pixels of a disc `mm` across (an odd number of pixels, at least 3). */
+function discRadius(mm: number, frame: WorkingFrame): number {
+  return oddAtLeast(3, mm / frame.mmPerPx) / 2;
 }
 
 /**

@@ -198,6 +198,7 @@ export interface OpenCv {
   MORPH_CLOSE: number;
   DIST_L2: number;
   DIST_MASK_5: number;
+  DIST_MASK_PRECISE: number;
   CMP_EQ: number;
   CMP_GT: number;
   CMP_GE: number;
