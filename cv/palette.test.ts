@@ -103,6 +103,29 @@ describe('palettes', () => {
     expect(sorted.counts).toEqual({ ancestor: 30, evolved: 0 });
   });
 
+  it('one sharp plate does not teach a batch alone: plates doubted only for focus join it', () => {
+    // Two plates of the same two strains; the second was flagged out of focus, and its dark
+    // colonies are younger, 0.6 as far from the agar (a weaker shade, Beer–Lambert). With the
+    // sharp plate alone, the palette's dark colour is as narrow as that plate's colonies and the
+    // second plate's dark colonies are of neither colour.
+    const sharp = plateOf([
+      { delta: [-24, 20, -6], n: 30 },
+      { delta: [5, -2, -3], n: 30 },
+    ]);
+    const soft = {
+      ...plateOf([
+        { delta: [-14, 12, -4], n: 30 },
+        { delta: [5, -2, -3], n: 30 },
+      ]),
+      flags: [{ kind: 'out-of-focus' as const, edgeWidthMm: 0.6 }],
+    };
+    const alone = classifyWithPalette(soft, learnPalette([sharp])!);
+    expect(alone.neither!.length).toBeGreaterThan(20);
+    const batch = classifyWithPalette(soft, learnPalette([sharp, soft])!);
+    expect(batch.neither).toEqual([]);
+    expect(Object.values(batch.counts).sort()).toEqual([30, 30]);
+  });
+
   it('re-sorting keeps image flags and recounts the colony flags', async () => {
     const a = await analyzePlate(generatePlate({ seed: 66, colonies: [0, 90] }).image);
     expect(a.flags.map((f) => f.kind)).toContain('one-colour');

@@ -16,13 +16,23 @@ import type { Colony, Palette, PaletteColour, PlateAnalysis } from './types.ts';
  * plates), or taught by pointing at one colony of each colour.
  */
 export function learnPalette(analyses: readonly PlateAnalysis[]): Palette | null {
-  const trusted = analyses.filter(isTrustworthy);
+  let { trusted, twoColour } = teachers(analyses, DOUBTFUL);
+  if (twoColour.length < MIN_TEACHERS) {
+    const more = teachers(analyses, DOUBTFUL_BUT_FOCUS);
+    if (more.twoColour.length > twoColour.length) ({ trusted, twoColour } = more);
+  }
+  if (twoColour.length === 0) return paletteFrom(trusted.flatMap((a) => a.colonies));
+  return mergePalettes(twoColour);
+}
+
+/** The plates that may teach, and the two colours of each that shows two. */
+function teachers(analyses: readonly PlateAnalysis[], doubtful: ReadonlySet<string>) {
+  const trusted = analyses.filter((a) => isTrustworthy(a, doubtful));
   const twoColour = trusted.flatMap((a) => {
     const p = paletteFrom(a.colonies, MIN_TEACHING_SHARE);
     return p ? [{ palette: p, weight: a.colonies.length }] : [];
   });
-  if (twoColour.length === 0) return paletteFrom(trusted.flatMap((a) => a.colonies));
-  return mergePalettes(twoColour);
+  return { trusted, twoColour };
 }
 
 /** Plates that may teach colours: the dish was found and nothing whole-plate is in doubt. */
@@ -34,9 +44,17 @@ const DOUBTFUL = new Set<string>([
   'many-rejected',
   'unstable-count',
 ]);
-function isTrustworthy(a: PlateAnalysis): boolean {
-  return a.colonies.length >= MIN_TEACHING_COLONIES && !a.flags.some((f) => DOUBTFUL.has(f.kind));
+function isTrustworthy(a: PlateAnalysis, doubtful: ReadonlySet<string>): boolean {
+  return a.colonies.length >= MIN_TEACHING_COLONIES && !a.flags.some((f) => doubtful.has(f.kind));
 }
+/**
+ * One plate is not a batch: its colours leave out how colonies vary from plate to plate, and a
+ * palette that narrow sets aside the real colonies of the other plates as of neither colour.
+ * With fewer than MIN_TEACHERS plates able to teach, plates doubted only for their focus teach
+ * too: blur softens a colony's edge, not the colour of its middle.
+ */
+const MIN_TEACHERS = 2;
+const DOUBTFUL_BUT_FOCUS = new Set([...DOUBTFUL].filter((kind) => kind !== 'out-of-focus'));
 const MIN_TEACHING_COLONIES = 10;
 /**
  * A plate teaches colours only when each holds at least this share of its colonies: a lopsided
