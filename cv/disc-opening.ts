@@ -1,3 +1,4 @@
+import type { Keep } from './mat-scope.ts';
 import { withMats } from './mat-scope.ts';
 import type { Mat, OpenCv } from './opencv.ts';
 
@@ -13,18 +14,19 @@ import type { Mat, OpenCv } from './opencv.ts';
  */
 export function openWithDisc(cv: OpenCv, src: Mat, dst: Mat, radius: number): void {
   withMats((keep) => {
-    const inside = keep(new cv.Mat());
-    cv.distanceTransform(src, inside, cv.DIST_L2, cv.DIST_MASK_PRECISE);
-    const core = keep(new cv.Mat());
-    cv.threshold(inside, core, radius, 255, cv.THRESH_BINARY_INV);
-    const notCore = keep(new cv.Mat());
-    core.convertTo(notCore, cv.CV_8U);
-    const away = keep(new cv.Mat());
-    cv.distanceTransform(notCore, away, cv.DIST_L2, cv.DIST_MASK_PRECISE);
-    const opened = keep(new cv.Mat());
-    cv.threshold(away, opened, radius, 255, cv.THRESH_BINARY_INV);
-    const opened8 = keep(new cv.Mat());
-    opened.convertTo(opened8, cv.CV_8U);
-    cv.bitwise_and(opened8, src, dst);
+    // 255 off the eroded core, i.e. 0 exactly on the core: the next transform measures to it.
+    const offCore = withinReach(cv, keep, src, radius);
+    const opened = withinReach(cv, keep, offCore, radius);
+    cv.bitwise_and(opened, src, dst);
   });
+}
+
+/** 0/255: the pixels within `radius` of a zero pixel of `mask` (exact Euclidean distance). */
+function withinReach(cv: OpenCv, keep: Keep, mask: Mat, radius: number): Mat {
+  const distance = keep(new cv.Mat());
+  cv.distanceTransform(mask, distance, cv.DIST_L2, cv.DIST_MASK_PRECISE);
+  cv.threshold(distance, distance, radius, 255, cv.THRESH_BINARY_INV);
+  const near = keep(new cv.Mat());
+  distance.convertTo(near, cv.CV_8U);
+  return near;
 }

@@ -318,7 +318,7 @@ function cutLightFromDark(cv: OpenCv, mask: Mat, agar: AgarModel): void {
   });
 }
 
-/** The radius in whole pixels of a disc `mm` across (an odd number of pixels, at least 3). */
+/** Half the width of the odd-sized kernel (at least 3 pixels) a disc `mm` across would take. */
 function discRadius(mm: number, frame: WorkingFrame): number {
   return oddAtLeast(3, mm / frame.mmPerPx) / 2;
 }
