@@ -1,6 +1,6 @@
 import { type AgarModel, modelAgar, WALL_ZONE_MM } from './agar.ts';
 import { resizeRegion } from './banded-resize.ts';
-import { contrastBlobs } from './blob-seeds.ts';
+import { type Blob, contrastBlobs } from './blob-seeds.ts';
 import { candidateFeatures } from './candidate-features.ts';
 import { selectCandidates } from './candidates.ts';
 import { classify } from './classify.ts';
@@ -111,7 +111,7 @@ function runPipeline(
   const split = splitTouching(cv, keep, rgb, fg.mask, frame, { blobs, deltaE: agar.deltaE });
   stage('split', 0.75);
   const slope = deltaESlope(cv, keep, agar.deltaE);
-  const measured = measureSplit(split, agar, slope);
+  const measured = measureSplit(split, agar, slope, blobs);
   const { candidates: byDefault, rejected } = selectCandidates(
     measured.regions,
     measured.components,
@@ -241,7 +241,12 @@ function workingImage(cv: OpenCv, image: RgbaImage, frame: WorkingFrame): Mat {
 
 type MeasuredRegions = ReturnType<typeof measureRegions>;
 
-function measureSplit(split: Split, agar: AgarModel, slope: Mat): MeasuredRegions {
+function measureSplit(
+  split: Split,
+  agar: AgarModel,
+  slope: Mat,
+  bumps: readonly Blob[] = [],
+): MeasuredRegions {
   return measureRegions(
     split.regions,
     split.regionCount,
@@ -254,6 +259,7 @@ function measureSplit(split: Split, agar: AgarModel, slope: Mat): MeasuredRegion
     slope,
     agar.rim,
     split.ridge,
+    bumps,
   );
 }
 

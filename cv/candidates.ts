@@ -268,11 +268,23 @@ function componentVerdict(
   if (c.area < minArea) return 'specks';
   const elongation = elongationOf(c);
   const variation = elongation > LONG_BLOB ? LONG_STROKE_RIDGE_VARIATION : STROKE_RIDGE_VARIATION;
-  if (elongation > STROKE_ELONGATION && c.ridgeVariation < variation) {
+  if (elongation > STROKE_ELONGATION && c.ridgeVariation < variation && !isChainOfDomes(c)) {
     return 'strokes';
   }
   if (c.rimPixels > 0 && c.halfWidth < WALL_THINNESS * typicalRadius) return 'wall';
   return 'keep';
+}
+
+/**
+ * A stroke-shaped blob that is a row or clump of colonies: it holds a round contrast bump
+ * (blob-seeds.ts) for at least DOMES_PER_REGION of its regions, and at least MIN_DOMES. Each
+ * colony is a dome in ΔE; a pen line is a ridge along its length, which the bumps' curvature test
+ * (Lowe 2004) turns away, so writing shows bumps only at a few ends, corners and blots.
+ */
+const DOMES_PER_REGION = 0.5;
+const MIN_DOMES = 3;
+function isChainOfDomes(c: ComponentStats): boolean {
+  return c.bumps >= Math.max(MIN_DOMES, DOMES_PER_REGION * c.regions);
 }
 
 /**

@@ -38,6 +38,8 @@ export interface ComponentStats {
   meanDistance: number;
   /** Coefficient of variation of the distance map along the blob's ridge (see candidates.ts). */
   ridgeVariation: number;
+  /** Round contrast bumps (blob-seeds.ts) centred on the blob: one per colony dome in it. */
+  bumps: number;
 }
 
 /**
@@ -60,6 +62,7 @@ export function measureRegions(
   slope: Mat,
   rim: Mat,
   ridge: Mat,
+  bumps: readonly { x: number; y: number }[] = [],
 ): { regions: RegionStats[]; components: ComponentStats[] } {
   const n = regionCount + 1;
   const area = new Float64Array(n);
@@ -134,6 +137,7 @@ export function measureRegions(
       component: comp[id]!,
     });
   }
+  const cBumps = bumpsPerComponent(components, componentCount, bumps);
   const comps: ComponentStats[] = [];
   for (let id = 1; id <= componentCount; id++) {
     comps.push({
@@ -144,9 +148,24 @@ export function measureRegions(
       rimPixels: cRim[id]!,
       meanDistance: cArea[id]! > 0 ? cDist[id]! / cArea[id]! : 0,
       ridgeVariation: trimmedVariation(cRidge[id]!),
+      bumps: cBumps[id]!,
     });
   }
   return { regions: out, components: comps };
+}
+
+function bumpsPerComponent(
+  components: Mat,
+  componentCount: number,
+  bumps: readonly { x: number; y: number }[],
+): Int32Array {
+  const count = new Int32Array(componentCount + 1);
+  const labels = components.data32S;
+  for (const b of bumps) {
+    const id = labels[Math.round(b.y) * components.cols + Math.round(b.x)] ?? 0;
+    if (id > 0 && id <= componentCount) count[id]!++;
+  }
+  return count;
 }
 
 /**
