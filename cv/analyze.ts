@@ -115,12 +115,16 @@ function runPipeline(
   const { candidates: byDefault, rejected } = selectCandidates(
     measured.regions,
     measured.components,
-    split.typicalRadius,
-    frame.mmPerPx,
-    fg.threshold,
-    fg.faintThreshold,
-    (r) => (1 - ellipseRadius(dishW, r.x, r.y)) * dishW.r * frame.mmPerPx < WALL_ZONE_MM,
-    (r) => onMask(agar.glareZone, r.x, r.y),
+    {
+      typicalRadius: split.typicalRadius,
+      mmPerPx: frame.mmPerPx,
+      scale: frame.scale,
+      threshold: fg.threshold,
+      faintThreshold: fg.faintThreshold,
+      nearWall: (r) =>
+        (1 - ellipseRadius(dishW, r.x, r.y)) * dishW.r * frame.mmPerPx < WALL_ZONE_MM,
+      nearGlare: (r) => onMask(agar.glareZone, r.x, r.y),
+    },
   );
   // What only a learned model's wider search found is split and measured on its own, after the
   // default reading, which it cannot change: the model judges it, the default rules never see it.

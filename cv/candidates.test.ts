@@ -44,16 +44,15 @@ function row(bumps: number): { regions: RegionStats[]; components: ComponentStat
 
 function kept(bumps: number): number {
   const { regions, components } = row(bumps);
-  return selectCandidates(
-    regions,
-    components,
-    RADIUS,
-    MM_PER_PX,
-    THRESHOLD,
-    THRESHOLD,
-    () => false,
-    () => false,
-  ).candidates.length;
+  return selectCandidates(regions, components, {
+    typicalRadius: RADIUS,
+    mmPerPx: MM_PER_PX,
+    scale: 1,
+    threshold: THRESHOLD,
+    faintThreshold: THRESHOLD,
+    nearWall: () => false,
+    nearGlare: () => false,
+  }).candidates.length;
 }
 
 describe('selectCandidates: stroke-shaped blobs', () => {
@@ -65,5 +64,74 @@ describe('selectCandidates: stroke-shaped blobs', () => {
   it('takes the same shape with bumps only at its ends for a pen line', () => {
     expect(kept(2)).toBe(0);
     expect(kept(0)).toBe(0);
+  });
+});
+
+/**
+ * A small spot of the agar's own lightness but tinted (Δb* −12): a blue-grey colony on yellow agar
+ * can match the agar's L*, and JPEG's half-resolution chroma leaves such a tint beside a
+ * saturated colony too. Alone or beside one of the same tint it is a colony; beside one at least
+ * twice as tinted it is that colony's chroma ghost.
+ */
+function tintedSpot(neighbourTint: number | null): number {
+  const spot = {
+    id: 1,
+    area: 40,
+    x: 50,
+    y: 50,
+    lab: [70, 0, 8] as const,
+    backgroundLab: [70, 0, 20] as const,
+    contrast: 12,
+    halfWidth: 3.5,
+    peak: 14,
+    steepest: 3,
+    component: 1,
+  };
+  const regions: RegionStats[] = [spot];
+  const components: ComponentStats[] = [
+    {
+      id: 1,
+      area: 40,
+      halfWidth: 3.5,
+      regions: 1,
+      rimPixels: 0,
+      meanDistance: 1.5,
+      ridgeVariation: 0,
+      bumps: 1,
+    },
+  ];
+  if (neighbourTint !== null) {
+    regions.push({
+      ...spot,
+      id: 2,
+      area: 200,
+      x: 62,
+      lab: [50, 0, 20 - neighbourTint],
+      contrast: 30,
+      halfWidth: 8,
+      component: 2,
+    });
+    components.push({ ...components[0]!, id: 2, area: 200, halfWidth: 8 });
+  }
+  const { candidates } = selectCandidates(regions, components, {
+    typicalRadius: RADIUS,
+    mmPerPx: MM_PER_PX,
+    scale: 0.5,
+    threshold: THRESHOLD,
+    faintThreshold: THRESHOLD,
+    nearWall: () => false,
+    nearGlare: () => false,
+  });
+  return candidates.filter((c) => c.region.id === 1).length;
+}
+
+describe('selectCandidates: tint without lightness', () => {
+  it('keeps a tinted spot of the agar own lightness when no stronger tint is beside it', () => {
+    expect(tintedSpot(null)).toBe(1);
+    expect(tintedSpot(15)).toBe(1);
+  });
+
+  it('drops it as a chroma ghost beside a colony at least twice as tinted', () => {
+    expect(tintedSpot(30)).toBe(0);
   });
 });

@@ -1,5 +1,6 @@
 import { deltaE76 } from './colour.ts';
 import { type ComponentStats, elongationOf, type RegionStats } from './measure.ts';
+import { PointGrid } from './point-grid.ts';
 import {
   darkInkUsable,
   hasPenColour,
@@ -16,9 +17,13 @@ import {
  * - Specks (dust, agar flaws, noise): blobs smaller than a disc of MIN_COLONY_RADIUS_MM (a
  *   colony 0.45 mm across is still kept), and small blobs whose contrast barely clears the
  *   detection threshold: a real colony that small is a crisp dome, noise is not.
- * - Chroma ghosts: JPEG keeps colour at half resolution, so a saturated colony bleeds a faint tint
- *   into the agar beside it. A small blob that differs from the agar in tint but not in lightness
- *   is such a ghost; every real colony here is lighter or darker than its agar.
+ * - Chroma ghosts: JPEG keeps colour at half resolution (4:2:0) and codes it in 8×8 blocks of
+ *   that plane, so a saturated colony bleeds a faint tint, or rings with the opposite one, into
+ *   the agar up to a block (16 photo pixels) beside it. A small blob that differs from the agar in
+ *   tint but not in lightness, next to a region at least 1/GHOST_SHARE times as tinted, is such a
+ *   ghost (averaging over 2×2 pixels leaves at most half of a neighbour's tint). A tinted spot of
+ *   the agar's own lightness with no stronger tint beside it is a colony (blue-grey colonies on
+ *   yellow agar can match its lightness).
  * - Slivers and satellites: thin pieces the watershed cuts off the edge of a colony in a touching
  *   group, and small blobs hugging a bigger colony (its blurred rim, cut loose by thresholding).
  * - Strokes (marker-pen writing on the lid or the base, scratches, a lamp's line reflection):
@@ -64,6 +69,9 @@ const MEAN_DIFFERENCE = 0.8;
 /** Chroma ghosts: smaller than GHOST_AREA minimum colonies and within GHOST_L of the agar's L*. */
 const GHOST_AREA = 3;
 const GHOST_L = 1.5;
+/** ... at most GHOST_SHARE of the tint of a region within CHROMA_BLOCK_PX photo pixels. */
+const GHOST_SHARE = 0.5;
+const CHROMA_BLOCK_PX = 16;
 /** Slivers: split-off pieces smaller than this share of a typical colony's disc. */
 const SLIVER = 0.15;
 /** Satellites: smaller than SATELLITE_AREA minimum colonies, within SATELLITE_GAP_MM of a bigger one. */
@@ -118,16 +126,24 @@ export interface CandidateResult {
   typicalArea: number;
 }
 
+/** What the rules need to know of the plate besides its regions. */
+export interface PlateContext {
+  typicalRadius: number;
+  mmPerPx: number;
+  /** Working pixels per pixel of the photo as decoded (frame.ts): JPEG's blocks are in the latter. */
+  scale: number;
+  threshold: number;
+  faintThreshold: number;
+  nearWall: (r: RegionStats) => boolean;
+  nearGlare: (r: RegionStats) => boolean;
+}
+
 export function selectCandidates(
   regions: RegionStats[],
   components: ComponentStats[],
-  typicalRadius: number,
-  mmPerPx: number,
-  threshold: number,
-  faintThreshold: number,
-  nearWall: (r: RegionStats) => boolean,
-  nearGlare: (r: RegionStats) => boolean,
+  plate: PlateContext,
 ): CandidateResult {
+  const { typicalRadius, mmPerPx, threshold, faintThreshold, nearWall, nearGlare } = plate;
   const minArea = Math.PI * (MIN_COLONY_RADIUS_MM / mmPerPx) ** 2;
   const byId = new Map(components.map((c) => [c.id, c]));
   const rejected = { specks: 0, strokes: 0, wall: 0, shades: 0 };
@@ -154,6 +170,7 @@ export function selectCandidates(
     const own = byStroke.get(r.component);
     return own && r.halfWidth < STROKE_THINNESS * typicalRadius ? [...pens, own] : pens;
   };
+  const isChromaGhost = chromaGhostTest(regions, CHROMA_BLOCK_PX * plate.scale);
   const kept = regions.filter((r) => {
     const v = verdict.get(r.component);
     // A colony touching a pen stroke or a glint on the wall shares its blob; it is as thick as a
@@ -182,8 +199,8 @@ export function selectCandidates(
       rejected.specks++;
       return false;
     }
-    if (r.area < GHOST_AREA * minArea && Math.abs(r.lab[0] - r.backgroundLab[0]) < GHOST_L) {
-      rejected.specks++; // a chroma ghost, see above
+    if (r.area < GHOST_AREA * minArea && isChromaGhost(r)) {
+      rejected.specks++;
       return false;
     }
     if (comp && comp.regions > 1 && r.area < SLIVER * Math.PI * typicalRadius ** 2) {
@@ -222,6 +239,36 @@ export function selectCandidates(
     count: clumpCount(region, typicalArea),
   }));
   return { candidates, rejected, typicalArea };
+}
+
+/** A tester for chroma ghosts (see above) among `regions`, reaching `reachPx` working pixels. */
+function chromaGhostTest(
+  regions: readonly RegionStats[],
+  reachPx: number,
+): (r: RegionStats) => boolean {
+  const tint = (r: RegionStats) =>
+    Math.hypot(r.lab[1] - r.backgroundLab[1], r.lab[2] - r.backgroundLab[2]);
+  const radius = (r: RegionStats) => Math.sqrt(r.area / Math.PI);
+  const grid = new PointGrid<RegionStats>(Math.max(8, reachPx));
+  let widest = 0;
+  for (const r of regions) {
+    grid.add(r);
+    widest = Math.max(widest, radius(r));
+  }
+  return (r) => {
+    if (Math.abs(r.lab[0] - r.backgroundLab[0]) >= GHOST_L) return false;
+    const own = tint(r);
+    const rs = radius(r);
+    return grid.some(
+      r.x,
+      r.y,
+      reachPx + rs + widest,
+      (q) =>
+        q !== r &&
+        Math.hypot(q.x - r.x, q.y - r.y) - radius(q) - rs <= reachPx &&
+        own <= GHOST_SHARE * tint(q),
+    );
+  };
 }
 
 /**
