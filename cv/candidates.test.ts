@@ -26,6 +26,7 @@ function row(bumps: number): { regions: RegionStats[]; components: ComponentStat
     peak: 25,
     steepest: 4,
     component: 1,
+    bumps: 1,
   }));
   const components = [
     {
@@ -86,6 +87,7 @@ function tintedSpot(neighbourTint: number | null): number {
     peak: 14,
     steepest: 3,
     component: 1,
+    bumps: 1,
   };
   const regions: RegionStats[] = [spot];
   const components: ComponentStats[] = [
@@ -133,5 +135,44 @@ describe('selectCandidates: tint without lightness', () => {
 
   it('drops it as a chroma ghost beside a colony at least twice as tinted', () => {
     expect(tintedSpot(30)).toBe(0);
+  });
+});
+
+/**
+ * A lamp's arc as thick as a colony, of a colour three round colonies elsewhere share (so no pen
+ * can be learned from it for the whole plate), with one colony of that colour sitting on it.
+ */
+function arcWithColony(): number[] {
+  const line = row(0);
+  const components = line.components;
+  const regions = line.regions.map((r) => ({ ...r, bumps: r.id === 3 ? 1 : 0 }));
+  for (let i = 0; i < 3; i++) {
+    const id = COLONIES + 1 + i;
+    regions.push({ ...regions[0]!, id, x: 20 + 15 * i, y: 90, component: id, bumps: 1 });
+    components.push({
+      ...components[0]!,
+      id,
+      area: regions[0]!.area,
+      regions: 1,
+      ridgeVariation: 0,
+      bumps: 1,
+    });
+  }
+  return selectCandidates(regions, components, {
+    typicalRadius: RADIUS,
+    mmPerPx: MM_PER_PX,
+    scale: 1,
+    threshold: THRESHOLD,
+    faintThreshold: THRESHOLD,
+    nearWall: () => false,
+    nearGlare: () => false,
+  })
+    .candidates.map((c) => c.region.id)
+    .sort((a, b) => a - b);
+}
+
+describe('selectCandidates: pieces of a line as thick as a colony', () => {
+  it('keeps the piece holding a round bump and drops the rest of the line', () => {
+    expect(arcWithColony()).toEqual([3, 7, 8, 9]);
   });
 });

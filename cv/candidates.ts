@@ -165,10 +165,13 @@ export function selectCandidates(
   );
   const darkInk = darkInkUsable(roundBlobs);
   // A blob's own pen, even one the round blobs share, tells its pieces thinner than a colony
-  // (the line) from the colony-thick ones (colonies the line touches, or a chain of colonies).
+  // (the line) from the colony-thick ones (colonies the line touches, or a chain of colonies), and
+  // its colony-thick pieces with no round contrast bump (a thick line, a lamp's arc) from those
+  // with one (a colony's dome).
   const inkOf = (r: RegionStats) => {
     const own = byStroke.get(r.component);
-    return own && r.halfWidth < STROKE_THINNESS * typicalRadius ? [...pens, own] : pens;
+    const line = r.halfWidth < STROKE_THINNESS * typicalRadius || r.bumps === 0;
+    return own && line ? [...pens, own] : pens;
   };
   const isChromaGhost = chromaGhostTest(regions, CHROMA_BLOCK_PX * plate.scale);
   const kept = regions.filter((r) => {

@@ -24,6 +24,8 @@ export interface RegionStats {
   peak: number;
   steepest: number;
   component: number;
+  /** Round contrast bumps (blob-seeds.ts) centred in the region: a colony's dome, not a line. */
+  bumps: number;
 }
 
 export interface ComponentStats {
@@ -117,6 +119,7 @@ export function measureRegions(
   }
 
   const compRegions = new Int32Array(componentCount + 1);
+  const rBumps = bumpsPer(regions, regionCount, bumps);
   const out: RegionStats[] = [];
   for (let id = 1; id < n; id++) {
     const a = area[id]!;
@@ -135,9 +138,10 @@ export function measureRegions(
       peak: rPeak[id]!,
       steepest: rSteep[id]!,
       component: comp[id]!,
+      bumps: rBumps[id]!,
     });
   }
-  const cBumps = bumpsPerComponent(components, componentCount, bumps);
+  const cBumps = bumpsPer(components, componentCount, bumps);
   const comps: ComponentStats[] = [];
   for (let id = 1; id <= componentCount; id++) {
     comps.push({
@@ -154,16 +158,13 @@ export function measureRegions(
   return { regions: out, components: comps };
 }
 
-function bumpsPerComponent(
-  components: Mat,
-  componentCount: number,
-  bumps: readonly { x: number; y: number }[],
-): Int32Array {
-  const count = new Int32Array(componentCount + 1);
-  const labels = components.data32S;
+/** How many of `bumps` are centred on each label 1..n of a label image. */
+function bumpsPer(labels: Mat, n: number, bumps: readonly { x: number; y: number }[]): Int32Array {
+  const count = new Int32Array(n + 1);
+  const l = labels.data32S;
   for (const b of bumps) {
-    const id = labels[Math.round(b.y) * components.cols + Math.round(b.x)] ?? 0;
-    if (id > 0 && id <= componentCount) count[id]!++;
+    const id = l[Math.round(b.y) * labels.cols + Math.round(b.x)] ?? 0;
+    if (id > 0 && id <= n) count[id]!++;
   }
   return count;
 }
