@@ -176,3 +176,55 @@ describe('selectCandidates: pieces of a line as thick as a colony', () => {
     expect(arcWithColony()).toEqual([3, 7, 8, 9]);
   });
 });
+
+/**
+ * A small deep-red colony on pink agar whose tint the blur has washed out: darker than the agar,
+ * within a few units of it in a* and b*, too small and faint for the size-and-contrast exemption.
+ * Shading looks the same in colour; a colony is a dome.
+ */
+function greyDisc(bumps: number): number {
+  const area = 2 * Math.PI * (0.22 / MM_PER_PX) ** 2;
+  const region = {
+    id: 1,
+    area,
+    x: 50,
+    y: 50,
+    lab: [52, 33, 10] as const,
+    backgroundLab: [60, 35, 10] as const,
+    contrast: 8,
+    halfWidth: 3,
+    peak: 10,
+    steepest: 2,
+    component: 1,
+    bumps,
+  };
+  const component = {
+    id: 1,
+    area,
+    halfWidth: 3,
+    regions: 1,
+    rimPixels: 0,
+    meanDistance: 1.3,
+    ridgeVariation: 0,
+    bumps,
+  };
+  return selectCandidates([region], [component], {
+    typicalRadius: RADIUS,
+    mmPerPx: MM_PER_PX,
+    scale: 1,
+    threshold: THRESHOLD,
+    faintThreshold: THRESHOLD,
+    nearWall: () => false,
+    nearGlare: () => false,
+  }).candidates.length;
+}
+
+describe('selectCandidates: grey shades', () => {
+  it('drops a small grey shade that is no dome', () => {
+    expect(greyDisc(0)).toBe(0);
+  });
+
+  it('keeps it when it holds a round contrast bump', () => {
+    expect(greyDisc(1)).toBe(1);
+  });
+});

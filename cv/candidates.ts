@@ -39,13 +39,17 @@ import {
  *   thickness, learned from those bands, or as dark, colourless ink where the plate's own round
  *   colonies are not of that colour (writing.ts). Inside a stroke's own blob, a piece of the
  *   blob's ink thinner than a colony is the line even when the plate's colonies share the ink's
- *   colour (blue writing on a plate of blue colonies). A round blob that touches nothing is
- *   never taken for writing.
+ *   colour (blue writing on a plate of blue colonies), and so is a piece as thick as the line
+ *   that is no dome (isColonyOnStroke). A stroke-shaped blob with a dome for every other region
+ *   is a row of colonies (isChainOfDomes). A round blob that touches nothing is never taken for
+ *   writing.
  * - Grey shades: regions darker than the agar with hardly any tint of their own against it (the
  *   soft edge of an ink stroke, the shadowed side of a droplet, shading under condensation, the
  *   dim rim round lid glare). A colony of the agar's own hue, only darker (deep red on pink
  *   agar), is as large as a colony and far darker than any shading, and is kept: size and
- *   contrast, not tint, tell it from a shade.
+ *   contrast, not tint, tell it from a shade. So is a smaller one that is a dome, a round bump
+ *   in ΔE (blob-seeds.ts): shading, a droplet's dark side and an ink edge are crescents, bands
+ *   and smears, which the bumps' curvature test turns away.
  * - Glare fringes: regions next to lid glare that are lighter than the agar but not tinted: the
  *   fainter edge of the glare, beyond the patch that glare.ts takes out. The same light, untinted
  *   look in a stroke's blob is a lamp's arc reflected by the lid, not a colony on a stroke.
@@ -165,13 +169,10 @@ export function selectCandidates(
   );
   const darkInk = darkInkUsable(roundBlobs);
   // A blob's own pen, even one the round blobs share, tells its pieces thinner than a colony
-  // (the line) from the colony-thick ones (colonies the line touches, or a chain of colonies), and
-  // its colony-thick pieces with no round contrast bump (a thick line, a lamp's arc) from those
-  // with one (a colony's dome).
+  // (the line) from the colony-thick ones (colonies the line touches, or a chain of colonies).
   const inkOf = (r: RegionStats) => {
     const own = byStroke.get(r.component);
-    const line = r.halfWidth < STROKE_THINNESS * typicalRadius || r.bumps === 0;
-    return own && line ? [...pens, own] : pens;
+    return own && r.halfWidth < STROKE_THINNESS * typicalRadius ? [...pens, own] : pens;
   };
   const isChromaGhost = chromaGhostTest(regions, CHROMA_BLOCK_PX * plate.scale);
   const kept = regions.filter((r) => {
@@ -218,11 +219,13 @@ export function selectCandidates(
       rejected.shades++;
       return false;
     }
-    // ... or as large and round, alone in its blob: a colony darker than its agar in soft focus.
+    // ... or as large and round, alone in its blob: a colony darker than its agar in soft focus;
+    // or a dome whatever its size (it holds a round contrast bump): a small colony of the agar's
+    // hue, only darker, whose tint the blur has washed out.
     const colonySized =
       r.area >= SHADE_AREA * minArea &&
       (r.contrast >= SHADE_CONTRAST * threshold || (comp !== undefined && isRoundAlone(r, comp)));
-    if (!isGreyShade(r) || (colonySized && !nearGlare(r))) return true;
+    if (!isGreyShade(r) || (colonySized && !nearGlare(r)) || r.bumps > 0) return true;
     rejected.shades++;
     return false;
   });
@@ -352,8 +355,10 @@ function isRoundAlone(r: RegionStats, c: ComponentStats): boolean {
 
 /**
  * A region in a stroke's blob is a colony the writing touches when it is clearly thicker than
- * the line, or nearly as thick and of neither a pen's colour nor dark ink (a pale colony against
- * dark writing, whose blob it shares).
+ * the line, or nearly as thick, a dome (it holds a round contrast bump, blob-seeds.ts) and of
+ * neither a pen's colour nor dark ink (a pale colony against dark writing, whose blob it shares).
+ * A piece as thick as the line with no bump is the line: a thick marker stroke, or a lamp's arc
+ * reflected by the lid, whose colour along it fades too much for one pen colour to hold it.
  */
 function isColonyOnStroke(
   r: RegionStats,
@@ -362,6 +367,7 @@ function isColonyOnStroke(
   darkInk: boolean,
 ): boolean {
   if (r.halfWidth >= COLONY_ON_STROKE * lineHalfWidth) return true;
+  if (r.bumps === 0) return false;
   const inky = pens.some((p) => hasPenColour(r, p)) || (darkInk && isDarkInk(r));
   return !inky && r.halfWidth >= OTHER_COLOUR_ON_STROKE * lineHalfWidth;
 }
