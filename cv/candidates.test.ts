@@ -1,62 +1,91 @@
 import { describe, expect, it } from 'vitest';
-import { selectCandidates } from './candidates.ts';
+import { type PlateContext, selectCandidates } from './candidates.ts';
 import type { ComponentStats, RegionStats } from './measure.ts';
 
 const MM_PER_PX = 0.1;
 const RADIUS = 5;
 const THRESHOLD = 5;
 const COLONIES = 6;
+/** The smallest colony's disc at this scale (candidates.ts, MIN_COLONY_RADIUS_MM = 0.22 mm). */
+const MIN_AREA = Math.PI * (0.22 / MM_PER_PX) ** 2;
+const PLATE: PlateContext = {
+  typicalRadius: RADIUS,
+  mmPerPx: MM_PER_PX,
+  scale: 1,
+  threshold: THRESHOLD,
+  faintThreshold: THRESHOLD,
+  nearWall: () => false,
+  nearGlare: () => false,
+};
 
-/**
- * A row of six touching colonies of radius 5 px, one watershed region each: as a blob it is six
- * times longer than its widest disc and its ridge hardly varies (the colonies overlap), which is
- * the shape of a pen line. Deep red on pink agar (ΔE ≈ 22), far above the threshold.
- */
-function row(bumps: number): { regions: RegionStats[]; components: ComponentStats[] } {
-  const area = Math.PI * RADIUS ** 2;
-  const regions = Array.from({ length: COLONIES }, (_, i) => ({
-    id: i + 1,
-    area,
-    x: 20 + 2 * RADIUS * i,
-    y: 40,
-    lab: [40, 30, 10] as const,
-    backgroundLab: [60, 20, 10] as const,
+/** Deep red on pink agar (ΔE ≈ 22), far above the threshold: a colony of radius 5 px. */
+function colony(id: number, x: number, y: number, over: Partial<RegionStats> = {}): RegionStats {
+  return {
+    id,
+    area: Math.PI * RADIUS ** 2,
+    x,
+    y,
+    lab: [40, 30, 10],
+    backgroundLab: [60, 20, 10],
     contrast: 20,
     halfWidth: RADIUS,
     peak: 25,
     steepest: 4,
-    component: 1,
+    component: id,
     bumps: 1,
-  }));
+    ...over,
+  };
+}
+
+/** A blob of round shape holding `regions`. */
+function blob(id: number, area: number, over: Partial<ComponentStats> = {}): ComponentStats {
+  return {
+    id,
+    area,
+    halfWidth: Math.sqrt(area / Math.PI),
+    regions: 1,
+    rimPixels: 0,
+    meanDistance: Math.sqrt(area / Math.PI) / 3,
+    ridgeVariation: 0,
+    bumps: 1,
+    ...over,
+  };
+}
+
+function keptIds(
+  regions: RegionStats[],
+  components: ComponentStats[],
+  plate: Partial<PlateContext> = {},
+): number[] {
+  return selectCandidates(regions, components, { ...PLATE, ...plate })
+    .candidates.map((c) => c.region.id)
+    .sort((a, b) => a - b);
+}
+
+/**
+ * A row of six touching colonies, one watershed region each: as a blob it is six times longer
+ * than its widest disc and its ridge hardly varies (the colonies overlap), which is the shape of
+ * a pen line.
+ */
+function row(bumps: number): { regions: RegionStats[]; components: ComponentStats[] } {
+  const regions = Array.from({ length: COLONIES }, (_, i) =>
+    colony(i + 1, 20 + 2 * RADIUS * i, 40, { component: 1 }),
+  );
   const components = [
-    {
-      id: 1,
-      area: COLONIES * area,
+    blob(1, COLONIES * Math.PI * RADIUS ** 2, {
       halfWidth: RADIUS,
       regions: COLONIES,
-      rimPixels: 0,
       meanDistance: RADIUS / 2,
       ridgeVariation: 0.1,
       bumps,
-    },
+    }),
   ];
   return { regions, components };
 }
 
-function kept(bumps: number): number {
-  const { regions, components } = row(bumps);
-  return selectCandidates(regions, components, {
-    typicalRadius: RADIUS,
-    mmPerPx: MM_PER_PX,
-    scale: 1,
-    threshold: THRESHOLD,
-    faintThreshold: THRESHOLD,
-    nearWall: () => false,
-    nearGlare: () => false,
-  }).candidates.length;
-}
-
 describe('selectCandidates: stroke-shaped blobs', () => {
+  const kept = (bumps: number) => keptIds(row(bumps).regions, row(bumps).components).length;
+
   it('keeps a row of colonies whose domes show as contrast bumps', () => {
     expect(kept(COLONIES)).toBe(COLONIES);
     expect(kept(COLONIES / 2)).toBe(COLONIES);
@@ -74,67 +103,38 @@ describe('selectCandidates: stroke-shaped blobs', () => {
  * saturated colony too. Alone or beside one of the same tint it is a colony; beside one at least
  * twice as tinted it is that colony's chroma ghost.
  */
-function tintedSpot(neighbourTint: number | null): number {
-  const spot = {
-    id: 1,
+function tintedSpot(neighbourTint: number | null): number[] {
+  const spot = colony(1, 50, 50, {
     area: 40,
-    x: 50,
-    y: 50,
-    lab: [70, 0, 8] as const,
-    backgroundLab: [70, 0, 20] as const,
+    lab: [70, 0, 8],
+    backgroundLab: [70, 0, 20],
     contrast: 12,
     halfWidth: 3.5,
-    peak: 14,
-    steepest: 3,
-    component: 1,
-    bumps: 1,
-  };
-  const regions: RegionStats[] = [spot];
-  const components: ComponentStats[] = [
-    {
-      id: 1,
-      area: 40,
-      halfWidth: 3.5,
-      regions: 1,
-      rimPixels: 0,
-      meanDistance: 1.5,
-      ridgeVariation: 0,
-      bumps: 1,
-    },
-  ];
-  if (neighbourTint !== null) {
-    regions.push({
-      ...spot,
-      id: 2,
-      area: 200,
-      x: 62,
-      lab: [50, 0, 20 - neighbourTint],
-      contrast: 30,
-      halfWidth: 8,
-      component: 2,
-    });
-    components.push({ ...components[0]!, id: 2, area: 200, halfWidth: 8 });
-  }
-  const { candidates } = selectCandidates(regions, components, {
-    typicalRadius: RADIUS,
-    mmPerPx: MM_PER_PX,
-    scale: 0.5,
-    threshold: THRESHOLD,
-    faintThreshold: THRESHOLD,
-    nearWall: () => false,
-    nearGlare: () => false,
   });
-  return candidates.filter((c) => c.region.id === 1).length;
+  const regions = [spot];
+  const components = [blob(1, 40)];
+  if (neighbourTint !== null) {
+    regions.push(
+      colony(2, 62, 50, {
+        area: 200,
+        lab: [50, 0, 20 - neighbourTint],
+        contrast: 30,
+        halfWidth: 8,
+      }),
+    );
+    components.push(blob(2, 200));
+  }
+  return keptIds(regions, components, { scale: 0.5 }).filter((id) => id === 1);
 }
 
 describe('selectCandidates: tint without lightness', () => {
   it('keeps a tinted spot of the agar own lightness when no stronger tint is beside it', () => {
-    expect(tintedSpot(null)).toBe(1);
-    expect(tintedSpot(15)).toBe(1);
+    expect(tintedSpot(null)).toEqual([1]);
+    expect(tintedSpot(15)).toEqual([1]);
   });
 
   it('drops it as a chroma ghost beside a colony at least twice as tinted', () => {
-    expect(tintedSpot(30)).toBe(0);
+    expect(tintedSpot(30)).toEqual([]);
   });
 });
 
@@ -142,38 +142,17 @@ describe('selectCandidates: tint without lightness', () => {
  * A lamp's arc as thick as a colony, of a colour three round colonies elsewhere share (so no pen
  * can be learned from it for the whole plate), with one colony of that colour sitting on it.
  */
-function arcWithColony(): number[] {
-  const line = row(0);
-  const components = line.components;
-  const regions = line.regions.map((r) => ({ ...r, bumps: r.id === 3 ? 1 : 0 }));
-  for (let i = 0; i < 3; i++) {
-    const id = COLONIES + 1 + i;
-    regions.push({ ...regions[0]!, id, x: 20 + 15 * i, y: 90, component: id, bumps: 1 });
-    components.push({
-      ...components[0]!,
-      id,
-      area: regions[0]!.area,
-      regions: 1,
-      ridgeVariation: 0,
-      bumps: 1,
-    });
-  }
-  return selectCandidates(regions, components, {
-    typicalRadius: RADIUS,
-    mmPerPx: MM_PER_PX,
-    scale: 1,
-    threshold: THRESHOLD,
-    faintThreshold: THRESHOLD,
-    nearWall: () => false,
-    nearGlare: () => false,
-  })
-    .candidates.map((c) => c.region.id)
-    .sort((a, b) => a - b);
-}
-
 describe('selectCandidates: pieces of a line as thick as a colony', () => {
   it('keeps the piece holding a round bump and drops the rest of the line', () => {
-    expect(arcWithColony()).toEqual([3, 7, 8, 9]);
+    const line = row(0);
+    const regions = line.regions.map((r) => ({ ...r, bumps: r.id === 3 ? 1 : 0 }));
+    const components = [...line.components];
+    for (let i = 0; i < 3; i++) {
+      const id = COLONIES + 1 + i;
+      regions.push(colony(id, 20 + 15 * i, 90));
+      components.push(blob(id, Math.PI * RADIUS ** 2));
+    }
+    expect(keptIds(regions, components)).toEqual([3, 7, 8, 9]);
   });
 });
 
@@ -182,49 +161,58 @@ describe('selectCandidates: pieces of a line as thick as a colony', () => {
  * within a few units of it in a* and b*, too small and faint for the size-and-contrast exemption.
  * Shading looks the same in colour; a colony is a dome.
  */
-function greyDisc(bumps: number): number {
-  const area = 2 * Math.PI * (0.22 / MM_PER_PX) ** 2;
-  const region = {
-    id: 1,
-    area,
-    x: 50,
-    y: 50,
-    lab: [52, 33, 10] as const,
-    backgroundLab: [60, 35, 10] as const,
-    contrast: 8,
-    halfWidth: 3,
-    peak: 10,
-    steepest: 2,
-    component: 1,
-    bumps,
-  };
-  const component = {
-    id: 1,
-    area,
-    halfWidth: 3,
-    regions: 1,
-    rimPixels: 0,
-    meanDistance: 1.3,
-    ridgeVariation: 0,
-    bumps,
-  };
-  return selectCandidates([region], [component], {
-    typicalRadius: RADIUS,
-    mmPerPx: MM_PER_PX,
-    scale: 1,
-    threshold: THRESHOLD,
-    faintThreshold: THRESHOLD,
-    nearWall: () => false,
-    nearGlare: () => false,
-  }).candidates.length;
-}
-
 describe('selectCandidates: grey shades', () => {
+  const greyDisc = (bumps: number) =>
+    keptIds(
+      [
+        colony(1, 50, 50, {
+          area: 2 * MIN_AREA,
+          lab: [52, 33, 10],
+          backgroundLab: [60, 35, 10],
+          contrast: 8,
+          halfWidth: 3,
+          bumps,
+        }),
+      ],
+      [blob(1, 2 * MIN_AREA, { bumps })],
+    );
+
   it('drops a small grey shade that is no dome', () => {
-    expect(greyDisc(0)).toBe(0);
+    expect(greyDisc(0)).toEqual([]);
   });
 
   it('keeps it when it holds a round contrast bump', () => {
-    expect(greyDisc(1)).toBe(1);
+    expect(greyDisc(1)).toEqual([1]);
+  });
+});
+
+/**
+ * Small pieces: a faint speck just over the threshold, and a piece of a crowded clump that the
+ * watershed left with less than the smallest colony's disc (a neighbour's basin took its flank).
+ * Each is kept only as a dome.
+ */
+describe('selectCandidates: small pieces', () => {
+  const faintSpeck = (bumps: number) =>
+    keptIds(
+      [colony(1, 50, 50, { area: 1.5 * MIN_AREA, contrast: 6, halfWidth: 2.5, bumps })],
+      [blob(1, 1.5 * MIN_AREA, { bumps })],
+    );
+  const squeezed = (bumps: number) =>
+    keptIds(
+      [
+        colony(1, 50, 50, { component: 1 }),
+        colony(2, 57, 50, { area: 0.7 * MIN_AREA, halfWidth: 2, component: 1, bumps }),
+      ],
+      [blob(1, Math.PI * RADIUS ** 2 + 0.7 * MIN_AREA, { regions: 2, bumps: 1 + bumps })],
+    );
+
+  it('drops a faint speck and a squeezed piece that hold no bump', () => {
+    expect(faintSpeck(0)).toEqual([]);
+    expect(squeezed(0)).toEqual([1]);
+  });
+
+  it('keeps them when they are domes', () => {
+    expect(faintSpeck(1)).toEqual([1]);
+    expect(squeezed(1)).toEqual([1, 2]);
   });
 });

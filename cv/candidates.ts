@@ -16,7 +16,11 @@ import {
  *
  * - Specks (dust, agar flaws, noise): blobs smaller than a disc of MIN_COLONY_RADIUS_MM (a
  *   colony 0.45 mm across is still kept), and small blobs whose contrast barely clears the
- *   detection threshold: a real colony that small is a crisp dome, noise is not.
+ *   detection threshold: a real colony that small is a crisp dome, noise is not. A dome is what
+ *   the contrast bumps (blob-seeds.ts) find, at scales of MIN_COLONY_RADIUS_MM and up, so a
+ *   region holding one is kept however faint, and in a blob the watershed split it needs only
+ *   SPLIT_DOME_AREA of that disc (in a crowded clump a neighbour's basin takes part of a
+ *   colony's flank).
  * - Chroma ghosts: JPEG keeps colour at half resolution (4:2:0) and codes it in 8×8 blocks of
  *   that plane, so a saturated colony bleeds a faint tint, or rings with the opposite one, into
  *   the agar up to a block (16 photo pixels) beside it. A small blob that differs from the agar in
@@ -25,7 +29,8 @@ import {
  *   the agar's own lightness with no stronger tint beside it is a colony (blue-grey colonies on
  *   yellow agar can match its lightness).
  * - Slivers and satellites: thin pieces the watershed cuts off the edge of a colony in a touching
- *   group, and small blobs hugging a bigger colony (its blurred rim, cut loose by thresholding).
+ *   group (unless the piece is a dome of its own), and small blobs hugging a bigger colony (its
+ *   blurred rim, cut loose by thresholding).
  * - Strokes (marker-pen writing on the lid or the base, scratches, a lamp's line reflection):
  *   blobs far longer than they are thick and of even thickness, recognised by their shape, not
  *   their colour (pens come in every colour, and so do colonies). Even thickness is read from the
@@ -66,6 +71,8 @@ import {
  * Sizes are in working pixels; `mmPerPx` converts the millimetre limits.
  */
 const MIN_COLONY_RADIUS_MM = 0.22;
+/** A dome's region in a split blob needs this share of the smallest colony's disc. */
+const SPLIT_DOME_AREA = 0.5;
 /** Below 2× the minimum area, a region must stand this many thresholds above the agar. */
 const SMALL_CONTRAST = 1.3;
 /** The region's mean colour must stand this many thresholds from the agar's. */
@@ -184,7 +191,9 @@ export function selectCandidates(
       comp !== undefined &&
       ((v === 'strokes' && isColonyOnStroke(r, strokeHalfWidth(comp), inkOf(r), darkInk)) ||
         (v === 'wall' && r.halfWidth >= STROKE_THINNESS * typicalRadius));
-    if ((v !== 'keep' && !fatInThin) || r.area < minArea) return false;
+    const splitDome = r.bumps > 0 && (comp?.regions ?? 1) > 1;
+    if ((v !== 'keep' && !fatInThin) || r.area < (splitDome ? SPLIT_DOME_AREA : 1) * minArea)
+      return false;
     // A light, untinted piece of a stroke's blob is the line itself where a lamp or ring light
     // reflects off the lid (a bright arc), not a colony on it.
     if (v === 'strokes' && isGlareFringe(r)) {
@@ -198,7 +207,7 @@ export function selectCandidates(
     if (
       r.contrast < needed ||
       deltaE76(r.lab, r.backgroundLab) < MEAN_DIFFERENCE * needed ||
-      (r.area < 2 * minArea && r.contrast < SMALL_CONTRAST * threshold)
+      (r.area < 2 * minArea && r.contrast < SMALL_CONTRAST * threshold && r.bumps === 0)
     ) {
       rejected.specks++;
       return false;
@@ -207,7 +216,12 @@ export function selectCandidates(
       rejected.specks++;
       return false;
     }
-    if (comp && comp.regions > 1 && r.area < SLIVER * Math.PI * typicalRadius ** 2) {
+    if (
+      comp &&
+      comp.regions > 1 &&
+      r.area < SLIVER * Math.PI * typicalRadius ** 2 &&
+      r.bumps === 0
+    ) {
       rejected.specks++; // a sliver the watershed cut off a colony's edge
       return false;
     }
