@@ -154,6 +154,14 @@ describe('selectCandidates: pieces of a line as thick as a colony', () => {
     }
     expect(keptIds(regions, components)).toEqual([3, 7, 8, 9]);
   });
+
+  it('keeps a pale colony against dark writing even when it shows no bump of its own', () => {
+    const line = row(0);
+    const regions = line.regions.map((r) =>
+      r.id === 4 ? { ...r, lab: [72, 14, 4] as const, bumps: 0 } : { ...r, bumps: 0 },
+    );
+    expect(keptIds(regions, line.components)).toEqual([4]);
+  });
 });
 
 /**

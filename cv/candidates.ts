@@ -189,7 +189,8 @@ export function selectCandidates(
     const comp = byId.get(r.component);
     const fatInThin =
       comp !== undefined &&
-      ((v === 'strokes' && isColonyOnStroke(r, strokeHalfWidth(comp), inkOf(r), darkInk)) ||
+      ((v === 'strokes' &&
+        isColonyOnStroke(r, strokeHalfWidth(comp), inkOf(r), darkInk, byStroke.get(r.component))) ||
         (v === 'wall' && r.halfWidth >= STROKE_THINNESS * typicalRadius));
     const splitDome = r.bumps > 0 && (comp?.regions ?? 1) > 1;
     if ((v !== 'keep' && !fatInThin) || r.area < (splitDome ? SPLIT_DOME_AREA : 1) * minArea)
@@ -371,19 +372,27 @@ function isRoundAlone(r: RegionStats, c: ComponentStats): boolean {
  * A region in a stroke's blob is a colony the writing touches when it is clearly thicker than
  * the line, or nearly as thick, a dome (it holds a round contrast bump, blob-seeds.ts) and of
  * neither a pen's colour nor dark ink (a pale colony against dark writing, whose blob it shares).
- * A piece as thick as the line with no bump is the line: a thick marker stroke, or a lamp's arc
- * reflected by the lid, whose colour along it fades too much for one pen colour to hold it.
+ * A piece as thick as the line with no bump, on the same side of the agar's lightness as the line
+ * (both darker, or both lighter), is the line: a thick marker stroke, or a lamp's arc reflected
+ * by the lid, whose colour along it fades too much for one pen colour to hold it. A pale colony
+ * against dark writing may show no bump of its own beside the line's strong contrast.
  */
 function isColonyOnStroke(
   r: RegionStats,
   lineHalfWidth: number,
   pens: readonly Pen[],
   darkInk: boolean,
+  line: Pen | undefined,
 ): boolean {
   if (r.halfWidth >= COLONY_ON_STROKE * lineHalfWidth) return true;
-  if (r.bumps === 0) return false;
+  if (r.bumps === 0 && line && sameSideOfAgar(r, line)) return false;
   const inky = pens.some((p) => hasPenColour(r, p)) || (darkInk && isDarkInk(r));
   return !inky && r.halfWidth >= OTHER_COLOUR_ON_STROKE * lineHalfWidth;
+}
+
+/** Lighter than the agar like the line, or darker like it: not a pale colony on dark ink. */
+function sameSideOfAgar(r: RegionStats, line: Pen): boolean {
+  return Math.sign(r.lab[0] - r.backgroundLab[0]) === Math.sign(line.delta[0]);
 }
 
 /**
