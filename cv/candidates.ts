@@ -45,7 +45,7 @@ import {
  *   colonies are not of that colour (writing.ts). Inside a stroke's own blob, a piece of the
  *   blob's ink thinner than a colony is the line even when the plate's colonies share the ink's
  *   colour (blue writing on a plate of blue colonies), and so is a piece as thick as the line
- *   that is no dome (isColonyOnStroke). A stroke-shaped blob with a dome for every other region
+ *   that is no dome, on the line's side of the agar's lightness (isColonyOnStroke). A stroke-shaped blob with a dome for every other region
  *   is a row of colonies (isChainOfDomes). A round blob that touches nothing is never taken for
  *   writing.
  * - Grey shades: regions darker than the agar with hardly any tint of their own against it (the
@@ -370,12 +370,13 @@ function isRoundAlone(r: RegionStats, c: ComponentStats): boolean {
 
 /**
  * A region in a stroke's blob is a colony the writing touches when it is clearly thicker than
- * the line, or nearly as thick, a dome (it holds a round contrast bump, blob-seeds.ts) and of
- * neither a pen's colour nor dark ink (a pale colony against dark writing, whose blob it shares).
- * A piece as thick as the line with no bump, on the same side of the agar's lightness as the line
- * (both darker, or both lighter), is the line: a thick marker stroke, or a lamp's arc reflected
- * by the lid, whose colour along it fades too much for one pen colour to hold it. A pale colony
- * against dark writing may show no bump of its own beside the line's strong contrast.
+ * the line, or nearly as thick and of neither a pen's colour nor dark ink (a pale colony against
+ * dark writing, whose blob it shares). But a piece as thick as the line that holds no round
+ * contrast bump (blob-seeds.ts) and lies on the same side of the agar's lightness as the line
+ * (both darker, or both lighter) is the line: a thick marker stroke, or a lamp's arc reflected by
+ * the lid, whose colour along it fades too much for one pen colour to hold it. A colony there is
+ * a dome; a pale colony against dark writing may show no bump of its own beside the line's strong
+ * contrast, and is told by its lightness.
  */
 function isColonyOnStroke(
   r: RegionStats,
