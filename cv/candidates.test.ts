@@ -224,3 +224,23 @@ describe('selectCandidates: small pieces', () => {
     expect(squeezed(1)).toEqual([1, 2]);
   });
 });
+
+/**
+ * A faint blotch of JPEG chroma noise, tinted but of the agar's lightness, beside a faint pale
+ * colony of the same strength that is lighter than the agar.
+ */
+describe('selectCandidates: chroma noise', () => {
+  const faint = (lab: readonly [number, number, number]) =>
+    keptIds(
+      [colony(1, 50, 50, { area: 4 * MIN_AREA, lab, backgroundLab: [70, 0, 20], contrast: 6 })],
+      [blob(1, 4 * MIN_AREA)],
+    );
+
+  it('drops a faint region that differs from the agar in tint only', () => {
+    expect(faint([70.5, 2, 16])).toEqual([]);
+  });
+
+  it('keeps a faint region as much lighter than the agar', () => {
+    expect(faint([74, 0, 18])).toEqual([1]);
+  });
+});

@@ -21,6 +21,10 @@ import {
  *   region holding one is kept however faint, and in a blob the watershed split it needs only
  *   SPLIT_DOME_AREA of that disc (in a crowded clump a neighbour's basin takes part of a
  *   colony's flank).
+ * - Chroma noise: a faint region (its mean colour within SMALL_CONTRAST thresholds of the agar's)
+ *   that differs from the agar in tint but hardly in lightness (within GHOST_L). JPEG keeps colour
+ *   at half resolution and quantises it more coarsely than lightness, so its noise comes in
+ *   blotches a colony's size; a colony that faint is lighter or darker than the agar too.
  * - Chroma ghosts: JPEG keeps colour at half resolution (4:2:0) and codes it in 8×8 blocks of
  *   that plane, so a saturated colony bleeds a faint tint, or rings with the opposite one, into
  *   the agar up to a block (16 photo pixels) beside it. A small blob that differs from the agar in
@@ -77,7 +81,8 @@ const SPLIT_DOME_AREA = 0.5;
 const SMALL_CONTRAST = 1.3;
 /** The region's mean colour must stand this many thresholds from the agar's. */
 const MEAN_DIFFERENCE = 0.8;
-/** Chroma ghosts: smaller than GHOST_AREA minimum colonies and within GHOST_L of the agar's L*. */
+/** Chroma ghosts: smaller than GHOST_AREA minimum colonies and within GHOST_L of the agar's L*
+ * (GHOST_L bounds chroma noise's lightness too). */
 const GHOST_AREA = 3;
 const GHOST_L = 1.5;
 /** ... at most GHOST_SHARE of the tint of a region within CHROMA_BLOCK_PX photo pixels. */
@@ -208,7 +213,8 @@ export function selectCandidates(
     if (
       r.contrast < needed ||
       deltaE76(r.lab, r.backgroundLab) < MEAN_DIFFERENCE * needed ||
-      (r.area < 2 * minArea && r.contrast < SMALL_CONTRAST * threshold && r.bumps === 0)
+      (r.area < 2 * minArea && r.contrast < SMALL_CONTRAST * threshold && r.bumps === 0) ||
+      isChromaNoise(r, threshold)
     ) {
       rejected.specks++;
       return false;
@@ -260,6 +266,14 @@ export function selectCandidates(
     count: clumpCount(region, typicalArea),
   }));
   return { candidates, rejected, typicalArea };
+}
+
+/** Faint, and different from the agar in tint only: JPEG's chroma noise (see above). */
+function isChromaNoise(r: RegionStats, threshold: number): boolean {
+  return (
+    deltaE76(r.lab, r.backgroundLab) < SMALL_CONTRAST * threshold &&
+    Math.abs(r.lab[0] - r.backgroundLab[0]) < GHOST_L
+  );
 }
 
 /** A tester for chroma ghosts (see above) among `regions`, reaching `reachPx` working pixels. */
