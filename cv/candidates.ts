@@ -272,7 +272,7 @@ export function selectCandidates(
 function isChromaNoise(r: RegionStats, threshold: number): boolean {
   return (
     deltaE76(r.lab, r.backgroundLab) < SMALL_CONTRAST * threshold &&
-    Math.abs(r.lab[0] - r.backgroundLab[0]) < GHOST_L
+    Math.abs(lightness(r)) < GHOST_L
   );
 }
 
@@ -281,26 +281,23 @@ function chromaGhostTest(
   regions: readonly RegionStats[],
   reachPx: number,
 ): (r: RegionStats) => boolean {
-  const tint = (r: RegionStats) =>
-    Math.hypot(r.lab[1] - r.backgroundLab[1], r.lab[2] - r.backgroundLab[2]);
-  const radius = (r: RegionStats) => Math.sqrt(r.area / Math.PI);
   const grid = new PointGrid<RegionStats>(Math.max(8, reachPx));
   let widest = 0;
   for (const r of regions) {
     grid.add(r);
-    widest = Math.max(widest, radius(r));
+    widest = Math.max(widest, radiusOf(r));
   }
   return (r) => {
-    if (Math.abs(r.lab[0] - r.backgroundLab[0]) >= GHOST_L) return false;
+    if (Math.abs(lightness(r)) >= GHOST_L) return false;
     const own = tint(r);
-    const rs = radius(r);
+    const rs = radiusOf(r);
     return grid.some(
       r.x,
       r.y,
       reachPx + rs + widest,
       (q) =>
         q !== r &&
-        Math.hypot(q.x - r.x, q.y - r.y) - radius(q) - rs <= reachPx &&
+        Math.hypot(q.x - r.x, q.y - r.y) - radiusOf(q) - rs <= reachPx &&
         own <= GHOST_SHARE * tint(q),
     );
   };
@@ -313,7 +310,6 @@ function chromaGhostTest(
  * trying every pair is cheap.
  */
 function dropSatellites(regions: RegionStats[], minArea: number, gapPx: number): RegionStats[] {
-  const radius = (r: RegionStats) => Math.sqrt(r.area / Math.PI);
   const delta = (r: RegionStats) => [0, 1, 2].map((k) => r.lab[k]! - r.backgroundLab[k]!);
   const fainterCopy = (small: RegionStats, big: RegionStats) => {
     const a = delta(small);
@@ -325,12 +321,12 @@ function dropSatellites(regions: RegionStats[], minArea: number, gapPx: number):
   };
   return regions.filter((small) => {
     if (small.area >= SATELLITE_AREA * minArea) return true;
-    const rs = radius(small);
+    const rs = radiusOf(small);
     return !regions.some(
       (big) =>
         big !== small &&
         big.area > 2 * small.area &&
-        Math.hypot(big.x - small.x, big.y - small.y) - radius(big) - rs < gapPx &&
+        Math.hypot(big.x - small.x, big.y - small.y) - radiusOf(big) - rs < gapPx &&
         fainterCopy(small, big),
     );
   });
@@ -407,7 +403,7 @@ function isColonyOnStroke(
 
 /** Lighter than the agar like the line, or darker like it: not a pale colony on dark ink. */
 function sameSideOfAgar(r: RegionStats, line: Pen): boolean {
-  return Math.sign(r.lab[0] - r.backgroundLab[0]) === Math.sign(line.delta[0]);
+  return Math.sign(lightness(r)) === Math.sign(line.delta[0]);
 }
 
 /**
@@ -425,15 +421,11 @@ function isFaintDisc(r: RegionStats, minArea: number): boolean {
 
 /** Lighter than the agar and untinted: the fading edge of lid glare, next to a glare patch. */
 function isGlareFringe(r: RegionStats): boolean {
-  const dA = r.lab[1] - r.backgroundLab[1];
-  const dB = r.lab[2] - r.backgroundLab[2];
-  return r.lab[0] > r.backgroundLab[0] && Math.hypot(dA, dB) < GLARE_FRINGE_TINT;
+  return lightness(r) > 0 && tint(r) < GLARE_FRINGE_TINT;
 }
 
 function isGreyShade(r: RegionStats): boolean {
-  const dA = r.lab[1] - r.backgroundLab[1];
-  const dB = r.lab[2] - r.backgroundLab[2];
-  return r.lab[0] < r.backgroundLab[0] && Math.hypot(dA, dB) < GREY_SHADE_CHROMA;
+  return lightness(r) < 0 && tint(r) < GREY_SHADE_CHROMA;
 }
 
 /** Median area of regions that were alone in their blob: the size of one colony on this plate. */
@@ -444,4 +436,19 @@ function typicalSingleArea(regions: RegionStats[], comps: Map<number, ComponentS
     .sort((a, b) => a - b);
   const pool = singles.length >= 3 ? singles : regions.map((r) => r.area).sort((a, b) => a - b);
   return pool.length ? pool[pool.length >> 1]! : 0;
+}
+
+/** ΔL* of a region from the agar under it. */
+function lightness(r: RegionStats): number {
+  return r.lab[0] - r.backgroundLab[0];
+}
+
+/** How far a region's tint lies from the agar's: the distance in a*, b*. */
+function tint(r: RegionStats): number {
+  return Math.hypot(r.lab[1] - r.backgroundLab[1], r.lab[2] - r.backgroundLab[2]);
+}
+
+/** The radius of the disc of a region's area. */
+function radiusOf(r: RegionStats): number {
+  return Math.sqrt(r.area / Math.PI);
 }
