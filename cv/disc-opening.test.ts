@@ -5,8 +5,9 @@ import { loadOpenCv } from './opencv.ts';
 
 describe('opening by a disc', () => {
   // Reference: the opening of a set by a disc is the union of the discs that fit inside it
-  // (Serra 1982, "Image analysis and mathematical morphology", ch. 2). So a band narrower than
-  // the disc vanishes, a band wider than it is kept whole, and so is a larger disc.
+  // (Serra 1982, "Image analysis and mathematical morphology", ch. 2, cited from memory). So a
+  // band narrower than the disc vanishes, a band wider than it is kept whole, and so is a larger
+  // disc.
   it('keeps what holds the disc and removes what does not', async () => {
     const { cv } = await loadOpenCv();
     withMats((keep) => {
