@@ -1,3 +1,4 @@
+import { SMALLEST_COLONY_RADIUS_MM } from './colony-size.ts';
 import type { Keep } from './mat-scope.ts';
 import { withMats } from './mat-scope.ts';
 import type { Mat, OpenCv } from './opencv.ts';
@@ -28,10 +29,10 @@ export interface Blob {
 }
 
 /**
- * Smallest and largest colony radius looked for (mm): colonies 0.45 to 3 mm across. Larger
- * colonies are seldom packed unseparated: their outlines' necks give the distance map a seed each.
+ * Largest colony radius looked for (mm; the smallest is SMALLEST_COLONY_RADIUS_MM): colonies up
+ * to 3 mm across. Larger colonies are seldom packed unseparated: their outlines' necks give the
+ * distance map a seed each.
  */
-const SMALLEST_R_MM = 0.22;
 const LARGEST_R_MM = 1.5;
 const BLOB_NOISE_MULTIPLE = 3;
 /** σ in a level's own pixels at most this: beyond it the next, halved level serves. */
@@ -63,7 +64,7 @@ export function contrastBlobs(
     if (cv.countNonZero(bare) < MIN_BARE_PIXELS) return [];
     const found: Blob[] = [];
     let level = { image: deltaE, bare, fg: foreground, factor: 1 };
-    const smallest = Math.max(SMALLEST_SIGMA_PX, SMALLEST_R_MM / Math.SQRT2 / mmPerPx);
+    const smallest = Math.max(SMALLEST_SIGMA_PX, SMALLEST_COLONY_RADIUS_MM / Math.SQRT2 / mmPerPx);
     const largest = LARGEST_R_MM / Math.SQRT2 / mmPerPx;
     for (let sigma = smallest; sigma <= largest; sigma *= 2) {
       while (sigma / level.factor > OCTAVE_SIGMA) level = halved(cv, keep, level);

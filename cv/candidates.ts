@@ -1,3 +1,4 @@
+import { SMALLEST_COLONY_RADIUS_MM } from './colony-size.ts';
 import { deltaE76 } from './colour.ts';
 import { type ComponentStats, elongationOf, type RegionStats } from './measure.ts';
 import { PointGrid } from './point-grid.ts';
@@ -14,10 +15,10 @@ import {
  * Turns measured regions into colony candidates: drops what is not a colony by size and shape,
  * and estimates how many colonies an unsplittable clump holds.
  *
- * - Specks (dust, agar flaws, noise): blobs smaller than a disc of MIN_COLONY_RADIUS_MM (a
+ * - Specks (dust, agar flaws, noise): blobs smaller than a disc of SMALLEST_COLONY_RADIUS_MM (a
  *   colony 0.45 mm across is still kept), and small blobs whose contrast barely clears the
  *   detection threshold: a real colony that small is a crisp dome, noise is not. A dome is what
- *   the contrast bumps (blob-seeds.ts) find, at scales of MIN_COLONY_RADIUS_MM and up, so a
+ *   the contrast bumps (blob-seeds.ts) find, at scales of SMALLEST_COLONY_RADIUS_MM and up, so a
  *   region holding one is kept however faint, and in a blob the watershed split it needs only
  *   SPLIT_DOME_AREA of that disc (in a crowded clump a neighbour's basin takes part of a
  *   colony's flank).
@@ -74,7 +75,6 @@ import {
  *   and at most as many typical single colonies as its area holds; it is marked as estimated.
  * Sizes are in working pixels; `mmPerPx` converts the millimetre limits.
  */
-const MIN_COLONY_RADIUS_MM = 0.22;
 /** A dome's region in a split blob needs this share of the smallest colony's disc. */
 const SPLIT_DOME_AREA = 0.5;
 /** Below 2× the minimum area, a region must stand this many thresholds above the agar. */
@@ -160,7 +160,7 @@ export function selectCandidates(
   plate: PlateContext,
 ): CandidateResult {
   const { typicalRadius, mmPerPx, threshold, faintThreshold, nearWall, nearGlare } = plate;
-  const minArea = Math.PI * (MIN_COLONY_RADIUS_MM / mmPerPx) ** 2;
+  const minArea = Math.PI * (SMALLEST_COLONY_RADIUS_MM / mmPerPx) ** 2;
   const byId = new Map(components.map((c) => [c.id, c]));
   const rejected = { specks: 0, strokes: 0, wall: 0, shades: 0 };
   const verdict = new Map<number, 'keep' | 'specks' | 'strokes' | 'wall'>();

@@ -1,4 +1,5 @@
 import type { Blob } from './blob-seeds.ts';
+import { SMALLEST_COLONY_RADIUS_MM } from './colony-size.ts';
 import type { WorkingFrame } from './frame.ts';
 import { oddAtLeast } from './kernel-size.ts';
 import type { Keep } from './mat-scope.ts';
@@ -45,7 +46,9 @@ export function splitTouching(
   cv.distanceTransform(mask, distance, cv.DIST_L2, cv.DIST_MASK_5);
   const components = keep(new cv.Mat());
   const componentCount = cv.connectedComponents(mask, components, 8, cv.CV_32S) - 1;
-  const typicalRadius = typicalPeak(distance, components, componentCount) || 0.6 / frame.mmPerPx;
+  const thinnest = SMALLEST_COLONY_RADIUS_MM / frame.mmPerPx;
+  const typicalRadius =
+    typicalPeak(distance, components, componentCount, thinnest) || 0.6 / frame.mmPerPx;
 
   const regions = keep(new cv.Mat());
   const regionCount = withMats((k) => {
@@ -186,9 +189,13 @@ function scaledPeaks(cv: OpenCv, distance: Mat): Mat {
 
 /**
  * Median over blobs of their largest distance-map value, i.e. the radius of the typical colony
- * (most blobs are single colonies). One pass over the label image: opencv has no per-label max.
+ * (most blobs are single colonies). Only blobs at least `thinnest` thick vote: specks thinner than
+ * any colony (noise and JPEG ringing that survived the opening) are no sample of the colonies'
+ * size, and on a grainy photo they are the majority (on a half-resolution copy of a test photo
+ * they made the typical radius half the colonies' own). One pass over the label image: opencv has
+ * no per-label max.
  */
-function typicalPeak(distance: Mat, labels: Mat, n: number): number {
+export function typicalPeak(distance: Mat, labels: Mat, n: number, thinnest: number): number {
   if (n === 0) return 0;
   const peak = new Float32Array(n + 1);
   const d = distance.data32F;
@@ -198,7 +205,7 @@ function typicalPeak(distance: Mat, labels: Mat, n: number): number {
     if (id > 0 && d[i]! > peak[id]!) peak[id] = d[i]!;
   }
   const values = Array.from(peak.subarray(1))
-    .filter((v) => v > 1)
+    .filter((v) => v >= thinnest)
     .sort((a, b) => a - b);
   return values.length ? values[values.length >> 1]! : 0;
 }
