@@ -90,6 +90,23 @@ describe('contrast blobs', () => {
       expect(label(split, FAINT)).not.toBe(label(split, STRONG));
     });
   });
+
+  // A small faint colony: only its middle clears ΔE 4, a piece of foreground whose distance map
+  // stays below the seed floor (0.3 of the typical radius, the strong colony's 14 px). Without its
+  // blob's seed the background floods it (label 0: checked by hand with the seedless rule taken
+  // out).
+  it('seeds a small faint colony whose outline is too thin for a distance-map seed', async () => {
+    const { cv } = await loadOpenCv();
+    withMats((keep) => {
+      const small = { x: 150, y: 150, r: 5, contrast: 6 };
+      const dE = keep(deltaEPlane(cv, [STRONG, small]));
+      const split = seededSplit(cv, keep, dE);
+      const d = split.distance.data32F[small.y * SIZE + small.x]!;
+      expect(d).toBeGreaterThan(0);
+      expect(d).toBeLessThan(0.3 * STRONG.r);
+      expect(label(split, small)).not.toBe(0);
+    });
+  });
 });
 
 function label(s: Split, p: { x: number; y: number }): number {

@@ -58,7 +58,7 @@ export function splitTouching(
     const floor8 = k(new cv.Mat());
     floor.convertTo(floor8, cv.CV_8U);
     cv.bitwise_and(peaks, floor8, peaks);
-    if (seeding) addBlobSeeds(cv, peaks, distance, seeding);
+    if (seeding) addBlobSeeds(cv, peaks, distance, seeding, components);
     const n = cv.connectedComponents(peaks, regions, 8, cv.CV_32S) - 1;
 
     // Watershed wants every pixel known to be background labelled too: outside a slightly grown mask.
@@ -95,9 +95,19 @@ export function splitTouching(
  * within the seed's inscribed disc with no dip in ΔE between them: there the blob is the colony's
  * own rim, highlight, halo or shaded side. A separate colony, however close, is a second dome, and
  * ΔE falls between the two: two domes have a saddle between them, one dome's flank does not.
+ * A blob in a piece of foreground that has no seed at all seeds it at the blob's centre, whatever
+ * its depth: a small faint colony of which only the middle clears the threshold has an outline
+ * narrower than the seed floor and than the blob's own disc, and the background would flood it.
+ * Nothing else is in that piece for the seed to be mistaken for.
  */
 const INSIDE = 0.7;
-function addBlobSeeds(cv: OpenCv, peaks: Mat, distance: Mat, seeding: BlobSeeding): void {
+function addBlobSeeds(
+  cv: OpenCv,
+  peaks: Mat,
+  distance: Mat,
+  seeding: BlobSeeding,
+  components: Mat,
+): void {
   const { blobs, deltaE } = seeding;
   const p = peaks.data;
   const d = distance.data32F;
@@ -109,9 +119,18 @@ function addBlobSeeds(cv: OpenCv, peaks: Mat, distance: Mat, seeding: BlobSeedin
     seeds.add({ x: i % w, y: Math.floor(i / w), r: d[i]! });
     widest = Math.max(widest, d[i]!);
   }
+  const component = components.data32S;
+  const seeded = new Set<number>();
+  for (let i = 0; i < p.length; i++) if (p[i]) seeded.add(component[i]!);
   for (const b of blobs) {
     const x = Math.round(b.x);
     const y = Math.round(b.y);
+    const own = component[y * w + x]!;
+    if (own > 0 && !seeded.has(own)) {
+      seeded.add(own);
+      p[y * w + x] = 255;
+      continue;
+    }
     if (d[y * w + x]! < INSIDE * b.r) continue;
     const reach = Math.max(b.r, widest);
     const accounts = (s: { x: number; y: number; r: number }) => {
