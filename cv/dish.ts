@@ -116,6 +116,13 @@ function houghDish(cv: OpenCv, keep: Keep, gray: Mat): { x: number; y: number; r
  * seen at a tilt, and rays that cross the edge obliquely place it badly.
  */
 const EDGE_DELTA_E = 12;
+/**
+ * How far out a ray walks, as a share of the first circle's radius. Hough's circle can be a fifth
+ * of its radius off where glare and writing break the rim (on one plates-dev photo, 17 % off
+ * centre and 11 % small): the far side's edge then lies beyond 1.3 radii, and an ellipse fitted
+ * to the rays that stopped on the glare instead cut a third of the agar away.
+ */
+const WALK_END = 1.5;
 const EDGE_RUN_MM = 5;
 const EDGE_SUSTAIN = 0.6;
 
@@ -188,7 +195,7 @@ function edgePoints(
     if (inner.length < 5) continue;
     const ref = [0, 1, 2].map((k) => median(inner.map((v) => v[k]!)));
     const away: boolean[] = [];
-    for (let rr = radius * 0.75; rr <= radius * 1.3; rr += step) {
+    for (let rr = radius * 0.75; rr <= radius * WALK_END; rr += step) {
       const v = at(c.x + dx * rr, c.y + dy * rr);
       if (!v) break;
       away.push(deltaE76(v, [ref[0]!, ref[1]!, ref[2]!]) > EDGE_DELTA_E);
