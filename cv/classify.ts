@@ -89,14 +89,13 @@ export function classify(samples: readonly ColourSample[], palette?: Palette): C
   return { cls, confidence, outlier, classes: paletteClasses(model), oneColour: null };
 }
 
-/** Further than OUTLIER_SPREADS spreads from both palette colours: of neither marker colour. */
+/**
+ * Further than OUTLIER_SPREADS spreads from every shade of both palette colours: of neither marker
+ * colour. A weaker or stronger shade of a colour (younger or older colonies of the strain) is
+ * sorted to that colour (fromDensityLine) and is that colour, not an outlier.
+ */
 function isNeither(f: Point, palette: Palette): boolean {
-  return palette.colours.every((c) => spreadsApart(f, c) > OUTLIER_SPREADS);
-}
-
-/** How far a colour feature lies from a palette colour, in that colour's spreads. */
-export function spreadsApart(f: Point, c: PaletteColour): number {
-  return distance(f, colourFeature(c.deltaLab)) / Math.max(MIN_SPREAD, c.spread);
+  return palette.colours.every((c) => spreadsFromShade(f, c) > OUTLIER_SPREADS);
 }
 
 /**

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { isTwoColours, kmeans2, type Point } from './cluster.ts';
+import { isTwoColours, kmeans2, type Point, robustSpread } from './cluster.ts';
 
 /** Points scattered round a centre by a fixed, seeded pattern (no randomness between runs). */
 function cloud(centre: Point, n: number, spread: number, phase = 0): Point[] {
@@ -48,5 +48,43 @@ describe('kmeans2 and the one-or-two-colours decision', () => {
   it('returns null when there is nothing to split', () => {
     expect(kmeans2([])).toBeNull();
     expect(kmeans2([[1, 2, 3]])).toBeNull();
+  });
+});
+
+describe('a cluster’s spread', () => {
+  /** Standard normal draws by the Box–Muller transform of a fixed linear congruential sequence. */
+  function normals(n: number): number[] {
+    let seed = 12345;
+    const uniform = () => {
+      seed = (seed * 1103515245 + 12345) % 2 ** 31;
+      return (seed + 0.5) / 2 ** 31;
+    };
+    return Array.from({ length: n }, () => {
+      const u = uniform();
+      const v = uniform();
+      return Math.sqrt(-2 * Math.log(u)) * Math.cos(2 * Math.PI * v);
+    });
+  }
+
+  // Reference: the distance of a three-dimensional normal point (σ per axis) from the centre
+  // follows the chi distribution with 3 degrees of freedom: RMS √3·σ, median 1.538σ (the χ²₃
+  // median 2.366 is a handbook table value, cited from memory).
+  it('is the normal cloud’s RMS distance, and a tail of strays does not widen it', () => {
+    const sigma = 2;
+    const z = normals(3 * 400);
+    const cloud: Point[] = Array.from({ length: 400 }, (_, i) => [
+      sigma * z[3 * i]!,
+      sigma * z[3 * i + 1]!,
+      sigma * z[3 * i + 2]!,
+    ]);
+    const rms = Math.sqrt(3) * sigma;
+    expect(robustSpread(cloud, [0, 0, 0])).toBeGreaterThan(0.9 * rms);
+    expect(robustSpread(cloud, [0, 0, 0])).toBeLessThan(1.1 * rms);
+    // 5 % strays ten σ out would raise the plain RMS to about 1.6 times the cloud's own.
+    const strays: Point[] = Array.from({ length: 20 }, (_, i) => {
+      const t = (2 * Math.PI * i) / 20;
+      return [10 * sigma * Math.cos(t), 10 * sigma * Math.sin(t), 0];
+    });
+    expect(robustSpread([...cloud, ...strays], [0, 0, 0])).toBeLessThan(1.15 * rms);
   });
 });

@@ -15,7 +15,11 @@ export type Point = readonly [number, number, number];
 
 export interface TwoClusters {
   centres: [Point, Point];
-  /** RMS distance of members from their centre, per cluster. */
+  /**
+   * Each cluster's RMS distance of members from its centre, estimated from the median distance as
+   * a normal cloud would have it (RMS_PER_MEDIAN), so a tail of weak shades or a few strays does
+   * not widen it.
+   */
   spreads: [number, number];
   assignment: Int8Array;
   sizes: [number, number];
@@ -96,22 +100,35 @@ function lloyd2(points: readonly Point[], iterations: number): TwoClusters | nul
     if (!changed && it > 0) break;
   }
   const sizes: [number, number] = [0, 0];
-  const ss: [number, number] = [0, 0];
-  points.forEach((p, i) => {
-    const k = assignment[i] as 0 | 1;
-    sizes[k]++;
-    ss[k] += dist2(p, centres[k]);
-  });
+  for (const k of assignment) sizes[k as 0 | 1]++;
   if (sizes[0] === 0 || sizes[1] === 0) return null;
   const separation = Math.sqrt(dist2(centres[0], centres[1]));
+  const spreadOf = (k: 0 | 1) =>
+    robustSpread(
+      points.filter((_, i) => assignment[i] === k),
+      centres[k],
+    );
   return {
     centres,
-    spreads: [Math.sqrt(ss[0] / sizes[0]), Math.sqrt(ss[1] / sizes[1])],
+    spreads: [spreadOf(0), spreadOf(1)],
     assignment,
     sizes,
     separation,
     ashmanD: ashmanD(points, assignment, centres, separation),
   };
+}
+
+/**
+ * RMS over median of the distance from the centre of a three-dimensional normal cloud: that
+ * distance follows the chi distribution with 3 degrees of freedom, whose RMS is √3·σ = 1.732σ and
+ * whose median is 1.538σ (the square root of the χ²₃ median, 2.366).
+ */
+export const RMS_PER_MEDIAN = 1.126;
+
+/** A cluster's RMS distance from its centre, estimated from the median distance. */
+export function robustSpread(points: readonly Point[], centre: Point): number {
+  const d = points.map((p) => Math.sqrt(dist2(p, centre))).sort((a, b) => a - b);
+  return RMS_PER_MEDIAN * d[d.length >> 1]!;
 }
 
 function ashmanD(
