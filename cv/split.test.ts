@@ -11,21 +11,10 @@ describe('typical colony radius', () => {
     const { cv } = await loadOpenCv();
     withMats((keep) => {
       const mask = keep(cv.Mat.zeros(200, 200, cv.CV_8UC1));
-      for (const [x, y] of [
-        [40, 40],
-        [100, 40],
-        [160, 40],
-      ])
-        cv.circle(mask, new cv.Point(x, y), 9, [255, 0, 0, 0], -1);
+      for (const x of [40, 100, 160]) cv.circle(mask, new cv.Point(x, 40), 9, [255, 0, 0, 0], -1);
       // Twelve specks 3 px across: more than the colonies, so they would set the median.
       for (let i = 0; i < 12; i++)
-        cv.rectangle(
-          mask,
-          new cv.Point(20 + 14 * i, 150),
-          new cv.Point(22 + 14 * i, 152),
-          [255, 0, 0, 0],
-          -1,
-        );
+        cv.circle(mask, new cv.Point(20 + 14 * i, 150), 1, [255, 0, 0, 0], -1);
       const distance = keep(new cv.Mat());
       cv.distanceTransform(mask, distance, cv.DIST_L2, cv.DIST_MASK_5);
       const labels = keep(new cv.Mat());
