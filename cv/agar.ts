@@ -227,7 +227,7 @@ const LAB8_UNIT = [100 / 255, 1, 1] as const;
  * cancel in the difference, so only L* needs rescaling, and no 3-channel float copy (16 MB at
  * 1.3 MP) is ever made.
  */
-function labDistance(cv: OpenCv, lab8: Mat, background8: Mat): Mat {
+export function labDistance(cv: OpenCv, lab8: Mat, background8: Mat): Mat {
   return withMats((keep) => {
     const image = keep(new cv.MatVector());
     const background = keep(new cv.MatVector());

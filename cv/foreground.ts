@@ -1,4 +1,4 @@
-import type { AgarModel } from './agar.ts';
+import { type AgarModel, labDistance } from './agar.ts';
 import { openWithDisc } from './disc-opening.ts';
 import type { WorkingFrame } from './frame.ts';
 import { oddAtLeast } from './kernel-size.ts';
@@ -50,8 +50,15 @@ export function segmentForeground(
   const widerOnly =
     reach < 1 ? keep(cv.Mat.zeros(agar.deltaE.rows, agar.deltaE.cols, cv.CV_8UC1)) : null;
   withMats((k) => thresholdMask(cv, k, mask, agar, frame, threshold));
-  const faintThreshold = Math.max(FAINT_MIN_CONTRAST, FAINT_MULTIPLE * noise);
-  withMats((k) => addFaintDiscs(cv, k, mask, agar, frame, faintThreshold));
+  const faintThreshold = withMats((k) => {
+    const contrast = k(faintContrast(cv, k, agar, frame));
+    const level = Math.max(
+      FAINT_MIN_CONTRAST,
+      FAINT_MULTIPLE * medianWithin(contrast, agar.countMask),
+    );
+    addFaintDiscs(cv, k, mask, agar, frame, contrast, level);
+    return level;
+  });
   withMats((k) => {
     const lighter = k(lighterThanAgar(cv, k, agar));
     fillColonyHoles(cv, mask, lighter, Math.PI * (RING_COLONY_MAX_MM / 2 / frame.mmPerPx) ** 2);
@@ -142,7 +149,13 @@ function clearThinAlongWall(
  * that small).
  */
 const FAINT_MULTIPLE = 2.5;
-const FAINT_MIN_CONTRAST = 2;
+/**
+ * However clean the photo, a faint disc differs from the agar by at least one just-noticeable
+ * difference, ΔE*ab ≈ 2.3 (Mahy, Van Eycken & Oosterlinck 1994, cited from memory): what nobody
+ * can see is not a colony to count, and the averaged colour of a small air bubble's dark rim
+ * comes to about 2.
+ */
+const FAINT_MIN_CONTRAST = 2.3;
 const FAINT_MIN_MM = 0.8;
 const FAINT_FILL = 0.65;
 /** Larger than this (mm across) a faint patch is lighting or a smear, not a colony. */
@@ -158,14 +171,11 @@ function addFaintDiscs(
   mask: Mat,
   agar: AgarModel,
   frame: WorkingFrame,
+  contrast: Mat,
   faintThreshold: number,
 ): void {
-  // Averaged over a quarter of the smallest faint disc first: JPEG blocks and noise make the
-  // outline of a faint patch ragged at the pixel level.
-  const smooth = k(new cv.Mat());
-  cv.GaussianBlur(agar.deltaE, smooth, new cv.Size(0, 0), FAINT_MIN_MM / 4 / frame.mmPerPx);
   const above = k(new cv.Mat());
-  cv.threshold(smooth, above, faintThreshold, 255, cv.THRESH_BINARY);
+  cv.threshold(contrast, above, faintThreshold, 255, cv.THRESH_BINARY);
   const low = k(new cv.Mat());
   above.convertTo(low, cv.CV_8U);
   cv.bitwise_and(low, agar.countMask, low);
@@ -199,6 +209,20 @@ function addFaintDiscs(
     if (share.inside < FAINT_FOUND && share.around < FAINT_AROUND)
       cv.drawContours(mask, contours, i, [255, 0, 0, 0], -1);
   }
+}
+
+/**
+ * The contrast a faint disc is found by: ΔE*ab between the agar and the photo's colour averaged
+ * over a quarter of the smallest faint disc (JPEG blocks and noise make a faint patch's outline
+ * ragged at the pixel level). The colour is averaged before its difference is taken: noise then
+ * cancels, while a ΔE averaged afterwards keeps the noise's own floor (a magnitude is never
+ * negative), which on a noisy photo rose above the faint colonies themselves. Its threshold is a
+ * multiple of its own median over the agar, so it is set on the measure it is applied to.
+ */
+function faintContrast(cv: OpenCv, k: Keep, agar: AgarModel, frame: WorkingFrame): Mat {
+  const smooth = k(new cv.Mat());
+  cv.GaussianBlur(agar.lab8, smooth, new cv.Size(0, 0), FAINT_MIN_MM / 4 / frame.mmPerPx);
+  return labDistance(cv, smooth, agar.background8);
 }
 
 /**
