@@ -220,9 +220,20 @@ function addFaintDiscs(
  * multiple of its own median over the agar, so it is set on the measure it is applied to.
  */
 function faintContrast(cv: OpenCv, k: Keep, agar: AgarModel, frame: WorkingFrame): Mat {
-  const smooth = k(new cv.Mat());
-  cv.GaussianBlur(agar.lab8, smooth, new cv.Size(0, 0), FAINT_MIN_MM / 4 / frame.mmPerPx);
-  return labDistance(cv, smooth, agar.background8);
+  // At half size (2 × 2 means, then the rest of the blur): the measure is smooth over a few
+  // pixels, and the blur, the colour difference and its square root then cost a quarter (a
+  // 3-channel blur at 1.3 MP is about 100 ms in opencv.js, at half size 15 ms).
+  const full = new cv.Size(agar.lab8.cols, agar.lab8.rows);
+  const half = new cv.Size(Math.max(1, full.width >> 1), Math.max(1, full.height >> 1));
+  const lab = k(new cv.Mat());
+  cv.resize(agar.lab8, lab, half, 0, 0, cv.INTER_AREA);
+  cv.GaussianBlur(lab, lab, new cv.Size(0, 0), FAINT_MIN_MM / 8 / frame.mmPerPx);
+  const background = k(new cv.Mat());
+  cv.resize(agar.background8, background, half, 0, 0, cv.INTER_LINEAR);
+  const small = k(labDistance(cv, lab, background));
+  const contrast = new cv.Mat();
+  cv.resize(small, contrast, full, 0, 0, cv.INTER_LINEAR);
+  return contrast;
 }
 
 /**
@@ -354,14 +365,17 @@ function discRadius(mm: number, frame: WorkingFrame): number {
 function medianWithin(img: Mat, mask: Mat): number {
   const v = img.data32F;
   const m = mask.data;
-  const samples: number[] = [];
+  // A typed array sorts numerically in native code, several times faster than an array of
+  // numbers with a comparator (about 40 ms for the 150 000 samples of a 1.3 MP image).
+  const samples = new Float32Array(Math.ceil(img.rows / 3) * Math.ceil(img.cols / 3));
+  let n = 0;
   for (let y = 1; y < img.rows; y += 3) {
     const row = y * img.cols;
-    for (let x = 1; x < img.cols; x += 3) if (m[row + x]) samples.push(v[row + x]!);
+    for (let x = 1; x < img.cols; x += 3) if (m[row + x]) samples[n++] = v[row + x]!;
   }
-  if (samples.length === 0) return 0;
-  samples.sort((a, b) => a - b);
-  return samples[samples.length >> 1]!;
+  if (n === 0) return 0;
+  const taken = samples.subarray(0, n).sort();
+  return taken[n >> 1]!;
 }
 
 /**
