@@ -1,7 +1,7 @@
 import { type AgarModel, labDistance } from './agar.ts';
 import { openWithDisc } from './disc-opening.ts';
 import type { WorkingFrame } from './frame.ts';
-import { oddAtLeast } from './kernel-size.ts';
+import { boxPairFor, oddAtLeast } from './kernel-size.ts';
 import type { Keep } from './mat-scope.ts';
 import { withMats } from './mat-scope.ts';
 import type { Mat, OpenCv } from './opencv.ts';
@@ -220,20 +220,11 @@ function addFaintDiscs(
  * multiple of its own median over the agar, so it is set on the measure it is applied to.
  */
 function faintContrast(cv: OpenCv, k: Keep, agar: AgarModel, frame: WorkingFrame): Mat {
-  // At half size (2 × 2 means, then the rest of the blur): the measure is smooth over a few
-  // pixels, and the blur, the colour difference and its square root then cost a quarter (a
-  // 3-channel blur at 1.3 MP is about 100 ms in opencv.js, at half size 15 ms).
-  const full = new cv.Size(agar.lab8.cols, agar.lab8.rows);
-  const half = new cv.Size(Math.max(1, full.width >> 1), Math.max(1, full.height >> 1));
-  const lab = k(new cv.Mat());
-  cv.resize(agar.lab8, lab, half, 0, 0, cv.INTER_AREA);
-  cv.GaussianBlur(lab, lab, new cv.Size(0, 0), FAINT_MIN_MM / 8 / frame.mmPerPx);
-  const background = k(new cv.Mat());
-  cv.resize(agar.background8, background, half, 0, 0, cv.INTER_LINEAR);
-  const small = k(labDistance(cv, lab, background));
-  const contrast = new cv.Mat();
-  cv.resize(small, contrast, full, 0, 0, cv.INTER_LINEAR);
-  return contrast;
+  const smooth = k(new cv.Mat());
+  const [a, b] = boxPairFor(FAINT_MIN_MM / 4 / frame.mmPerPx);
+  cv.blur(agar.lab8, smooth, new cv.Size(a, a));
+  cv.blur(smooth, smooth, new cv.Size(b, b));
+  return labDistance(cv, smooth, agar.background8);
 }
 
 /**
