@@ -50,9 +50,9 @@ import {
  *   colonies are not of that colour (writing.ts). Inside a stroke's own blob, a piece of the
  *   blob's ink thinner than a colony is the line even when the plate's colonies share the ink's
  *   colour (blue writing on a plate of blue colonies), and so is a piece as thick as the line
- *   that is no dome, on the line's side of the agar's lightness (isColonyOnStroke). A stroke-shaped blob with a dome for every other region
- *   is a row of colonies (isChainOfDomes). A round blob that touches nothing is never taken for
- *   writing.
+ *   that is no dome, on the line's side of the agar's lightness (isColonyOnStroke). A
+ *   stroke-shaped blob with a dome for every other region is a row of colonies (isChainOfDomes).
+ *   A round blob that touches nothing is never taken for writing.
  * - Grey shades: regions darker than the agar with hardly any tint of their own against it (the
  *   soft edge of an ink stroke, the shadowed side of a droplet, shading under condensation, the
  *   dim rim round lid glare). A colony of the agar's own hue, only darker (deep red on pink

@@ -123,7 +123,7 @@ function lloyd2(points: readonly Point[], iterations: number): TwoClusters | nul
  * distance follows the chi distribution with 3 degrees of freedom, whose RMS is √3·σ = 1.732σ and
  * whose median is 1.538σ (the square root of the χ²₃ median, 2.366).
  */
-export const RMS_PER_MEDIAN = 1.126;
+const RMS_PER_MEDIAN = 1.126;
 
 /** A cluster's RMS distance from its centre, estimated from the median distance. */
 export function robustSpread(points: readonly Point[], centre: Point): number {

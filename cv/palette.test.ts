@@ -4,8 +4,10 @@ import { analyzePlate } from './analyze.ts';
 import { classifyWithPalette, learnPalette, paletteFromExamples } from './palette.ts';
 import type { Colony, Lab, Palette, PlateAnalysis } from './types.ts';
 
-/** A plate's analysis holding colonies of the given colours relative to the agar (ΔL*, Δa*, Δb*). */
-/** `scatter`: the direction and size of the colonies' spread (default a small one, mostly in L*). */
+/**
+ * A plate's analysis holding colonies of the given colours relative to the agar (ΔL*, Δa*, Δb*).
+ * `scatter`: the direction and size of the colonies' spread (default a small one, mostly in L*).
+ */
 function plateOf(groups: { delta: Lab; n: number; scatter?: Lab }[]): PlateAnalysis {
   const agar: Lab = [55, 30, 0];
   const colonies: Colony[] = groups.flatMap(({ delta, n, scatter = [1.5, -1.5, 0.75] }) =>
@@ -43,6 +45,17 @@ function plateOf(groups: { delta: Lab; n: number; scatter?: Lab }[]): PlateAnaly
     flags: [],
     edgeWidthMm: null,
     timings: {},
+  };
+}
+
+/** Two strains, a dark ancestor and a pale evolved line, with the spreads given. */
+function competitionPalette(ancestorSpread: number, evolvedSpread: number): Palette {
+  return {
+    version: 1,
+    colours: [
+      { name: 'ancestor', hex: '#5a1e28', deltaLab: [-24, 20, -6], spread: ancestorSpread },
+      { name: 'evolved', hex: '#f0e6dc', deltaLab: [5, -2, -3], spread: evolvedSpread },
+    ],
   };
 }
 
@@ -96,15 +109,8 @@ describe('palettes', () => {
     // by the Beer–Lambert law a thinner layer of the same pigment differs less from the agar, in
     // the same direction). In plain distance, scaled by the colours' spreads, they are nearer the
     // widely spread pale colour; along the dark colour's line they are the dark strain.
-    const palette: Palette = {
-      version: 1,
-      colours: [
-        { name: 'ancestor', hex: '#5a1e28', deltaLab: [-24, 20, -6], spread: 4 },
-        { name: 'evolved', hex: '#f0e6dc', deltaLab: [5, -2, -3], spread: 8 },
-      ],
-    };
     const young = plateOf([{ delta: [-12, 10, -3], n: 30 }]);
-    const sorted = classifyWithPalette(young, palette);
+    const sorted = classifyWithPalette(young, competitionPalette(4, 8));
     expect(sorted.counts).toEqual({ ancestor: 30, evolved: 0 });
   });
 
@@ -112,14 +118,8 @@ describe('palettes', () => {
     // Colonies 0.6 as far from the agar as the palette's dark colour, against a palette learned
     // from plates whose colonies hardly varied: far from both colours' centres in their spreads,
     // but on the dark colour's line from the agar (Beer–Lambert, as above).
-    const palette: Palette = {
-      version: 1,
-      colours: [
-        { name: 'ancestor', hex: '#5a1e28', deltaLab: [-24, 20, -6], spread: 2 },
-        { name: 'evolved', hex: '#f0e6dc', deltaLab: [5, -2, -3], spread: 2 },
-      ],
-    };
-    const sorted = classifyWithPalette(plateOf([{ delta: [-14.4, 12, -3.6], n: 30 }]), palette);
+    const young = plateOf([{ delta: [-14.4, 12, -3.6], n: 30 }]);
+    const sorted = classifyWithPalette(young, competitionPalette(2, 2));
     expect(sorted.neither).toEqual([]);
     expect(sorted.counts).toEqual({ ancestor: 30, evolved: 0 });
   });

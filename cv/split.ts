@@ -112,16 +112,16 @@ function addBlobSeeds(
   const p = peaks.data;
   const d = distance.data32F;
   const w = peaks.cols;
+  const component = components.data32S;
   const seeds = new PointGrid<{ x: number; y: number; r: number }>(8);
+  const seeded = new Set<number>();
   let widest = 0;
   for (let i = 0; i < p.length; i++) {
     if (!p[i]) continue;
     seeds.add({ x: i % w, y: Math.floor(i / w), r: d[i]! });
+    seeded.add(component[i]!);
     widest = Math.max(widest, d[i]!);
   }
-  const component = components.data32S;
-  const seeded = new Set<number>();
-  for (let i = 0; i < p.length; i++) if (p[i]) seeded.add(component[i]!);
   for (const b of blobs) {
     const x = Math.round(b.x);
     const y = Math.round(b.y);
