@@ -1,5 +1,6 @@
 import type { WorkingFrame } from './frame.ts';
 import { glareMask } from './glare.ts';
+import { followGlare } from './glare-background.ts';
 import { oddAtLeast } from './kernel-size.ts';
 import type { Keep } from './mat-scope.ts';
 import { withMats } from './mat-scope.ts';
@@ -16,13 +17,14 @@ import type { Dish, Lab } from './types.ts';
  *  - `background8`: the agar colour expected at each pixel with colonies removed, same encoding: a
  *    two-pass median over a window several colonies wide, at quarter resolution. This flattens a
  *    one-sided lamp, vignetting and a colour cast, since colonies are judged against the agar
- *    right around them and not against one global agar colour;
+ *    right around them and not against one global agar colour. Under lid glare (glare.ts) it is
+ *    the reflection's own light, which a window or a lamp gives sharp edges and bars that no
+ *    median that wide follows (glare-background.ts);
  *  - `deltaE`: ΔE*ab of each pixel from that background (CV_32FC1),
- *  - `countMask`: where colonies may be counted (the agar minus glare), 8-bit 0/255,
+ *  - `countMask`: where colonies may be counted (the agar, glare included), 8-bit 0/255,
  *  - `rim`, `glareZone`: the bands next to the wall and round glare where the rejection rules in
  *    candidates.ts look harder,
- *  - `glareFraction`: share of the agar under lid glare (glare.ts), which is excluded from
- *    counting and reported.
+ *  - `glareFraction`: share of the agar under lid glare, which is reported.
  */
 export interface AgarModel {
   /** The image and its background in opencv's 8-bit Lab (see lab8ToLab). */
@@ -37,6 +39,8 @@ export interface AgarModel {
   glareFraction: number;
   /** Within GLARE_ZONE_MM of lid glare, where its fainter fringe still lights the agar (0/255). */
   glareZone: Mat;
+  /** Lid glare itself (0/255, glare.ts): colonies seen through it teach no colours (classify.ts). */
+  glare: Mat;
   agarLab: Lab;
 }
 
@@ -63,19 +67,27 @@ export function modelAgar(
   const background8 = keep(
     medianBackground(cv, quarter, { width: rgb.cols, height: rgb.rows }, frame),
   );
+  followGlare(cv, lab8, background8, glare, frame.mmPerPx);
   const deltaE = keep(labDistance(cv, lab8, background8));
-
-  const countMask = keep(new cv.Mat());
-  const notGlare = keep(new cv.Mat());
-  cv.bitwise_not(glare, notGlare);
-  cv.bitwise_and(agarMask, notGlare, countMask);
+  const countMask = agarMask;
 
   const rim = keep(bandInside(cv, agarMask, RIM_PX));
   const wallBand = keep(wallBandOf(cv, agarMask, dish, WALL_ZONE_MM / frame.mmPerPx));
   const centre = background8.data;
   const ci = (Math.round(dish.cy) * background8.cols + Math.round(dish.cx)) * 3;
   const agarLab = lab8ToLab(centre[ci] ?? 0, centre[ci + 1] ?? 128, centre[ci + 2] ?? 128);
-  return { lab8, background8, deltaE, countMask, rim, wallBand, glareFraction, glareZone, agarLab };
+  return {
+    lab8,
+    background8,
+    deltaE,
+    countMask,
+    rim,
+    wallBand,
+    glare,
+    glareFraction,
+    glareZone,
+    agarLab,
+  };
 }
 
 /** An 8-bit 0/255 mask of the dish ellipse scaled by `fraction`. */

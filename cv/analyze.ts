@@ -3,7 +3,7 @@ import { resizeRegion } from './banded-resize.ts';
 import { type Blob, contrastBlobs } from './blob-seeds.ts';
 import { candidateFeatures } from './candidate-features.ts';
 import { selectCandidates } from './candidates.ts';
-import { classify } from './classify.ts';
+import { classifyAside } from './classify.ts';
 import { now } from './clock.ts';
 import { DEFAULT_DISH_MM, detectDish, ellipseRadius, givenDish } from './dish.ts';
 import { deltaESlope, edgeWidthMm } from './focus.ts';
@@ -162,7 +162,8 @@ function runPipeline(
     lab: c.region.lab,
     deltaLab: subtract(c.region.lab, c.region.backgroundLab),
   }));
-  const classes = classify(samples, options.model?.palette ?? options.palette);
+  const lit = candidates.map((c) => onMask(agar.glare, c.region.x, c.region.y));
+  const classes = classifyAside(samples, lit, options.model?.palette ?? options.palette);
   const all: Colony[] = candidates.map((c, i) => {
     const [x, y] = toOriginal(frame, c.region.x, c.region.y);
     const area = c.region.area / frame.scale ** 2;
@@ -177,6 +178,7 @@ function runPipeline(
       count: c.count,
       lab: roundLab(samples[i]!.lab),
       deltaLab: roundLab(samples[i]!.deltaLab),
+      ...(lit[i] ? { glareLit: true as const } : {}),
     };
   });
   // An object of neither colour is shown for the person to decide. A learned model that decides

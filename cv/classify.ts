@@ -90,6 +90,42 @@ export function classify(samples: readonly ColourSample[], palette?: Palette): C
 }
 
 /**
+ * Sorting when some colonies (`aside`) are seen through lid glare: the reflection adds its own
+ * light to their colour, so they are left out of what decides the plate's colours (its own
+ * clusters, or which palette colour its clusters are) and are then sorted against those colours
+ * like any other colony, a washed-out colony being a weaker shade of its colour (fromDensityLine).
+ */
+export function classifyAside(
+  samples: readonly ColourSample[],
+  aside: readonly boolean[],
+  palette?: Palette,
+): Classification {
+  const lit = samples.filter((_, i) => aside[i]);
+  if (lit.length === 0) return classify(samples, palette);
+  const clear = samples.filter((_, i) => !aside[i]);
+  const main = classify(clear, palette);
+  const against = palette ?? (main.oneColour === null ? paletteFrom(clear) : null);
+  const side = against
+    ? classify(lit, against)
+    : {
+        cls: lit.map(() => 0 as const),
+        confidence: lit.map(() => 1),
+        outlier: lit.map(() => false),
+      };
+  const order = { clear: 0, lit: 0 };
+  const pick = <T>(
+    of: (c: Pick<Classification, 'cls' | 'confidence' | 'outlier'>, j: number) => T,
+  ) => samples.map((_, i) => (aside[i] ? of(side, order.lit++) : of(main, order.clear++)));
+  const cls = pick((c, j) => c.cls[j]!);
+  order.clear = order.lit = 0;
+  const confidence = pick((c, j) => c.confidence[j]!);
+  order.clear = order.lit = 0;
+  const outlier = pick((c, j) => c.outlier[j]!);
+  const classes = main.classes.length ? main.classes : against ? paletteClasses(against) : [];
+  return { cls, confidence, outlier, classes, oneColour: main.oneColour };
+}
+
+/**
  * Further than OUTLIER_SPREADS spreads from every shade of both palette colours: of neither marker
  * colour. A weaker or stronger shade of a colour (younger or older colonies of the strain) is
  * sorted to that colour (fromDensityLine) and is that colour, not an outlier.

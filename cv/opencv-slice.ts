@@ -86,6 +86,8 @@ export interface OpenCv {
   magnitude(x: Mat, y: Mat, dst: Mat): void;
   sqrt(src: Mat, dst: Mat): void;
   bitwise_and(a: Mat, b: Mat, dst: Mat, mask?: Mat): void;
+  max(a: Mat, b: Mat, dst: Mat): void;
+  min(a: Mat, b: Mat, dst: Mat): void;
   bitwise_or(a: Mat, b: Mat, dst: Mat, mask?: Mat): void;
   bitwise_not(a: Mat, dst: Mat, mask?: Mat): void;
   compare(a: Mat, b: Mat, dst: Mat, cmpop: number): void;

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { generatePlate } from '../fixtures/plate-generator.ts';
 import { analyzePlate } from './analyze.ts';
+import { classify, classifyAside } from './classify.ts';
 import { classifyWithPalette, learnPalette, paletteFromExamples } from './palette.ts';
 import type { Colony, Lab, Palette, PlateAnalysis } from './types.ts';
 
@@ -146,6 +147,45 @@ describe('palettes', () => {
     const batch = classifyWithPalette(soft, learnPalette([sharp, soft])!);
     expect(batch.neither).toEqual([]);
     expect(Object.values(batch.counts).sort()).toEqual([30, 30]);
+  });
+
+  // Lid glare adds its own light to a colony seen through it: a red colony there reads as a
+  // much lighter, greyer shade. Such colonies must not move the colours a batch learns.
+  it('colonies seen through lid glare teach no colours', () => {
+    const clear = plateOf([
+      { delta: [-24, 20, -6], n: 30 },
+      { delta: [5, -2, -3], n: 30 },
+    ]);
+    const lit = plateOf([{ delta: [-40, 4, -2], n: 25 }]).colonies.map((c) => ({
+      ...c,
+      glareLit: true as const,
+    }));
+    const withLit = { ...clear, colonies: [...clear.colonies, ...lit] };
+    expect(learnPalette([withLit])).toEqual(learnPalette([clear]));
+    // Counted as colonies, they would have taught a different pair.
+    const counted = {
+      ...clear,
+      colonies: [...clear.colonies, ...lit.map(({ glareLit, ...c }) => c)],
+    };
+    expect(learnPalette([counted])).not.toEqual(learnPalette([clear]));
+  });
+
+  it('a plate is sorted by its clear colonies, and a washed-out colony under glare by its shade', () => {
+    const clear = plateOf([
+      { delta: [-24, 20, -6], n: 30 },
+      { delta: [5, -2, -3], n: 30 },
+    ]).colonies;
+    // Half the dark colour's difference from the agar, as a reflection over it leaves.
+    const washed = plateOf([{ delta: [-12, 10, -3], n: 12 }]).colonies;
+    const all = [...clear, ...washed];
+    const aside = all.map((_, i) => i >= clear.length);
+    const own = classify(clear);
+    const sorted = classifyAside(all, aside);
+    expect(sorted.classes).toEqual(own.classes);
+    expect(sorted.cls.slice(0, clear.length)).toEqual(own.cls);
+    const dark = own.cls[0]!;
+    expect(sorted.cls.slice(clear.length).every((k) => k === dark)).toBe(true);
+    expect(sorted.outlier.every((o) => !o)).toBe(true);
   });
 
   it('re-sorting keeps image flags and recounts the colony flags', async () => {

@@ -1,5 +1,5 @@
 import {
-  classify,
+  classifyAside,
   colourFeature,
   OUTLIER_SPREADS,
   paletteFrom,
@@ -21,7 +21,7 @@ export function learnPalette(analyses: readonly PlateAnalysis[]): Palette | null
     const more = teachers(analyses, DOUBTFUL_BUT_FOCUS);
     if (more.twoColour.length > twoColour.length) ({ trusted, twoColour } = more);
   }
-  if (twoColour.length === 0) return paletteFrom(trusted.flatMap((a) => a.colonies));
+  if (twoColour.length === 0) return paletteFrom(trusted.flatMap((a) => clearOf(a)));
   return mergePalettes(twoColour);
 }
 
@@ -29,10 +29,15 @@ export function learnPalette(analyses: readonly PlateAnalysis[]): Palette | null
 function teachers(analyses: readonly PlateAnalysis[], doubtful: ReadonlySet<string>) {
   const trusted = analyses.filter((a) => isTrustworthy(a, doubtful));
   const twoColour = trusted.flatMap((a) => {
-    const p = paletteFrom(a.colonies, MIN_TEACHING_SHARE);
+    const p = paletteFrom(clearOf(a), MIN_TEACHING_SHARE);
     return p ? [{ palette: p, weight: a.colonies.length }] : [];
   });
   return { trusted, twoColour };
+}
+
+/** The colonies whose colour may teach: not those seen through lid glare (classify.ts). */
+function clearOf(a: PlateAnalysis): Colony[] {
+  return a.colonies.filter((c) => !c.glareLit);
 }
 
 /** Plates that may teach colours: the dish was found and nothing whole-plate is in doubt. */
@@ -111,7 +116,11 @@ export function paletteFromExamples(a: Colony, b: Colony, names?: [string, strin
  */
 export function classifyWithPalette(analysis: PlateAnalysis, palette: Palette): PlateAnalysis {
   const all = [...analysis.colonies, ...(analysis.neither ?? [])];
-  const result = classify(all, palette);
+  const result = classifyAside(
+    all,
+    all.map((c) => c.glareLit === true),
+    palette,
+  );
   const sorted = all.map((c, i) => ({
     ...c,
     cls: result.cls[i]!,

@@ -52,6 +52,8 @@ export interface Colony {
   /** Colony colour, and its difference from the agar right around it. */
   lab: Lab;
   deltaLab: Lab;
+  /** Seen through lid glare: its colour is mixed with the reflection and teaches no palette. */
+  glareLit?: true;
 }
 
 export interface ColourClass {

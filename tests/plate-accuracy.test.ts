@@ -41,7 +41,7 @@ describe('a batch of varied plates with 25–300 colonies', () => {
   beforeAll(async () => {
     const first = [];
     for (const [i, colonies] of SWEEP_COUNTS.entries()) {
-      // Lid glare hides the colonies under it by design; plates with glare are checked below.
+      // Glare is checked on its own below.
       const scene = varietyScene(100 + i, { colonies, fractionClass1: 0.3 + 0.04 * i, glare: 0 });
       first.push(await run(scene));
     }
@@ -94,15 +94,30 @@ describe('a batch of varied plates with 25–300 colonies', () => {
 });
 
 describe('plates under lid glare', () => {
-  it('flags the glare, counts nothing in it, and misses no more than the glare covers', async () => {
+  it('flags the glare and counts the colonies seen through it', async () => {
     for (const { run: r, score: s } of await scoredVariety([41, 42, 43], {
       colonies: 150,
       glare: 2,
     })) {
-      const glare = r.analysis.flags.find((f) => f.kind === 'glare');
-      expect(glare).toBeDefined();
+      expect(r.analysis.flags.map((f) => f.kind)).toContain('glare');
       expect(s.precision).toBeGreaterThan(0.95);
-      expect(-s.countError).toBeLessThan(0.03 + 2 * (glare as { fraction: number }).fraction);
+      expect(s.recall).toBeGreaterThan(0.95);
+      expect(Math.abs(s.countError)).toBeLessThan(0.03);
+    }
+  }, 60_000);
+
+  // A window's reflection has sharp edges and the dark bars of its frame; colonies show through
+  // it washed out. Before the background followed the glare (glare-background.ts), these plates
+  // lost up to 15 % of their colonies (recall 0.85–0.91) with the glare set aside.
+  it('counts the colonies under a reflected window, not its frame', async () => {
+    for (const { run: r, score: s } of await scoredVariety([41, 42, 43], {
+      colonies: 150,
+      glare: 2,
+      glareShape: 'window',
+    })) {
+      expect(r.analysis.flags.map((f) => f.kind)).toContain('glare');
+      expect(s.recall).toBeGreaterThan(0.93);
+      expect(s.precision).toBeGreaterThan(0.92);
     }
   }, 60_000);
 });
