@@ -149,6 +149,7 @@ function runPipeline(
           scale: frame.scale,
           wallMm: (x, y) => (1 - ellipseRadius(dishW, x, y)) * dishW.r * frame.mmPerPx,
           toOriginal: (x, y) => toOriginal(frame, x, y),
+          firstWiderId: split.regionCount + 1,
         })
       : null;
   const learned = options.model

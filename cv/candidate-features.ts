@@ -33,6 +33,8 @@ export interface FeatureInput {
   wallMm: (x: number, y: number) => number;
   /** Working → original pixels. */
   toOriginal: (x: number, y: number) => [number, number];
+  /** Region ids from this one up came from a learned model's wider search (absent: none did). */
+  firstWiderId?: number;
 }
 
 export function candidateFeatures(input: FeatureInput): CandidateFeatures[] {
@@ -59,6 +61,9 @@ export function candidateFeatures(input: FeatureInput): CandidateFeatures[] {
         wallMm: round(input.wallMm(r.x, r.y), 2),
         verdict: input.verdict.get(r.id) ?? 'rejected',
         plateColonies: input.verdict.size,
+        ...(input.firstWiderId !== undefined && r.id >= input.firstWiderId
+          ? { wider: true as const }
+          : {}),
       };
     });
 }

@@ -111,6 +111,15 @@ describe('the model file', () => {
     delete older.examples.found;
     expect(parseModel(JSON.stringify(older)).examples.found).toBeUndefined();
   });
+
+  it('keeps how many objects the default rules had kept were removed, and reads a file from before it', () => {
+    const removed = labels(5).filter((l) => !l.colony && l.features!.verdict === 'colony');
+    expect(removed.length).toBeGreaterThan(0);
+    expect(parseModel(good).examples.removed).toBe(removed.length);
+    const older = JSON.parse(good) as { examples: Record<string, number> };
+    delete older.examples.removed;
+    expect(parseModel(JSON.stringify(older)).examples.removed).toBeUndefined();
+  });
   const edit = (f: (m: Record<string, unknown>) => void) => {
     const m = JSON.parse(good) as Record<string, unknown>;
     f(m);

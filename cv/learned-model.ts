@@ -114,6 +114,7 @@ export function learnModel(
       colonies,
       other: usable.length - colonies,
       found: usable.filter((l) => l.colony && l.features!.verdict === 'rejected').length,
+      removed: usable.filter((l) => !l.colony && l.features!.verdict === 'colony').length,
     },
     features: [...FEATURE_NAMES],
     mean: mean.map(sig),
@@ -161,16 +162,33 @@ export function coloniesNeeded(model: LearnedModel): number {
 }
 
 /**
- * The model's verdict on one object. It overrules the default rules only for objects like those
- * the person overruled them on: it adds an object the rules rejected when each of its features
- * lies within the range of the labelled colonies, and drops one they kept when each lies within
- * the range of the objects the person removed (both widened by RANGE_MARGIN standard
- * deviations). Beyond them it would only extrapolate (colonies of another size or colour than the
- * lab ever checked), and the default rules stand.
+ * The model's verdict on one object. It overrules the default rules only where its labels hold
+ * enough such overrulings, and only for objects like those the person overruled them on.
+ *
+ * Enough: dropping what the rules kept is one decision, whose rare outcome is an object the
+ * person removed; adding what they rejected is another, whose rare outcome is a colony the person
+ * found among the rejected. Each needs as many of its rare outcome as decidesColonies asks of
+ * colonies (the same events-per-variable rule). A model fitted on few of them learns its slopes
+ * from the other objects: from three sparse plates of large colonies it learned "small and faint
+ * is not a colony" from the specks, and then dropped 68 of the 419 small colonies of a plates-dev
+ * photo that the default rules had right. Models from before these counts were kept are not held
+ * to them. What only the wider search found, the default rules never judged: the model alone
+ * does, its additions bounded by the rescued share (learned-select.ts).
+ *
+ * Like: it adds an object when each of its features lies within the range of the labelled
+ * colonies, and drops one when each lies within the range of the objects the person removed
+ * (both widened by RANGE_MARGIN standard deviations). Beyond them it would only extrapolate
+ * (colonies of another size or colour than the lab ever checked), and the default rules stand.
  */
 export function isColony(model: LearnedModel, f: CandidateFeatures): boolean {
   const byDefault = f.verdict === 'colony';
   if (!decidesColonies(model)) return byDefault;
+  const overrulings = byDefault
+    ? model.examples.removed
+    : f.wider
+      ? undefined
+      : model.examples.found;
+  if (overrulings !== undefined && overrulings < coloniesNeeded(model)) return byDefault;
   const range = byDefault ? model.removedRange : model.colonyRange;
   if (!range || !within(model, range, featureVector(f))) return byDefault;
   return colonyProbability(model, f) >= 0.5;

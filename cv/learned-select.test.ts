@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import type { Candidate } from './candidates.ts';
-import { FEATURE_NAMES } from './learned-model.ts';
+import { coloniesNeeded, FEATURE_NAMES, isColony } from './learned-model.ts';
 import { learnedCandidates } from './learned-select.ts';
 import type { RegionStats } from './measure.ts';
 import type { CandidateFeatures, LearnedModel } from './types.ts';
@@ -82,11 +82,11 @@ describe('the bound on what a learned model adds', () => {
   };
 
   it('adds no more than the share its labels rescued implies, the most probable first', () => {
-    // 10 of 200 labelled colonies were objects the rules had rejected, a share of 0.05: 100 other
-    // colonies take at most ceil(100 · 0.05 / 0.95) = 6 additions.
+    // 60 of 1200 labelled colonies were objects the rules had rejected, a share of 0.05: 100
+    // other colonies take at most ceil(100 · 0.05 / 0.95) = 6 additions.
     const model: LearnedModel = {
       ...addsAll,
-      examples: { colonies: 200, other: 100, found: 10 },
+      examples: { colonies: 1200, other: 100, found: 60 },
       intercept: -3,
       weights: FEATURE_NAMES.map((f) => (f === 'dE' ? 0.1 : 0)),
     };
@@ -101,5 +101,35 @@ describe('the bound on what a learned model adds', () => {
     const { considered, defaults, regions } = plate();
     const { candidates } = learnedCandidates(addsAll, considered, regions, defaults);
     expect(candidates).toHaveLength(160);
+  });
+});
+
+describe('overruling the default rules', () => {
+  // The events-per-variable rule (learned-model.ts decidesColonies) asked of each decision's
+  // rare outcome: objects people removed for drops, colonies they found among the rejected for
+  // additions.
+  const need = coloniesNeeded(rejectsAll);
+  const kept = object(1, 'colony');
+  const rejected = object(2, 'rejected');
+
+  it('drops a kept object only with enough removed ones among its labels', () => {
+    const few = { ...rejectsAll, examples: { colonies: 1000, other: 1000, removed: need - 1 } };
+    const enough = { ...few, examples: { ...few.examples, removed: need } };
+    expect(isColony(few, kept)).toBe(true);
+    expect(isColony(enough, kept)).toBe(false);
+  });
+
+  it('adds a rejected object only with enough rescued ones, but judges what only it found', () => {
+    const addsAll = { ...rejectsAll, intercept: 100 };
+    const few = { ...addsAll, examples: { colonies: 1000, other: 1000, found: need - 1 } };
+    const enough = { ...few, examples: { ...few.examples, found: need } };
+    expect(isColony(few, rejected)).toBe(false);
+    expect(isColony(enough, rejected)).toBe(true);
+    expect(isColony(few, { ...rejected, wider: true })).toBe(true);
+  });
+
+  it('holds a model from before the counts were kept to its ranges only, as then', () => {
+    expect(isColony(rejectsAll, kept)).toBe(false);
+    expect(isColony({ ...rejectsAll, intercept: 100 }, rejected)).toBe(true);
   });
 });

@@ -15,6 +15,7 @@ export function modelToJson(m: LearnedModel): string {
       colonies: m.examples.colonies,
       other: m.examples.other,
       ...(m.examples.found === undefined ? {} : { found: m.examples.found }),
+      ...(m.examples.removed === undefined ? {} : { removed: m.examples.removed }),
     },
     features: m.features,
     mean: m.mean,
@@ -73,6 +74,9 @@ export function parseModel(text: string): LearnedModel {
       colonies: count(examples.colonies, 'examples.colonies'),
       other: count(examples.other, 'examples.other'),
       ...(examples.found === undefined ? {} : { found: count(examples.found, 'examples.found') }),
+      ...(examples.removed === undefined
+        ? {}
+        : { removed: count(examples.removed, 'examples.removed') }),
     },
     features: [...FEATURE_NAMES],
     mean: numbers(raw.mean, 'mean', n),

@@ -158,6 +158,11 @@ export interface CandidateFeatures {
   verdict: CandidateVerdict;
   /** Objects the default rules kept on this plate: how crowded the plate is. */
   plateColonies: number;
+  /**
+   * Found only by a learned model's wider search (learned-model.ts searchReach): the default rules
+   * never judged it. Known while a plate is read, not stored with labels.
+   */
+  wider?: true;
 }
 
 export interface FeatureRange {
@@ -176,10 +181,12 @@ export interface LearnedModel {
   /** Checked plates it was learned from. */
   plates: number;
   /**
-   * Labelled objects: colonies and not, and of the colonies those the default rules had rejected
-   * (`found`; absent in models learned before it was kept: their additions are not bounded).
+   * Labelled objects: colonies and not; of the colonies those the default rules had rejected
+   * (`found`; absent in models learned before it was kept: their additions are not bounded); and
+   * of the others those the default rules had kept (`removed`; absent in models learned before it
+   * was kept: they drop colonies as their range allows).
    */
-  examples: { colonies: number; other: number; found?: number };
+  examples: { colonies: number; other: number; found?: number; removed?: number };
   features: string[];
   mean: number[];
   sd: number[];
