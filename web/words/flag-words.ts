@@ -85,7 +85,7 @@ export function plateFlagSentence(flag: PlateFlagCode): string {
     case 'dish-not-found':
       return 'Dish not found: drag the dish outline into place and re-read.';
     case 'glare':
-      return `Lid glare over ${Math.round(num(flag.fraction) * 100)}% of the agar: colonies under it may be missed.`;
+      return `Lid glare over ${Math.round(num(flag.fraction) * 100)}% of the agar: check the colonies under it, faint ones may be missed and their colour is the least sure.`;
     case 'clumps-estimated':
       return `${counted(num(flag.clumps), 'clump', 'clumps')} that could not be split, counted from their shape as ${counted(num(flag.colonies), 'colony', 'colonies')}.`;
     case 'low-confidence':
