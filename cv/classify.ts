@@ -101,29 +101,28 @@ export function classifyAside(
   palette?: Palette,
 ): Classification {
   const lit = samples.filter((_, i) => aside[i]);
-  if (lit.length === 0) return classify(samples, palette);
   const clear = samples.filter((_, i) => !aside[i]);
+  // With nothing clear to decide by, the plate is sorted as it is.
+  if (lit.length === 0 || clear.length === 0) return classify(samples, palette);
   const main = classify(clear, palette);
   const against = palette ?? (main.oneColour === null ? paletteFrom(clear) : null);
-  const side = against
+  const side: Sorted = against
     ? classify(lit, against)
-    : {
-        cls: lit.map(() => 0 as const),
-        confidence: lit.map(() => 1),
-        outlier: lit.map(() => false),
-      };
-  const order = { clear: 0, lit: 0 };
-  const pick = <T>(
-    of: (c: Pick<Classification, 'cls' | 'confidence' | 'outlier'>, j: number) => T,
-  ) => samples.map((_, i) => (aside[i] ? of(side, order.lit++) : of(main, order.clear++)));
-  const cls = pick((c, j) => c.cls[j]!);
-  order.clear = order.lit = 0;
-  const confidence = pick((c, j) => c.confidence[j]!);
-  order.clear = order.lit = 0;
-  const outlier = pick((c, j) => c.outlier[j]!);
-  const classes = main.classes.length ? main.classes : against ? paletteClasses(against) : [];
-  return { cls, confidence, outlier, classes, oneColour: main.oneColour };
+    : { cls: lit.map(() => 0), confidence: lit.map(() => 1), outlier: lit.map(() => false) };
+  const next = { clear: 0, lit: 0 };
+  const from = samples.map((_, i) =>
+    aside[i] ? { s: side, j: next.lit++ } : { s: main, j: next.clear++ },
+  );
+  return {
+    cls: from.map(({ s, j }) => s.cls[j]!),
+    confidence: from.map(({ s, j }) => s.confidence[j]!),
+    outlier: from.map(({ s, j }) => s.outlier[j]!),
+    classes: main.classes,
+    oneColour: main.oneColour,
+  };
 }
+
+type Sorted = Pick<Classification, 'cls' | 'confidence' | 'outlier'>;
 
 /**
  * Further than OUTLIER_SPREADS spreads from every shade of both palette colours: of neither marker

@@ -186,6 +186,13 @@ describe('palettes', () => {
     const dark = own.cls[0]!;
     expect(sorted.cls.slice(clear.length).every((k) => k === dark)).toBe(true);
     expect(sorted.outlier.every((o) => !o)).toBe(true);
+    // A plate seen wholly through glare has nothing clear to decide by: it is sorted as it is.
+    expect(
+      classifyAside(
+        washed,
+        washed.map(() => true),
+      ),
+    ).toEqual(classify(washed));
   });
 
   it('re-sorting keeps image flags and recounts the colony flags', async () => {
