@@ -79,6 +79,8 @@ const colony = object<ColonyRecord>({
   split: bool,
   lab: nullable(triple),
   deltaLab: nullable(triple),
+  // Absent on records from before it was kept: those colonies were not read through glare.
+  glareLit: (v, f) => (v === undefined ? undefined : bool(v, f)),
 });
 
 const edit: Check<Edit> = (v, f) => {

@@ -169,6 +169,8 @@ export interface ColonyRecord {
   /** Colony colour and its difference from the nearby agar, CIE L*a*b*; null when added by hand. */
   lab: [number, number, number] | null;
   deltaLab: [number, number, number] | null;
+  /** Seen through lid glare: its colour is mixed with the reflection and teaches no palette. */
+  glareLit?: boolean;
 }
 
 export interface DishRecord {

@@ -29,6 +29,7 @@ export function analysisRecord(
     split: c.split,
     lab: [...c.lab],
     deltaLab: [...c.deltaLab],
+    ...(c.glareLit ? { glareLit: true } : {}),
   }));
   const cls = (i: 0 | 1): ClassRecord => {
     const k = a.classes.find((c) => c.cls === i);
@@ -92,7 +93,19 @@ export function candidateFeaturesOf(records: readonly CandidateRecord[]): Candid
 export function colonyOf(c: ColonyRecord): Colony | null {
   if (!c.lab || !c.deltaLab) return null;
   const { x, y, r, area, cls, confidence, split, count, lab, deltaLab } = c;
-  return { x, y, r, area, cls, confidence, split, count, lab, deltaLab };
+  return {
+    x,
+    y,
+    r,
+    area,
+    cls,
+    confidence,
+    split,
+    count,
+    lab,
+    deltaLab,
+    ...(c.glareLit ? { glareLit: true as const } : {}),
+  };
 }
 
 /**
