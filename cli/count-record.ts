@@ -11,7 +11,15 @@ export interface CountRecord {
   width: number;
   height: number;
   dish: { cx: number; cy: number; r: number; rx: number; ry: number; angleDeg: number } | null;
-  colonies: { x: number; y: number; r: number; cls: number; confidence: number; count: number }[];
+  colonies: {
+    x: number;
+    y: number;
+    r: number;
+    cls: number;
+    confidence: number;
+    count: number;
+    glareLit?: true;
+  }[];
   counts: Record<string, number>;
   classes: { cls: number; name: string; hex: string }[];
   total: number;
@@ -49,6 +57,7 @@ export function countRecord(
       cls: c.cls,
       confidence: c.confidence,
       count: c.count,
+      ...(c.glareLit ? { glareLit: true as const } : {}),
     })),
     counts: a.counts,
     classes: a.classes.map((c) => ({ cls: c.cls, name: c.name, hex: c.hex })),
