@@ -46,6 +46,15 @@ export function colourFeature(d: Lab): Point {
 }
 
 export function classify(samples: readonly ColourSample[], palette?: Palette): Classification {
+  return sortBy(samples, palette, palette ?? paletteFrom(samples));
+}
+
+/** classify with the colours to sort by already known: `palette`, or the plate's own (`model`). */
+function sortBy(
+  samples: readonly ColourSample[],
+  palette: Palette | undefined,
+  model: Palette | null,
+): Classification {
   if (samples.length === 0) {
     return {
       cls: [],
@@ -56,7 +65,6 @@ export function classify(samples: readonly ColourSample[], palette?: Palette): C
     };
   }
   const features = samples.map((s) => colourFeature(s.deltaLab));
-  const model = palette ?? paletteFrom(samples);
   if (!model) {
     const lab = meanLab(samples.map((s) => s.lab));
     const delta = meanLab(samples.map((s) => s.deltaLab));
@@ -104,8 +112,8 @@ export function classifyAside(
   const clear = samples.filter((_, i) => !aside[i]);
   // With nothing clear to decide by, the plate is sorted as it is.
   if (lit.length === 0 || clear.length === 0) return classify(samples, palette);
-  const main = classify(clear, palette);
-  const against = palette ?? (main.oneColour === null ? paletteFrom(clear) : null);
+  const against = palette ?? paletteFrom(clear);
+  const main = sortBy(clear, palette, against);
   const side: Sorted = against
     ? classify(lit, against)
     : { cls: lit.map(() => 0), confidence: lit.map(() => 1), outlier: lit.map(() => false) };
