@@ -7,6 +7,7 @@ import { withMats } from './mat-scope.ts';
 import type { Mat, OpenCv } from './opencv.ts';
 import type { Size } from './opencv-slice.ts';
 import type { Dish, Lab } from './types.ts';
+import { followWall } from './wall-background.ts';
 
 /**
  * The agar and its local colour.
@@ -17,9 +18,10 @@ import type { Dish, Lab } from './types.ts';
  *  - `background8`: the agar colour expected at each pixel with colonies removed, same encoding: a
  *    two-pass median over a window several colonies wide, at quarter resolution. This flattens a
  *    one-sided lamp, vignetting and a colour cast, since colonies are judged against the agar
- *    right around them and not against one global agar colour. Under lid glare (glare.ts) it is
- *    the reflection's own light, which a window or a lamp gives sharp edges and bars that no
- *    median that wide follows (glare-background.ts);
+ *    right around them and not against one global agar colour. Within 3 mm of the wall it follows
+ *    the meniscus's rings, which no median that wide follows (wall-background.ts); under lid glare
+ *    (glare.ts) it is the reflection's own light, which a window or a lamp gives sharp edges and
+ *    bars (glare-background.ts);
  *  - `deltaE`: ΔE*ab of each pixel from that background (CV_32FC1),
  *  - `countMask`: where colonies may be counted (the agar, glare included), 8-bit 0/255,
  *  - `rim`, `glareZone`: the bands next to the wall and round glare where the rejection rules in
@@ -67,6 +69,7 @@ export function modelAgar(
   const background8 = keep(
     medianBackground(cv, quarter, { width: rgb.cols, height: rgb.rows }, frame),
   );
+  followWall(cv, lab8, background8, dish, frame.mmPerPx);
   followGlare(cv, lab8, background8, glare, frame.mmPerPx);
   const deltaE = keep(labDistance(cv, lab8, background8));
   const countMask = agarMask;

@@ -73,6 +73,7 @@ export interface OpenCv {
 
   cvtColor(src: Mat, dst: Mat, code: number, dstCn?: number): void;
   resize(src: Mat, dst: Mat, dsize: Size, fx?: number, fy?: number, interpolation?: number): void;
+  remap(src: Mat, dst: Mat, mapX: Mat, mapY: Mat, interpolation: number, borderMode?: number): void;
   split(src: Mat, dst: MatVector): void;
   merge(src: MatVector, dst: Mat): void;
   medianBlur(src: Mat, dst: Mat, ksize: number): void;
@@ -190,6 +191,7 @@ export interface OpenCv {
   INTER_AREA: number;
   INTER_LINEAR: number;
   INTER_NEAREST: number;
+  BORDER_REPLICATE: number;
   THRESH_BINARY: number;
   THRESH_BINARY_INV: number;
   THRESH_OTSU: number;
