@@ -210,15 +210,12 @@ function byOwnClusters(
  * show only one colour. Class 0 is the darker colour relative to the agar.
  */
 export function paletteFrom(samples: readonly ColourSample[], minShare = 0): Palette | null {
-  const features = samples.map((s) => colourFeature(s.deltaLab));
-  const clusters = kmeans2(features);
-  if (!clusters || !isTwoColours(clusters)) return null;
-  if (Math.min(...clusters.sizes) < minShare * samples.length) return null;
-  const groups = [0, 1].map((k) => samples.filter((_, i) => clusters.assignment[i] === k));
-  const colours = groups.map((g, k) => ({
-    lab: meanLab(g.map((s) => s.lab)),
-    deltaLab: meanLab(g.map((s) => s.deltaLab)),
-    spread: clusters.spreads[k as 0 | 1],
+  const groups = twoGroups(samples, minShare);
+  if (!groups) return null;
+  const colours = groups.map(({ members, spread }) => ({
+    lab: meanLab(members.map((s) => s.lab)),
+    deltaLab: meanLab(members.map((s) => s.deltaLab)),
+    spread,
   }));
   colours.sort((a, b) => a.deltaLab[0] - b.deltaLab[0]);
   const [c0, c1] = colours as [(typeof colours)[0], (typeof colours)[0]];
@@ -230,6 +227,31 @@ export function paletteFrom(samples: readonly ColourSample[], minShare = 0): Pal
       { name: n1, hex: labToHex(c1.lab), deltaLab: c1.deltaLab, spread: c1.spread },
     ],
   };
+}
+
+/**
+ * The plate's colonies in two colour groups with their spreads, or null when they show one colour.
+ * With `minShare`, each group must hold that share of the colonies (see palette.ts); a split that
+ * leaves fewer in one group is as likely a few strays as a rare strain (blobs of ink, the wall's
+ * tinted crumbs, far off in colour and alike, so more than kmeans2's strays), which are set aside
+ * and the rest split again, up to STRAY_SPLITS times: two colours behind them still teach.
+ */
+const STRAY_SPLITS = 3;
+function twoGroups(samples: readonly ColourSample[], minShare: number) {
+  let kept = samples;
+  for (let round = 0; round < STRAY_SPLITS; round++) {
+    const clusters = kmeans2(kept.map((s) => colourFeature(s.deltaLab)));
+    if (!clusters || !isTwoColours(clusters)) return null;
+    const small = clusters.sizes[0] <= clusters.sizes[1] ? 0 : 1;
+    if (clusters.sizes[small] >= minShare * kept.length) {
+      return ([0, 1] as const).map((k) => ({
+        members: kept.filter((_, i) => clusters.assignment[i] === k),
+        spread: clusters.spreads[k],
+      }));
+    }
+    kept = kept.filter((_, i) => clusters.assignment[i] !== small);
+  }
+  return null;
 }
 
 /** A palette taught by pointing at one colony of each colour. */

@@ -105,6 +105,27 @@ describe('palettes', () => {
     expect(Math.abs(learnedPale.deltaLab[1] - pale[1])).toBeLessThan(2);
   });
 
+  it('a few far strays on a two-colour plate are set aside, and its two colours still teach', () => {
+    const dark: Lab = [-27, 4, -20];
+    const pale: Lab = [5, -2, 3];
+    // Three pieces of green writing, far from both colours and alike: a cluster of their own for
+    // k-means (its strays are single objects), 1 % of the plate, too few to be a colour.
+    const ink: Lab = [-20, -52, 50];
+    const plate = (withInk: boolean) =>
+      plateOf([
+        { delta: dark, n: 130 },
+        { delta: pale, n: 130 },
+        ...(withInk ? [{ delta: ink, n: 3 }] : []),
+      ]);
+    const clean = learnPalette([plate(false), plate(false)])!;
+    const palette = learnPalette([plate(true), plate(true)]);
+    expect(palette).not.toBeNull();
+    palette!.colours.forEach((c, k) => {
+      for (let j = 0; j < 3; j++)
+        expect(Math.abs(c.deltaLab[j]! - clean.colours[k]!.deltaLab[j]!)).toBeLessThan(0.5);
+    });
+  });
+
   it('colonies weaker than the palette colour are sorted by their pigment, not their strength', () => {
     // This plate's dark colonies are half as far from the agar as the palette's (young colonies:
     // by the Beer–Lambert law a thinner layer of the same pigment differs less from the agar, in
