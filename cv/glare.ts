@@ -14,7 +14,8 @@ import type { Mat, OpenCv } from './opencv.ts';
  * A pixel is glare-lit when its L* is more than GLARE_LIGHTER above the agar's large-scale level
  * (a median over GLARE_WINDOW_MM, which follows a lamp gradient but not a patch) and its chroma is
  * at least GLARE_GREYER below the agar's there. Only patches that hold a disc of
- * GLARE_MIN_DIAMETER_MM survive (an opening), larger than any pale colony or pale pair, and the
+ * GLARE_MIN_DIAMETER_MM survive (an opening), larger than any pale colony or pale pair, or that
+ * are the narrower panes of a reflected window (windowPanes), and the
  * soft halo around each is taken in by a dilation GLARE_HALO times that size.
  */
 const GLARE_LIGHTER = 6;
@@ -50,9 +51,11 @@ export function glareMask(cv: OpenCv, quarterLab8: Mat, agarMask: Mat, frame: Wo
     const lit = keep(new cv.Mat());
     both.convertTo(lit, cv.CV_8U);
 
+    const panes = keep(windowPanes(cv, keep, lit, qmm));
     const k = oddAtLeast(3, GLARE_MIN_DIAMETER_MM / qmm);
     const disc = keep(cv.getStructuringElement(cv.MORPH_ELLIPSE, new cv.Size(k, k)));
     cv.morphologyEx(lit, lit, cv.MORPH_OPEN, disc);
+    cv.bitwise_or(lit, panes, lit);
     const h = oddAtLeast(3, (GLARE_HALO * GLARE_MIN_DIAMETER_MM) / qmm);
     cv.dilate(lit, lit, keep(cv.getStructuringElement(cv.MORPH_ELLIPSE, new cv.Size(h, h))));
     const out = new cv.Mat();
@@ -60,6 +63,41 @@ export function glareMask(cv: OpenCv, quarterLab8: Mat, agarMask: Mat, frame: Wo
     cv.bitwise_and(out, agarMask, out);
     return out;
   });
+}
+
+/**
+ * The panes of a reflected window: a window's frame bars cut its reflection into panes that may
+ * be narrower than GLARE_MIN_DIAMETER_MM. A lit patch that holds a disc half that wide, is at
+ * least as large as the full disc and is convex (its area at least PANE_SOLIDITY of its convex
+ * hull's, a rectangle's 1) is a pane; pale colonies are smaller, and a clump of them is lobed.
+ * Solidity (area over convex hull area) is the usual measure of convexity (Gonzalez & Woods,
+ * "Digital Image Processing", on regional descriptors, cited from memory).
+ */
+const PANE_SOLIDITY = 0.9;
+function windowPanes(cv: OpenCv, keep: Keep, lit: Mat, qmm: number): Mat {
+  const panes = cv.Mat.zeros(lit.rows, lit.cols, cv.CV_8UC1);
+  const opened = keep(new cv.Mat());
+  const k = oddAtLeast(3, GLARE_MIN_DIAMETER_MM / 2 / qmm);
+  cv.morphologyEx(
+    lit,
+    opened,
+    cv.MORPH_OPEN,
+    keep(cv.getStructuringElement(cv.MORPH_ELLIPSE, new cv.Size(k, k))),
+  );
+  const contours = keep(new cv.MatVector());
+  const hierarchy = keep(new cv.Mat());
+  cv.findContours(opened, contours, hierarchy, cv.RETR_EXTERNAL, cv.CHAIN_APPROX_SIMPLE);
+  const minArea = Math.PI * (GLARE_MIN_DIAMETER_MM / 2 / qmm) ** 2;
+  for (let i = 0; i < contours.size(); i++) {
+    const contour = keep(contours.get(i));
+    const area = cv.contourArea(contour);
+    if (area < minArea) continue;
+    const hull = keep(new cv.Mat());
+    cv.convexHull(contour, hull, false, true);
+    if (area >= PANE_SOLIDITY * cv.contourArea(hull))
+      cv.drawContours(panes, contours, i, [255, 0, 0, 0], -1);
+  }
+  return panes;
 }
 
 /** L* (0..100) and chroma C*ab of an 8-bit Lab image, as CV_32F planes. */
