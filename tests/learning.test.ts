@@ -98,8 +98,10 @@ describe('learning from three corrected plates', () => {
     // The property the analysis keeps by splitting and measuring the wider search's objects on
     // their own (cv/analyze.ts). Its breach was seen on photos the generator does not draw (the
     // extra objects changed the plate's typical colony, and the default rules kept some of them);
-    // on these plates it held before too, so this guards it and does not reproduce it.
-    const p = plate(520, PINPOINT, 120);
+    // on these plates it held before too, so this guards it and does not reproduce it. The plate is
+    // one where the wider search finds something (4 objects); since the background follows the
+    // wall's rings (cv/wall-background.ts), most of these plates give it nothing more to find.
+    const p = plate(509, PINPOINT, 120);
     const key = (c: { x: number; y: number }) => `${c.x},${c.y}`;
     const colonies = (a: PlateAnalysis) =>
       a.candidates!.filter((c) => c.verdict === 'colony').map(key);
