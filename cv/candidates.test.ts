@@ -98,6 +98,39 @@ describe('selectCandidates: stroke-shaped blobs', () => {
 });
 
 /**
+ * A letter cut by the watershed into twelve pieces: six times longer than its widest disc, its
+ * ridge varying as much as a chain of discs' (0.25, the corners and joins), one contrast bump at a
+ * stroke's end. The same blob with a dome in every other piece is a clump of colonies.
+ */
+function letter(bumps: number): { regions: RegionStats[]; components: ComponentStats[] } {
+  const regions = Array.from({ length: 2 * COLONIES }, (_, i) =>
+    colony(i + 1, 20 + RADIUS * i, 40, { component: 1, bumps: i < bumps ? 1 : 0 }),
+  );
+  const components = [
+    blob(1, COLONIES * Math.PI * RADIUS ** 2, {
+      halfWidth: RADIUS,
+      regions: 2 * COLONIES,
+      meanDistance: RADIUS / 2,
+      ridgeVariation: 0.25,
+      bumps,
+    }),
+  ];
+  return { regions, components };
+}
+
+describe('selectCandidates: a long blob of many pieces with hardly a dome', () => {
+  const kept = (bumps: number) => keptIds(letter(bumps).regions, letter(bumps).components).length;
+
+  it('is writing, whatever its ridge', () => {
+    expect(kept(1)).toBe(0);
+  });
+
+  it('is a clump of colonies when its pieces show domes', () => {
+    expect(kept(COLONIES)).toBeGreaterThan(0);
+  });
+});
+
+/**
  * A small spot of the agar's own lightness but tinted (Δb* −12): a blue-grey colony on yellow agar
  * can match the agar's L*, and JPEG's half-resolution chroma leaves such a tint beside a
  * saturated colony too. Alone or beside one of the same tint it is a colony; beside one at least

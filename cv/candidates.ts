@@ -349,6 +349,7 @@ function componentVerdict(
   if (elongation > STROKE_ELONGATION && c.ridgeVariation < variation && !isChainOfDomes(c)) {
     return 'strokes';
   }
+  if (elongation > STROKE_ELONGATION && isDomeless(c)) return 'strokes';
   if (c.rimPixels > 0 && c.halfWidth < WALL_THINNESS * typicalRadius) return 'wall';
   return 'keep';
 }
@@ -363,6 +364,19 @@ const DOMES_PER_REGION = 0.5;
 const MIN_DOMES = 3;
 function isChainOfDomes(c: ComponentStats): boolean {
   return c.bumps >= Math.max(MIN_DOMES, DOMES_PER_REGION * c.regions);
+}
+
+/**
+ * A long blob the watershed cut into many pieces of which fewer than one in DOMELESS_PIECES holds
+ * a dome, and fewer than MIN_DOMES in all, is writing whatever its ridge: a letter's corners and
+ * joins vary its thickness as much as a chain of discs does (its ridge's coefficient of
+ * variation reaches 0.25–0.27), but each colony in a row is a dome of its own. Rows and clumps of
+ * touching colonies on crowded plates show one dome in six pieces or more (the watershed cuts a
+ * clump into more pieces than colonies), so a tenth leaves them room.
+ */
+const DOMELESS_PIECES = 10;
+function isDomeless(c: ComponentStats): boolean {
+  return c.bumps < MIN_DOMES && c.bumps * DOMELESS_PIECES < c.regions;
 }
 
 /**
