@@ -146,9 +146,7 @@ function isNeither(f: Point, palette: Palette): boolean {
  * (fromDensityLine), in that colour's spreads.
  */
 export function spreadsFromShade(f: Point, c: PaletteColour): number {
-  return (
-    fromDensityLine(f, colourFeature(c.deltaLab), DENSITY_RANGE) / Math.max(MIN_SPREAD, c.spread)
-  );
+  return shadeDistance(f, colourFeature(c.deltaLab)) / Math.max(MIN_SPREAD, c.spread);
 }
 
 /** This plate's own two colours, when its colonies show two (cluster.ts), else null. */
@@ -178,6 +176,10 @@ function agrees(own: TwoClusters, palette: Palette): boolean {
  * palette only says which cluster is which colour (the pairing of centres with the smaller total
  * distance). Lighting, white balance and the agar's batch shift both colours of a plate alike, so
  * the plate's own split is sharper than the distance to colours learned on other plates.
+ * Each colony goes to the own colour it is fewer spreads from, measured to that colour's shades
+ * (fromDensityLine), as against a palette: k-means's plain nearer-centre split put small, weak
+ * colonies of a wide, strong colour (a thinner layer of the same pigment) with a tight pale one
+ * whose centre lies nearer the agar.
  * A colony far from both palette colours is marked as an outlier for the person to judge.
  */
 function byOwnClusters(
@@ -193,15 +195,15 @@ function byOwnClusters(
   const cls: ColonyClass[] = [];
   const confidence: number[] = [];
   const outlier: boolean[] = [];
-  features.forEach((f, i) => {
-    const d0 = distance(f, own.centres[0]) / spreads[0]!;
-    const d1 = distance(f, own.centres[1]) / spreads[1]!;
-    const k = own.assignment[i] as 0 | 1;
+  for (const f of features) {
+    const d0 = shadeDistance(f, own.centres[0]) / spreads[0]!;
+    const d1 = shadeDistance(f, own.centres[1]) / spreads[1]!;
+    const k: 0 | 1 = d0 <= d1 ? 0 : 1;
     cls.push(classOf(k));
     const total = d0 + d1;
     confidence.push(total === 0 ? 0.5 : (k === 0 ? d1 : d0) / total);
     outlier.push(isNeither(f, palette));
-  });
+  }
   return { cls, confidence, outlier, classes: paletteClasses(palette), oneColour: null };
 }
 
@@ -289,6 +291,11 @@ function paletteClasses(p: Palette): ColourClass[] {
  * and what is stronger still is more often ink than a colony. Two plates' colours are compared
  * both ways (either may be the stronger).
  */
+/** Distance from f to the nearest shade of the colour c, over the palettes' range of shades. */
+function shadeDistance(f: Point, c: Point): number {
+  return fromDensityLine(f, c, DENSITY_RANGE);
+}
+
 function fromDensityLine(f: Point, c: Point, strongest = 1): number {
   const cc = c[0] * c[0] + c[1] * c[1] + c[2] * c[2];
   const t = cc === 0 ? 1 : (f[0] * c[0] + f[1] * c[1] + f[2] * c[2]) / cc;

@@ -136,6 +136,22 @@ describe('palettes', () => {
     expect(sorted.counts).toEqual({ ancestor: 30, evolved: 0 });
   });
 
+  it('a plate sorted by its own two colours puts weak colonies with their pigment', () => {
+    // A plate of both strains whose dark colonies vary widely in strength and whose pale ones
+    // hardly vary, plus eight small dark colonies a third as far from the agar as the dark
+    // colour (Beer–Lambert, as above). In plain distance they are nearer the tight pale centre,
+    // where k-means's split left them; in the plate's own spreads, and along the dark colour's
+    // line from the agar, they are the dark strain.
+    const plate = plateOf([
+      { delta: [-24, 20, -6], n: 60, scatter: [8, -8, 4] },
+      { delta: [5, -2, -3], n: 60, scatter: [1, -0.5, 0.3] },
+      { delta: [-6, 6, -4.5], n: 8, scatter: [0.2, 0.2, 0.1] },
+    ]);
+    const sorted = classifyWithPalette(plate, competitionPalette(6, 2));
+    expect(sorted.flags.map((f) => f.kind)).not.toContain('one-colour');
+    expect(sorted.counts).toEqual({ ancestor: 68, evolved: 60 });
+  });
+
   it('a weaker shade of a palette colour is that colour, never of neither colour', () => {
     // Colonies 0.6 as far from the agar as the palette's dark colour, against a palette learned
     // from plates whose colonies hardly varied: far from both colours' centres in their spreads,
