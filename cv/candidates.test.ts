@@ -63,25 +63,36 @@ function keptIds(
 }
 
 /**
- * A row of six touching colonies, one watershed region each: as a blob it is six times longer
- * than its widest disc and its ridge hardly varies (the colonies overlap), which is the shape of
- * a pen line.
+ * One long blob of `pieces` watershed regions `spacing` apart along a line, as long as `COLONIES`
+ * widest discs, its ridge varying by `ridgeVariation`; the first `bumps` pieces hold a bump.
  */
-function row(bumps: number): { regions: RegionStats[]; components: ComponentStats[] } {
-  const regions = Array.from({ length: COLONIES }, (_, i) =>
-    colony(i + 1, 20 + 2 * RADIUS * i, 40, { component: 1 }),
+function longBlob(
+  pieces: number,
+  spacing: number,
+  ridgeVariation: number,
+  bumps: number,
+): { regions: RegionStats[]; components: ComponentStats[] } {
+  const regions = Array.from({ length: pieces }, (_, i) =>
+    colony(i + 1, 20 + spacing * i, 40, { component: 1, bumps: i < bumps ? 1 : 0 }),
   );
   const components = [
     blob(1, COLONIES * Math.PI * RADIUS ** 2, {
       halfWidth: RADIUS,
-      regions: COLONIES,
+      regions: pieces,
       meanDistance: RADIUS / 2,
-      ridgeVariation: 0.1,
+      ridgeVariation,
       bumps,
     }),
   ];
   return { regions, components };
 }
+
+/**
+ * A row of six touching colonies, one watershed region each: as a blob it is six times longer
+ * than its widest disc and its ridge hardly varies (the colonies overlap), which is the shape of
+ * a pen line.
+ */
+const row = (bumps: number) => longBlob(COLONIES, 2 * RADIUS, 0.1, bumps);
 
 describe('selectCandidates: stroke-shaped blobs', () => {
   const kept = (bumps: number) => keptIds(row(bumps).regions, row(bumps).components).length;
@@ -102,21 +113,7 @@ describe('selectCandidates: stroke-shaped blobs', () => {
  * ridge varying as much as a chain of discs' (0.25, the corners and joins), one contrast bump at a
  * stroke's end. The same blob with a dome in every other piece is a clump of colonies.
  */
-function letter(bumps: number): { regions: RegionStats[]; components: ComponentStats[] } {
-  const regions = Array.from({ length: 2 * COLONIES }, (_, i) =>
-    colony(i + 1, 20 + RADIUS * i, 40, { component: 1, bumps: i < bumps ? 1 : 0 }),
-  );
-  const components = [
-    blob(1, COLONIES * Math.PI * RADIUS ** 2, {
-      halfWidth: RADIUS,
-      regions: 2 * COLONIES,
-      meanDistance: RADIUS / 2,
-      ridgeVariation: 0.25,
-      bumps,
-    }),
-  ];
-  return { regions, components };
-}
+const letter = (bumps: number) => longBlob(2 * COLONIES, RADIUS, 0.25, bumps);
 
 describe('selectCandidates: a long blob of many pieces with hardly a dome', () => {
   const kept = (bumps: number) => keptIds(letter(bumps).regions, letter(bumps).components).length;

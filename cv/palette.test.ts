@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { generatePlate } from '../fixtures/plate-generator.ts';
+import { madeUpReading } from '../tests/support/made-up-reading.ts';
 import { analyzePlate } from './analyze.ts';
 import { classify, classifyAside } from './classify.ts';
 import { classifyWithPalette, learnPalette, paletteFromExamples } from './palette.ts';
@@ -33,20 +34,7 @@ function plateOf(groups: { delta: Lab; n: number; scatter?: Lab }[]): PlateAnaly
       };
     }),
   );
-  return {
-    width: 100,
-    height: 100,
-    scale: 1,
-    dish: null,
-    colonies,
-    neither: [],
-    counts: {},
-    classes: [],
-    agarLab: agar,
-    flags: [],
-    edgeWidthMm: null,
-    timings: {},
-  };
+  return madeUpReading(colonies, { agarLab: agar });
 }
 
 /** Two strains, a dark ancestor and a pale evolved line, with the spreads given. */

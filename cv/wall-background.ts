@@ -111,7 +111,7 @@ function unroll(cv: OpenCv, keep: Keep, lab8: Mat, e: AgarEllipse, { depth, colu
  * Per row and Lab plane, the median of `windows` evenly spaced windows of `window` columns round
  * the strip (it wraps), outliers among them replaced (see above): rows × windows × 3 values.
  */
-export function ringMedians(
+function ringMedians(
   strip: Uint8Array,
   { depth, columns }: Band,
   window: number,
@@ -148,7 +148,7 @@ function medianOf(histogram: Int32Array, count: number): number {
 }
 
 /** Windows far from the row's median window (see above) take their typical neighbours' value. */
-export function replaceOutliers(row: Uint8Array): void {
+function replaceOutliers(row: Uint8Array): void {
   const n = row.length;
   const median = sortedMedian(Array.from(row));
   const spread = 1.4826 * sortedMedian(Array.from(row, (v) => Math.abs(v - median)));

@@ -1,4 +1,5 @@
 import type { Colony, PlateAnalysis } from '../../cv/index.ts';
+import { madeUpReading } from './made-up-reading.ts';
 
 /** A colony of a made-up reading, seen through lid glare or not. */
 export function colonyAt(x: number, glareLit: boolean): Colony {
@@ -19,18 +20,9 @@ export function colonyAt(x: number, glareLit: boolean): Colony {
 
 /** A made-up reading of a plate under lid glare: one red colony in the clear, one seen through it. */
 export function glareReading(colonies = [colonyAt(10, false), colonyAt(30, true)]): PlateAnalysis {
-  return {
-    width: 100,
-    height: 100,
-    scale: 1,
-    dish: null,
-    colonies,
-    neither: [],
+  return madeUpReading(colonies, {
     counts: { red: colonies.length },
     classes: [{ cls: 0, name: 'red', hex: '#a03030', deltaLab: [-20, 15, 5] }],
-    agarLab: [60, 15, 5],
     flags: [{ kind: 'glare', fraction: 0.1 }],
-    edgeWidthMm: null,
-    timings: {},
-  };
+  });
 }
