@@ -51,7 +51,7 @@ export function glareMask(cv: OpenCv, quarterLab8: Mat, agarMask: Mat, frame: Wo
     const lit = keep(new cv.Mat());
     both.convertTo(lit, cv.CV_8U);
 
-    const panes = keep(windowPanes(cv, keep, lit, qmm));
+    const panes = windowPanes(cv, keep, lit, qmm);
     const k = oddAtLeast(3, GLARE_MIN_DIAMETER_MM / qmm);
     const disc = keep(cv.getStructuringElement(cv.MORPH_ELLIPSE, new cv.Size(k, k)));
     cv.morphologyEx(lit, lit, cv.MORPH_OPEN, disc);
@@ -74,8 +74,9 @@ export function glareMask(cv: OpenCv, quarterLab8: Mat, agarMask: Mat, frame: Wo
  * "Digital Image Processing", on regional descriptors, cited from memory).
  */
 const PANE_SOLIDITY = 0.9;
+/** The panes found in `lit` (0/255), kept in the caller's scope. */
 function windowPanes(cv: OpenCv, keep: Keep, lit: Mat, qmm: number): Mat {
-  const panes = cv.Mat.zeros(lit.rows, lit.cols, cv.CV_8UC1);
+  const panes = keep(cv.Mat.zeros(lit.rows, lit.cols, cv.CV_8UC1));
   const opened = keep(new cv.Mat());
   const k = oddAtLeast(3, GLARE_MIN_DIAMETER_MM / 2 / qmm);
   cv.morphologyEx(
