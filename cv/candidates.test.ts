@@ -195,6 +195,58 @@ describe('selectCandidates: pieces of a line as thick as a colony', () => {
 });
 
 /**
+ * A crowded plate of blue-grey colonies on beige agar: nineteen small ones read lighter than the
+ * marker ink (a thin layer of pigment), two large round ones are as dark and colourless as it,
+ * and a clump of three large ones touches (a blob too long to be round). The two are under a
+ * tenth of the round blobs but all of those at least a typical colony thick.
+ */
+function blueGreyPlate(largeRound: number): {
+  regions: RegionStats[];
+  components: ComponentStats[];
+} {
+  const agar = { backgroundLab: [65, 2, 22] as const };
+  const inkDark = { ...agar, lab: [45, 0, -4] as const };
+  const regions: RegionStats[] = [];
+  const components: ComponentStats[] = [];
+  for (let i = 0; i < 19; i++) {
+    const small = { area: Math.PI * 9, halfWidth: 3, lab: [58, 0, 10] as const, ...agar };
+    regions.push(colony(i + 1, 20 + 12 * i, 20, small));
+    components.push(blob(i + 1, small.area));
+  }
+  for (let i = 0; i < largeRound; i++) {
+    const large = { area: Math.PI * 36, halfWidth: 6, ...inkDark };
+    regions.push(colony(30 + i, 30 + 20 * i, 60, large));
+    components.push(blob(30 + i, large.area));
+  }
+  for (let i = 0; i < 3; i++)
+    regions.push(colony(40 + i, 40 + 2 * RADIUS * i, 100, { ...inkDark, component: 40 }));
+  components.push(
+    blob(40, 3 * Math.PI * RADIUS ** 2, {
+      halfWidth: RADIUS,
+      regions: 3,
+      bumps: 3,
+      ridgeVariation: 0.3,
+    }),
+  );
+  return { regions, components };
+}
+
+describe('selectCandidates: dark ink against dark colonies', () => {
+  const clumpKept = (largeRound: number) => {
+    const { regions, components } = blueGreyPlate(largeRound);
+    return keptIds(regions, components).filter((id) => id >= 40);
+  };
+
+  it('keeps a clump of colonies as dark as ink when the thick round colonies are that dark', () => {
+    expect(clumpKept(2)).toEqual([40, 41, 42]);
+  });
+
+  it('still takes such a clump for ink when no round colony is that dark', () => {
+    expect(clumpKept(0)).toEqual([]);
+  });
+});
+
+/**
  * A small deep-red colony on pink agar whose tint the blur has washed out: darker than the agar,
  * within a few units of it in a* and b*, too small and faint for the size-and-contrast exemption.
  * Shading looks the same in colour; a colony is a dome.

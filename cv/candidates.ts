@@ -179,7 +179,7 @@ export function selectCandidates(
     regions.filter((r) => !nearWall(r)),
     roundBlobs,
   );
-  const darkInk = darkInkUsable(roundBlobs);
+  const darkInk = darkInkUsable(roundBlobs, typicalRadius);
   // A blob's own pen, even one the round blobs share, tells its pieces thinner than a colony
   // (the line) from the colony-thick ones (colonies the line touches, or a chain of colonies).
   const inkOf = (r: RegionStats) => {

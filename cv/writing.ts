@@ -104,7 +104,17 @@ export function isDarkInk(r: RegionStats): boolean {
   return r.backgroundLab[0] - r.lab[0] > INK_DARKER && Math.hypot(r.lab[1], r.lab[2]) < INK_CHROMA;
 }
 
-/** Whether the prior for dark ink may be used on a plate with these round blobs. */
-export function darkInkUsable(roundBlobs: readonly RegionStats[]): boolean {
-  return roundBlobs.filter(isDarkInk).length <= AMBIGUOUS_SHARE * roundBlobs.length;
+/**
+ * Whether the prior for dark ink may be used on a plate with these round blobs: not when they
+ * share it, counted over all of them and over those at least a typical colony thick
+ * (`typicalRadius`). A colony's colour deepens with its thickness (Beer–Lambert): on a crowded
+ * plate of blue-grey colonies the many small ones read lighter, and only the large ones, a small
+ * share of all, are as dark as ink, yet large colonies are the ones that touch and so the ones
+ * the prior would judge.
+ */
+export function darkInkUsable(roundBlobs: readonly RegionStats[], typicalRadius: number): boolean {
+  const thick = roundBlobs.filter((r) => r.halfWidth >= typicalRadius);
+  return [roundBlobs, thick].every(
+    (blobs) => blobs.filter(isDarkInk).length <= AMBIGUOUS_SHARE * blobs.length,
+  );
 }
