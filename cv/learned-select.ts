@@ -23,8 +23,8 @@ import type { CandidateFeatures, LearnedModel, QualityFlag } from './types.ts';
  * Unbounded, a model learned from three plates (1 of their 55 colonies rescued) proposed 32
  * additions to a plates-dev photo of 250 colonies (see boundedAdditions).
  */
-const DISAGREE_SHARE = 0.2;
-const DISAGREE_MIN = 3;
+export const DISAGREE_SHARE = 0.2;
+export const DISAGREE_MIN = 3;
 
 export function learnedCandidates(
   model: LearnedModel,

@@ -65,7 +65,7 @@ const MIN_TEACHING_COLONIES = 10;
  * A plate teaches colours only when each holds at least this share of its colonies: a lopsided
  * split is as likely a few stray objects as a rare strain, and is sorted, not learned from.
  */
-const MIN_TEACHING_SHARE = 0.1;
+export const MIN_TEACHING_SHARE = 0.1;
 
 /**
  * One palette from the palettes of several plates, each learned on its own plate (so a lighting

@@ -41,6 +41,8 @@ const COLONY_FLAGS = new Set<QualityFlag['kind']>([
   'clumps-estimated',
   'low-confidence',
   'one-colour',
+  // Said of a learned model's colours: colonies sorted again by a palette are no longer its.
+  'learned-recolours',
 ]);
 
 /** The image flags of an analysis, without those recomputed from colonies. */

@@ -101,7 +101,9 @@ export type QualityFlag =
   /** This share of the colonies lies near the detection threshold: the count leans on it. */
   | { kind: 'unstable-count'; share: number }
   /** The experiment's learned model and the default rules disagree on many objects: look. */
-  | { kind: 'learned-differs'; added: number; dropped: number };
+  | { kind: 'learned-differs'; added: number; dropped: number }
+  /** The learned colours and the plate's own two colours sort many colonies differently: look. */
+  | { kind: 'learned-recolours'; recoloured: number; colonies: number };
 
 export interface PlateAnalysis {
   width: number;

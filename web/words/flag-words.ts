@@ -20,6 +20,7 @@ const PLATE_FLAG_LABELS: Record<string, string> = {
   'many-rejected': 'most objects set aside',
   'unstable-count': 'count leans on the threshold',
   'learned-differs': 'learning disagrees',
+  'learned-recolours': 'learned colours disagree',
 };
 
 const RESULT_FLAG_LABELS: Record<string, string> = {
@@ -108,6 +109,8 @@ export function plateFlagSentence(flag: PlateFlagCode): string {
       return `${Math.round(num(flag.share) * 100)}% of the colonies are barely darker or lighter than the agar: a stricter reading would drop them. Check the faint ones.`;
     case 'learned-differs':
       return `What the experiment learned disagrees with the usual rules here (${counted(num(flag.added), 'object', 'objects')} added, ${num(flag.dropped)} dropped): check the colonies.`;
+    case 'learned-recolours':
+      return `The experiment's learned colours sort ${counted(num(flag.recoloured), 'colony', 'colonies')} of ${num(flag.colonies)} otherwise than this plate's own two colours do: check the colours.`;
     default: {
       // A remark added to the analysis after this list was written: shown with its numbers.
       const { kind, ...values } = flag;
