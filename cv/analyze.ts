@@ -16,7 +16,7 @@ import {
   type WorkingFrame,
 } from './frame.ts';
 import { checkImage } from './image-input.ts';
-import { learnedColourCheck } from './learned-colours.ts';
+import { sortByLearnedColours } from './learned-colours.ts';
 import { decidesColonies } from './learned-model.ts';
 import { learnedCandidates } from './learned-select.ts';
 import type { Keep } from './mat-scope.ts';
@@ -165,9 +165,11 @@ function runPipeline(
     deltaLab: subtract(c.region.lab, c.region.backgroundLab),
   }));
   const lit = candidates.map((c) => onMask(agar.glare, c.region.x, c.region.y));
-  const classes = classifyAside(samples, lit, options.model?.palette ?? options.palette);
-  const recoloured = options.model?.palette ? learnedColourCheck(samples, lit, classes) : null;
-  if (recoloured) flags.push(recoloured);
+  const sorted = options.model?.palette
+    ? sortByLearnedColours(samples, lit, options.model.palette)
+    : { classes: classifyAside(samples, lit, options.palette), flag: null };
+  const classes = sorted.classes;
+  if (sorted.flag) flags.push(sorted.flag);
   const all: Colony[] = candidates.map((c, i) => {
     const [x, y] = toOriginal(frame, c.region.x, c.region.y);
     const area = c.region.area / frame.scale ** 2;

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { type ColourSample, classifyAside } from './classify.ts';
-import { learnedColourCheck } from './learned-colours.ts';
+import { sortByLearnedColours } from './learned-colours.ts';
 import type { Lab, Palette } from './types.ts';
 
 /** `n` colonies of colour `delta` relative to a beige agar, spread by a fixed wobble. */
@@ -38,26 +38,30 @@ const batchBlue: Palette = {
   ],
 };
 
-describe('learnedColourCheck', () => {
-  it('flags a plate whose own two colours the learned colours sort otherwise', () => {
-    const learned = classifyAside(twoColours, clear, wideBlue);
-    // The wide blue takes 28 of the 40 whites: the mistake the flag is for.
-    expect(learned.cls.filter((k) => k === 0).length).toBe(68);
-    expect(learnedColourCheck(twoColours, clear, learned)).toEqual({
-      kind: 'learned-recolours',
-      recoloured: 28,
-      colonies: 80,
-    });
+describe('sortByLearnedColours', () => {
+  it("sorts by the plate's own two colours, flagged, where the learned colours sort them otherwise", () => {
+    // The wide blue takes 28 of the 40 whites: the mistake this is for.
+    const byModel = classifyAside(twoColours, clear, wideBlue);
+    expect(byModel.cls.filter((k) => k === 0).length).toBe(68);
+    const { classes, flag } = sortByLearnedColours(twoColours, clear, wideBlue);
+    expect(flag).toEqual({ kind: 'learned-recolours', recoloured: 28, colonies: 80 });
+    // Sorted by the plate's own colours, named as the lab named them.
+    expect(classes.classes.map((c) => c.name)).toEqual(['blue', 'white']);
+    expect(classes.cls.slice(0, 40).every((k) => k === 0)).toBe(true);
+    expect(classes.cls.slice(40).every((k) => k === 1)).toBe(true);
   });
 
-  it('says nothing where the learned colours sort the plate as its own colours do', () => {
-    const learned = classifyAside(twoColours, clear, batchBlue);
-    expect(learnedColourCheck(twoColours, clear, learned)).toBeNull();
+  it('keeps the learned sorting, unflagged, where it sorts the plate as its own colours do', () => {
+    const { classes, flag } = sortByLearnedColours(twoColours, clear, batchBlue);
+    expect(flag).toBeNull();
+    expect(classes).toEqual(classifyAside(twoColours, clear, batchBlue));
   });
 
-  it('says nothing on a plate of one colour of its own, whatever its shades', () => {
+  it('keeps the learned sorting on a plate of one colour of its own, whatever its shades', () => {
     const blues = colonies([-22, 2, -26], 60, 6);
     const none = blues.map(() => false);
-    expect(learnedColourCheck(blues, none, classifyAside(blues, none, wideBlue))).toBeNull();
+    const { classes, flag } = sortByLearnedColours(blues, none, wideBlue);
+    expect(flag).toBeNull();
+    expect(classes).toEqual(classifyAside(blues, none, wideBlue));
   });
 });

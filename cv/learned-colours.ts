@@ -1,37 +1,67 @@
-import { type Classification, type ColourSample, classifyAside, paletteFrom } from './classify.ts';
+import {
+  type Classification,
+  type ColourSample,
+  classifyAside,
+  colourFeature,
+  paletteFrom,
+} from './classify.ts';
 import { DISAGREE_MIN, DISAGREE_SHARE } from './learned-select.ts';
 import { MIN_TEACHING_SHARE } from './palette.ts';
-import type { QualityFlag } from './types.ts';
+import type { Palette, QualityFlag } from './types.ts';
 
 /**
- * Learning never hides a mistake in colour either. A learned model sorts every plate by the two
- * colours of the colonies the lab checked; a plate whose colonies show two colours of their own,
- * as a plate must to teach a palette (palette.ts: apart by Ashman's D, each at least
- * MIN_TEACHING_SHARE of the colonies once a few strays such as blobs of ink are set aside), is also
- * sorted by those, and where the two sortings disagree on more than DISAGREE_SHARE of its colonies
- * (and more than DISAGREE_MIN), the plate carries a 'learned-recolours' flag, so the person checks
- * the colours. The two sortings are paired the way they agree most (the plate's own colours carry
- * no names). A plate of one colour of its own has nothing to compare: its colonies differ only in
- * shade, which any split would cut.
- * The share and the minimum are those learned-select.ts uses for colonies the model adds or drops.
+ * Sorting a plate by a learned model's colours, without hiding a mistake. The model's colours are
+ * the mean colours of the colonies the lab checked, with their spreads; learned from a few small
+ * plates, one colour can come out wide (colonies of every strength) and take in the other's
+ * colonies on a plate lit or grown otherwise. So a plate whose colonies show two colours of their
+ * own, as a plate must to teach a palette (palette.ts: apart by Ashman's D, each at least
+ * MIN_TEACHING_SHARE of the colonies once a few strays such as blobs of ink are set aside), is
+ * also sorted by those. Where the two sortings disagree on more than DISAGREE_SHARE of its
+ * colonies (and more than DISAGREE_MIN), the plate is sorted by its own two colours, which the
+ * model only names (each own colour takes the name of the learned colour it pairs with, by the
+ * smaller total distance), and carries a 'learned-recolours' flag, so the person checks the
+ * colours. A plate of one colour of its own has nothing to compare: its colonies differ only in
+ * shade, which any split would cut. The share and the minimum are those learned-select.ts uses
+ * for colonies the model adds or drops.
  */
-
-export function learnedColourCheck(
+export function sortByLearnedColours(
   samples: readonly ColourSample[],
   aside: readonly boolean[],
-  learned: Classification,
-): QualityFlag | null {
-  const ownColours = paletteFrom(
+  learned: Palette,
+): { classes: Classification; flag: QualityFlag | null } {
+  const byModel = classifyAside(samples, aside, learned);
+  const own = paletteFrom(
     samples.filter((_, i) => !aside[i]),
     MIN_TEACHING_SHARE,
   );
-  if (!ownColours) return null;
-  const own = classifyAside(samples, aside, ownColours);
-  const judged = learned.cls.map((_, i) => i).filter((i) => !learned.outlier[i]);
-  const same = judged.filter((i) => learned.cls[i] === own.cls[i]).length;
-  const recoloured = Math.min(same, judged.length - same);
-  const limit = Math.max(DISAGREE_MIN, DISAGREE_SHARE * judged.length);
-  return recoloured > limit
-    ? { kind: 'learned-recolours', recoloured, colonies: judged.length }
-    : null;
+  if (!own) return { classes: byModel, flag: null };
+  const named = namedBy(own, learned);
+  const byOwn = classifyAside(samples, aside, named);
+  const judged = byModel.cls.map((_, i) => i).filter((i) => !byModel.outlier[i]);
+  const recoloured = judged.filter((i) => byModel.cls[i] !== byOwn.cls[i]).length;
+  if (recoloured <= Math.max(DISAGREE_MIN, DISAGREE_SHARE * judged.length))
+    return { classes: byModel, flag: null };
+  return {
+    classes: byOwn,
+    flag: { kind: 'learned-recolours', recoloured, colonies: judged.length },
+  };
+}
+
+/** The plate's own two colours in the learned palette's order, with its names and looks. */
+function namedBy(own: Palette, learned: Palette): Palette {
+  const gap = (k: 0 | 1, j: 0 | 1) => {
+    const a = colourFeature(own.colours[k].deltaLab);
+    const b = colourFeature(learned.colours[j].deltaLab);
+    return Math.hypot(a[0] - b[0], a[1] - b[1], a[2] - b[2]);
+  };
+  const swapped = gap(0, 1) + gap(1, 0) < gap(0, 0) + gap(1, 1);
+  const [first, second] = swapped ? [own.colours[1], own.colours[0]] : own.colours;
+  const [l0, l1] = learned.colours;
+  return {
+    version: 1,
+    colours: [
+      { ...first, name: l0.name, hex: l0.hex },
+      { ...second, name: l1.name, hex: l1.hex },
+    ],
+  };
 }
