@@ -28,6 +28,9 @@ describe('flag codes in words', () => {
     expect(plateFlagSentence({ kind: 'learned-differs', added: 1, dropped: 7 })).toBe(
       'What the experiment learned disagrees with the usual rules here (1 object added, 7 dropped): check the colonies.',
     );
+    expect(plateFlagSentence({ kind: 'learned-recolours', recoloured: 28, colonies: 80 })).toBe(
+      "Sorted by this plate's own two colours: the experiment's learned colours would sort 28 colonies of 80 otherwise. Check the colours.",
+    );
   });
 
   it('an assay names each remark once, however many of its plates carry it', () => {

@@ -110,7 +110,7 @@ export function plateFlagSentence(flag: PlateFlagCode): string {
     case 'learned-differs':
       return `What the experiment learned disagrees with the usual rules here (${counted(num(flag.added), 'object', 'objects')} added, ${num(flag.dropped)} dropped): check the colonies.`;
     case 'learned-recolours':
-      return `The experiment's learned colours sort ${counted(num(flag.recoloured), 'colony', 'colonies')} of ${num(flag.colonies)} otherwise than this plate's own two colours do: check the colours.`;
+      return `Sorted by this plate's own two colours: the experiment's learned colours would sort ${counted(num(flag.recoloured), 'colony', 'colonies')} of ${num(flag.colonies)} otherwise. Check the colours.`;
     default: {
       // A remark added to the analysis after this list was written: shown with its numbers.
       const { kind, ...values } = flag;
