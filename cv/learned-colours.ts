@@ -1,12 +1,6 @@
-import {
-  type Classification,
-  type ColourSample,
-  classifyAside,
-  colourFeature,
-  paletteFrom,
-} from './classify.ts';
+import { type Classification, type ColourSample, classifyAside, paletteFrom } from './classify.ts';
 import { DISAGREE_MIN, DISAGREE_SHARE } from './learned-select.ts';
-import { MIN_TEACHING_SHARE } from './palette.ts';
+import { MIN_TEACHING_SHARE, pairing } from './palette.ts';
 import type { Palette, QualityFlag } from './types.ts';
 
 /**
@@ -19,9 +13,9 @@ import type { Palette, QualityFlag } from './types.ts';
  * also sorted by those. Where the two sortings disagree on more than DISAGREE_SHARE of its
  * colonies (and more than DISAGREE_MIN), the plate is sorted by its own two colours, which the
  * model only names (each own colour takes the name of the learned colour it pairs with, by the
- * smaller total distance), and carries a 'learned-recolours' flag, so the person checks the
- * colours. A plate of one colour of its own has nothing to compare: its colonies differ only in
- * shade, which any split would cut. The share and the minimum are those learned-select.ts uses
+ * smaller total colour distance, as palette.ts pairs plates' colours), and carries a
+ * 'learned-recolours' flag, so the person checks the colours. A plate of one colour of its own
+ * has nothing to compare: its colonies differ only in shade, which any split would cut. The share and the minimum are those learned-select.ts uses
  * for colonies the model adds or drops.
  */
 export function sortByLearnedColours(
@@ -49,13 +43,8 @@ export function sortByLearnedColours(
 
 /** The plate's own two colours in the learned palette's order, with its names and looks. */
 function namedBy(own: Palette, learned: Palette): Palette {
-  const gap = (k: 0 | 1, j: 0 | 1) => {
-    const a = colourFeature(own.colours[k].deltaLab);
-    const b = colourFeature(learned.colours[j].deltaLab);
-    return Math.hypot(a[0] - b[0], a[1] - b[1], a[2] - b[2]);
-  };
-  const swapped = gap(0, 1) + gap(1, 0) < gap(0, 0) + gap(1, 1);
-  const [first, second] = swapped ? [own.colours[1], own.colours[0]] : own.colours;
+  const [a, b] = own.colours;
+  const [first, second] = pairing(own, learned).swapped ? [b, a] : [a, b];
   const [l0, l1] = learned.colours;
   return {
     version: 1,

@@ -141,7 +141,7 @@ export function classifyWithPalette(analysis: PlateAnalysis, palette: Palette): 
   };
 }
 /** How palette `p` pairs with `q`: swapped or not, and the total colour distance of the pairing. */
-function pairing(p: Palette, q: Palette): { swapped: boolean; distance: number } {
+export function pairing(p: Palette, q: Palette): { swapped: boolean; distance: number } {
   const [a, b] = p.colours;
   const [c, d] = q.colours;
   const straight = deltaE76(a.deltaLab, c.deltaLab) + deltaE76(b.deltaLab, d.deltaLab);
