@@ -192,6 +192,30 @@ describe('selectCandidates: pieces of a line as thick as a colony', () => {
     );
     expect(keptIds(regions, line.components)).toEqual([4]);
   });
+
+  /*
+   * A band of reflected tint along the wall (plates-dev photo 8: blue bench light on beige agar),
+   * as thick as a colony, differs from the agar in b* alone; its pieces' L* straddle the agar's
+   * by a few tenths. White colonies on that agar share its tint, so no pen is usable for the
+   * plate. Before the line's own colour was asked, the pieces a shade lighter than the agar were
+   * kept (the line's mean is a shade darker) and counted as colonies.
+   */
+  it('drops the domeless pieces of a line that differs from the agar in tint alone', () => {
+    const line = row(0);
+    const regions: RegionStats[] = line.regions.map((r) => ({
+      ...r,
+      lab: [r.id % 2 ? 60.3 : 59.6, 20, 1],
+      contrast: 9,
+      bumps: 0,
+    }));
+    const components = [...line.components];
+    for (let i = 0; i < 3; i++) {
+      const id = COLONIES + 1 + i;
+      regions.push(colony(id, 20 + 15 * i, 90, { lab: [64, 20, 2] }));
+      components.push(blob(id, Math.PI * RADIUS ** 2));
+    }
+    expect(keptIds(regions, components)).toEqual([7, 8, 9]);
+  });
 });
 
 /**

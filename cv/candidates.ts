@@ -400,7 +400,9 @@ function isRoundAlone(r: RegionStats, c: ComponentStats): boolean {
  * (both darker, or both lighter) is the line: a thick marker stroke, or a lamp's arc reflected by
  * the lid, whose colour along it fades too much for one pen colour to hold it. A colony there is
  * a dome; a pale colony against dark writing may show no bump of its own beside the line's strong
- * contrast, and is told by its lightness.
+ * contrast, and is told by its lightness. A domeless piece of the line's own colour is the line
+ * too, whatever its lightness: a band of reflected tint along the wall differs from the agar in
+ * hue alone, so the sign of its lightness is noise.
  */
 function isColonyOnStroke(
   r: RegionStats,
@@ -410,7 +412,7 @@ function isColonyOnStroke(
   line: Pen | undefined,
 ): boolean {
   if (r.halfWidth >= COLONY_ON_STROKE * lineHalfWidth) return true;
-  if (r.bumps === 0 && line && sameSideOfAgar(r, line)) return false;
+  if (r.bumps === 0 && line && (sameSideOfAgar(r, line) || hasPenColour(r, line))) return false;
   const inky = pens.some((p) => hasPenColour(r, p)) || (darkInk && isDarkInk(r));
   return !inky && r.halfWidth >= OTHER_COLOUR_ON_STROKE * lineHalfWidth;
 }
