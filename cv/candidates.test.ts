@@ -125,6 +125,14 @@ describe('selectCandidates: a long blob of many pieces with hardly a dome', () =
   it('is a clump of colonies when its pieces show domes', () => {
     expect(kept(COLONIES)).toBeGreaterThan(0);
   });
+
+  // Words on a plates-dev photo: 3 domes in 32 pieces (a letter's ends and blots). Before the
+  // floor of three domes was dropped, three were enough to keep all 32 pieces.
+  it('is writing with three domes in thirty pieces, and a clump with one in six', () => {
+    const words = (bumps: number) => longBlob(30, RADIUS / 2, 0.25, bumps);
+    expect(keptIds(words(3).regions, words(3).components)).toEqual([]);
+    expect(keptIds(words(5).regions, words(5).components).length).toBeGreaterThan(0);
+  });
 });
 
 /**

@@ -14,9 +14,9 @@ import type { Lab } from './types.ts';
  * from colonies on this plate (or the "strokes" were chains of colonies), and no pen is learned.
  */
 export interface Pen {
-  /** Mean colour of the writing relative to the agar under it (L*a*b*). */
+  /** Colour of the writing relative to the agar under it (L*a*b*): the area-weighted median. */
   delta: Lab;
-  /** Root-mean-square ΔE*ab of the strokes' regions from that mean. */
+  /** Area-weighted median ΔE*ab of the stroke's regions from that colour. */
   spread: number;
   /** Half the line's thickness in working pixels. */
   halfWidth: number;
@@ -39,9 +39,10 @@ const AMBIGUOUS_SHARE = 0.1;
 /**
  * The pens of a plate, one per stroke blob (a plate may be labelled with more than one pen, and
  * each blob's colour is measured on its own so a lamp's line reflection cannot blur a pen's).
- * `usable` leaves out any whose colour the round blobs share: those cannot tell writing from
- * colonies elsewhere on the plate. `byStroke` keeps every blob's own pen, which still tells the
- * writing's pieces inside that blob from a colony of another colour touching it.
+ * `usable` keeps only the pens that can tell writing from colonies elsewhere on the plate: not
+ * one whose colour the round blobs share, nor one that cannot tell anything (isTelling).
+ * `byStroke` keeps every blob's own pen, which still tells the writing's pieces inside that blob
+ * from a colony of another colour touching it.
  */
 export function pensFromStrokes(
   strokes: readonly ComponentStats[],
@@ -58,21 +59,48 @@ export function pensFromStrokes(
   }
   const usable = [...byStroke.values()].filter(
     (pen) =>
+      isTelling(pen) &&
       roundBlobs.filter((r) => hasPenColour(r, pen)).length <= AMBIGUOUS_SHARE * roundBlobs.length,
   );
   return { usable, byStroke };
 }
 
+/**
+ * The pen's colour is the area-weighted median of its stroke's pieces, channel by channel, and
+ * its spread their median distance from it: a stroke's blob often holds a few colonies the line
+ * touches, and a mean would be pulled towards their colour, a colour no ink on the plate has
+ * (on one plates-dev photo a blob of blue ink and red colonies gave a purple "pen" that took
+ * 40 red colonies in clumps for writing, or not, as the photo moved by a pixel).
+ */
 function penOf(stroke: ComponentStats, pieces: readonly RegionStats[]): Pen | null {
-  const area = pieces.reduce((s, r) => s + r.area, 0);
-  if (area === 0) return null;
-  const delta = [0, 1, 2].map(
-    (k) => pieces.reduce((s, r) => s + r.area * (r.lab[k]! - r.backgroundLab[k]!), 0) / area,
-  ) as unknown as Lab;
-  const spread = Math.sqrt(
-    pieces.reduce((s, r) => s + r.area * deltaE76(deltaOf(r), delta) ** 2, 0) / area,
-  );
+  if (pieces.reduce((s, r) => s + r.area, 0) === 0) return null;
+  const weighted = (value: (r: RegionStats) => number) =>
+    weightedMedian(pieces.map((r) => ({ value: value(r), weight: r.area })));
+  const delta = [0, 1, 2].map((k) => weighted((r) => deltaOf(r)[k]!)) as unknown as Lab;
+  const spread = weighted((r) => deltaE76(deltaOf(r), delta));
   return { delta, spread, halfWidth: 2 * stroke.meanDistance };
+}
+
+/**
+ * Whether a pen can tell writing from anything else: its colour stands farther from the agar
+ * than its match reaches (else the agar's own colour matches it, and with it every faint object:
+ * the faint grey "strokes" of shading or a shadow), and it matches at least half of its own
+ * stroke (its spread within its reach; else the blob is of no one colour and its median a mix).
+ */
+function isTelling(pen: Pen): boolean {
+  const reach = penReach(pen);
+  return Math.hypot(...pen.delta) > reach && pen.spread <= reach;
+}
+
+function weightedMedian(items: readonly { value: number; weight: number }[]): number {
+  const sorted = [...items].sort((a, b) => a.value - b.value);
+  const half = sorted.reduce((s, i) => s + i.weight, 0) / 2;
+  let run = 0;
+  for (const { value, weight } of sorted) {
+    run += weight;
+    if (run >= half) return value;
+  }
+  return sorted[sorted.length - 1]!.value;
 }
 
 export function isPenPiece(r: RegionStats, pens: readonly Pen[]): boolean {
@@ -80,8 +108,11 @@ export function isPenPiece(r: RegionStats, pens: readonly Pen[]): boolean {
 }
 
 export function hasPenColour(r: RegionStats, pen: Pen): boolean {
-  const reach = Math.min(PEN_MAX_DELTA_E, Math.max(PEN_MIN_DELTA_E, PEN_SPREADS * pen.spread));
-  return deltaE76(deltaOf(r), pen.delta) <= reach;
+  return deltaE76(deltaOf(r), pen.delta) <= penReach(pen);
+}
+
+function penReach(pen: Pen): number {
+  return Math.min(PEN_MAX_DELTA_E, Math.max(PEN_MIN_DELTA_E, PEN_SPREADS * pen.spread));
 }
 
 function deltaOf(r: RegionStats): Lab {
