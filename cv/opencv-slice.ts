@@ -196,6 +196,7 @@ export interface OpenCv {
   THRESH_BINARY_INV: number;
   THRESH_OTSU: number;
   THRESH_TOZERO: number;
+  MORPH_CROSS: number;
   MORPH_ELLIPSE: number;
   MORPH_RECT: number;
   MORPH_OPEN: number;

@@ -1,5 +1,6 @@
 import type { Blob } from './blob-seeds.ts';
 import { SMALLEST_COLONY_RADIUS_MM } from './colony-size.ts';
+import { dilateByDisc } from './disc-dilation.ts';
 import type { WorkingFrame } from './frame.ts';
 import { oddAtLeast } from './kernel-size.ts';
 import type { Keep } from './mat-scope.ts';
@@ -196,9 +197,7 @@ function scaledPeaks(cv: OpenCv, distance: Mat): Mat {
     const beats = keep(new cv.Mat());
     for (let v = 1.5; v <= top; v *= 2) {
       cv.threshold(distance, octave, v, 0, cv.THRESH_TOZERO);
-      const size = oddAtLeast(3, 2 * SEED_REACH * v);
-      const disc = keep(cv.getStructuringElement(cv.MORPH_ELLIPSE, new cv.Size(size, size)));
-      cv.dilate(octave, octave, disc);
+      dilateByDisc(cv, keep, octave, oddAtLeast(3, 2 * SEED_REACH * v));
       cv.compare(distance, octave, beats, cv.CMP_GE);
       cv.bitwise_and(peaks, beats, peaks);
     }
