@@ -182,9 +182,9 @@ function addFaintDiscs(
   // Not in the wall band: there the meniscus and air bubbles pinned at the wall make round,
   // faintly lighter patches of their own.
   cv.subtract(low, agar.wallBand, low);
-  const size = oddAtLeast(3, FAINT_MIN_MM / frame.mmPerPx);
-  const disc = k(cv.getStructuringElement(cv.MORPH_ELLIPSE, new cv.Size(size, size)));
-  cv.morphologyEx(low, low, cv.MORPH_OPEN, disc);
+  // By distance transforms (disc-opening.ts): opencv.js opens with an elliptical kernel pixel
+  // by pixel, 89 ms of a 12 MP photo's analysis for this disc, against 39 ms.
+  openWithDisc(cv, low, low, discRadius(FAINT_MIN_MM, frame));
   const contours = k(new cv.MatVector());
   const hierarchy = k(new cv.Mat());
   cv.findContours(low, contours, hierarchy, cv.RETR_EXTERNAL, cv.CHAIN_APPROX_SIMPLE);
