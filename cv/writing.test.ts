@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { deltaE76 } from './colour.ts';
 import type { ComponentStats, RegionStats } from './measure.ts';
 import type { Lab } from './types.ts';
-import { pensFromStrokes } from './writing.ts';
+import { hasPenColour, pensFromStrokes } from './writing.ts';
 
 const AGAR: Lab = [80, 10, 20];
 const INK: Lab = [-40, 0, -40];
@@ -67,5 +67,16 @@ describe('pensFromStrokes', () => {
       ...Array(4).fill(pale),
     ]);
     expect(usable).toEqual([]);
+  });
+
+  it('matches a thicker piece of the same ink, darker and more saturated in proportion', () => {
+    const { usable } = pensOf(Array(12).fill(INK));
+    const thicker = piece(20, [INK[0] * 1.15, INK[1] * 1.15, INK[2] * 1.15]);
+    // 8.5 ΔE*ab from the ink's colour, beyond the least reach (6) a spread of 0 would give.
+    expect(
+      deltaE76([thicker.lab[0] - AGAR[0], thicker.lab[1] - AGAR[1], thicker.lab[2] - AGAR[2]], INK),
+    ).toBeGreaterThan(8);
+    expect(hasPenColour(thicker, usable[0]!)).toBe(true);
+    expect(hasPenColour(piece(21, RED), usable[0]!)).toBe(false);
   });
 });

@@ -23,11 +23,18 @@ export interface Pen {
 }
 
 /**
- * A region matches the pen within PEN_SPREADS spreads of its colour, taken between PEN_MIN_DELTA_E
- * and PEN_MAX_DELTA_E: a just-noticeable difference is a few ΔE*ab units (common practice), and
+ * A region matches the pen within PEN_SPREADS spreads of its colour, or PEN_DEPTH of the pen's
+ * own difference from the agar if that is more, taken between PEN_MIN_DELTA_E and
+ * PEN_MAX_DELTA_E: a just-noticeable difference is a few ΔE*ab units (common practice), and
  * writing mixed up with other things must not grow a match wide enough to take in a colony colour.
+ * The depth term is Beer–Lambert: ink absorbs in proportion to the layer's thickness, which a
+ * pen varies along its line (pressure, crossings, the end of a stroke), so the ink's difference
+ * from the agar scales with it; a fifth is a judgement. A stroke's spread, a median, says little
+ * of that: on one plates-dev photo red writing measured a spread of 2 and its thicker pieces lay
+ * 8 ΔE*ab from its colour.
  */
 const PEN_SPREADS = 2.5;
+const PEN_DEPTH = 0.2;
 const PEN_MIN_DELTA_E = 6;
 const PEN_MAX_DELTA_E = 12;
 /** A region up to this many times the pen's half thickness can be a piece of its line. */
@@ -112,7 +119,8 @@ export function hasPenColour(r: RegionStats, pen: Pen): boolean {
 }
 
 function penReach(pen: Pen): number {
-  return Math.min(PEN_MAX_DELTA_E, Math.max(PEN_MIN_DELTA_E, PEN_SPREADS * pen.spread));
+  const own = Math.max(PEN_SPREADS * pen.spread, PEN_DEPTH * Math.hypot(...pen.delta));
+  return Math.min(PEN_MAX_DELTA_E, Math.max(PEN_MIN_DELTA_E, own));
 }
 
 function deltaOf(r: RegionStats): Lab {
