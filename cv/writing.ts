@@ -1,6 +1,7 @@
 import { deltaE76 } from './colour.ts';
 import type { ComponentStats, RegionStats } from './measure.ts';
 import type { Lab } from './types.ts';
+import { weightedMedian } from './weighted-median.ts';
 
 /**
  * The plate's own writing: once some blobs are recognised as strokes by their shape
@@ -97,17 +98,6 @@ function penOf(stroke: ComponentStats, pieces: readonly RegionStats[]): Pen | nu
 function isTelling(pen: Pen): boolean {
   const reach = penReach(pen);
   return Math.hypot(...pen.delta) > reach && pen.spread <= reach;
-}
-
-function weightedMedian(items: readonly { value: number; weight: number }[]): number {
-  const sorted = [...items].sort((a, b) => a.value - b.value);
-  const half = sorted.reduce((s, i) => s + i.weight, 0) / 2;
-  let run = 0;
-  for (const { value, weight } of sorted) {
-    run += weight;
-    if (run >= half) return value;
-  }
-  return sorted[sorted.length - 1]!.value;
 }
 
 export function isPenPiece(r: RegionStats, pens: readonly Pen[]): boolean {
