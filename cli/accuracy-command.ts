@@ -13,7 +13,7 @@ import type { CommandIo } from './io.ts';
 import { LabelError, type LabelledPhoto, readLabelledFolder } from './labelled-folder.ts';
 import { type CheckedPlate, CheckedPlateError, learnFromPlates } from './learn-from-plates.ts';
 import { loadCvCore } from './opencv-quiet.ts';
-import { UsageError, wholeNumber } from './options.ts';
+import { decimalBetween, UsageError, wholeNumber } from './options.ts';
 
 const HELP = `Usage: rivalplate accuracy [options] FOLDER
 
@@ -31,6 +31,9 @@ Options:
                       labels (the visible colonies with their colours), learn a model from them
                       (as rivalplate learn does), and score the other photos before and after
                       (rows BATCH and BATCH+learned)
+  --dish-scale F      scale every dish found by F (0.9 to 1.1) before reading the photo: a check
+                      of how far the figures move by chance. 0.998 and 1.002 move the dish's
+                      edge by about a pixel, which no colony notices; compare with a run without
   -h, --help          show this help
 
 Exit status: 0 scored, 1 a photo could not be counted, 2 usage or truth-file error.
@@ -51,6 +54,7 @@ export async function run(args: string[], io: CommandIo): Promise<number> {
     jsonOut?: string;
     dishMm: number;
     learnFirst: number;
+    dishScale?: number;
   };
   try {
     const { values, positionals } = parseArgs({
@@ -61,6 +65,7 @@ export async function run(args: string[], io: CommandIo): Promise<number> {
         'json-out': { type: 'string' },
         'dish-mm': { type: 'string' },
         'learn-first': { type: 'string' },
+        'dish-scale': { type: 'string' },
         help: { type: 'boolean', short: 'h' },
       },
     });
@@ -77,6 +82,9 @@ export async function run(args: string[], io: CommandIo): Promise<number> {
       learnFirst: values['learn-first']
         ? wholeNumber(values['learn-first'], '--learn-first', 1)
         : 0,
+      ...(values['dish-scale']
+        ? { dishScale: decimalBetween(values['dish-scale'], '--dish-scale', 0.9, 1.1) }
+        : {}),
     };
   } catch (e) {
     if (e instanceof UsageError || e instanceof TypeError) {
@@ -109,6 +117,7 @@ export async function run(args: string[], io: CommandIo): Promise<number> {
           dishMm: options.dishMm,
           jobs: 1,
           ...(model ? { model } : {}),
+          ...(options.dishScale !== undefined ? { dishScale: options.dishScale } : {}),
           onPhoto: (i, n, file) => io.status?.(`[${batch} ${i}/${n}] ${basename(file)}`),
         },
       );

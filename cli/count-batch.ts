@@ -35,6 +35,7 @@ export async function countBatch(
     dishMm: options.dishMm,
     ...(options.palette ? { palette: options.palette } : {}),
     ...(options.model ? { model: options.model } : {}),
+    ...(options.dishScale !== undefined ? { dishScale: options.dishScale } : {}),
   };
   const jobs = Math.max(1, Math.min(options.jobs ?? availableParallelism(), files.length));
   const outcomes = await countInPool(

@@ -18,6 +18,8 @@ export interface PhotoSettings {
   palette?: Palette;
   /** Decide colonies (and, when it holds them, colours) with this experiment's learned model. */
   model?: LearnedModel;
+  /** Scale each dish found by this factor (a check of the analysis: see AnalyzeOptions). */
+  dishScale?: number;
 }
 
 /** One photo decoded and analysed: the same code in every thread of a batch. */
@@ -33,6 +35,7 @@ export async function countOne(
       dishDiameterMm: settings.dishMm,
       ...(settings.palette ? { palette: settings.palette } : {}),
       ...(settings.model ? { model: settings.model } : {}),
+      ...(settings.dishScale !== undefined ? { dishScale: settings.dishScale } : {}),
     });
     // Read from the decoded copy, reported in the photo's own pixels.
     const inPhoto = analysisToOriginal(analysis, 1 / photo.scale, photo.width, photo.height);

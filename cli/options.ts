@@ -21,3 +21,12 @@ export function wholeNumber(text: string, option: string, min: number): number {
   }
   return Number(text);
 }
+
+/** A number in [min, max], written as a plain decimal (`--dish-scale 0.998`). */
+export function decimalBetween(text: string, option: string, min: number, max: number): number {
+  const value = Number(text);
+  if (!/^\d+(\.\d+)?$/.test(text) || value < min || value > max) {
+    throw new UsageError(`${option}: expected a number from ${min} to ${max}, got "${text}"`);
+  }
+  return value;
+}

@@ -62,6 +62,19 @@ describe('analyzePlate', () => {
     expect(Math.abs(a.colonies.length - 50)).toBeLessThanOrEqual(3);
   });
 
+  // The dish-scale check (`rivalplate accuracy --dish-scale`) must reach the dish the analysis
+  // reads: its radii scaled about the same centre, and nothing else about the plate changed.
+  it('scales the dish it reads by dishScale, about the same centre', async () => {
+    const { image, truth } = generatePlate({ seed: 8, width: 1200, height: 900, colonies: 50 });
+    const d = truth.dish;
+    const dish = { cx: d.cx, cy: d.cy, rx: d.agarRx, ry: d.agarRy, angleDeg: d.angleDeg };
+    const a = await analyzePlate(image, { dish, dishScale: 1.01 });
+    expect(a.dish!.rx).toBeCloseTo(1.01 * d.agarRx, 3);
+    expect(a.dish!.ry).toBeCloseTo(1.01 * d.agarRy, 3);
+    expect(a.dish!.cx).toBeCloseTo(d.cx, 0);
+    expect(Math.abs(a.colonies.length - 50)).toBeLessThanOrEqual(3);
+  });
+
   it('flags a photo with no dish in it and does not invent colonies on a bare bench', async () => {
     const w = 640;
     const h = 480;

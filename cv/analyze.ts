@@ -88,6 +88,7 @@ function runPipeline(
   const dishMm = options.dishDiameterMm ?? DEFAULT_DISH_MM;
   let dish: Dish | null = options.dish ? givenDish(options.dish) : detectDish(cv, image, dishMm);
   if (!dish) flags.push({ kind: 'dish-not-found' });
+  if (dish && options.dishScale !== undefined) dish = scaledDish(dish, options.dishScale);
   const geometry = dish ?? inscribedDish(image.width, image.height);
   const frame = frameForDish(geometry, image.width, image.height, dishMm);
   const pxPerMm = originalPxPerMm(frame);
@@ -290,6 +291,10 @@ function renumbered(m: MeasuredRegions, regions: number, components: number): Me
 
 function onMask(mask: Mat, x: number, y: number): boolean {
   return mask.data[Math.floor(y) * mask.cols + Math.floor(x)]! > 0;
+}
+
+function scaledDish(d: Dish, k: number): Dish {
+  return { ...d, rx: d.rx * k, ry: d.ry * k, r: d.r * k };
 }
 
 function toWorkingDish(d: Dish, f: WorkingFrame): Dish {

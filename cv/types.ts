@@ -220,6 +220,13 @@ export interface AnalyzeOptions {
   searchReach?: number;
   /** Skip detection and use this dish (original pixels). */
   dish?: Pick<Dish, 'cx' | 'cy' | 'rx' | 'ry' | 'angleDeg'>;
+  /**
+   * Scale the dish found (or given) by this factor about its centre (default 1). A check of the
+   * analysis, not a setting: 0.998 or 1.002 moves the dish's edge by about a pixel and the
+   * working image's sampling by a fraction of one, which no plate's colonies notice, so what it
+   * changes in the counts is chance (see `rivalplate accuracy --dish-scale`).
+   */
+  dishScale?: number;
   /** Classify against these two colours instead of clustering this plate alone. */
   palette?: Palette;
   /** Dish inner diameter in mm (default 90), used to turn mm sizes into pixels. */
