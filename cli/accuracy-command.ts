@@ -33,7 +33,8 @@ Options:
                       (rows BATCH and BATCH+learned)
   --dish-scale F      scale every dish found by F (0.9 to 1.1) before reading the photo: a check
                       of how far the figures move by chance. 0.998 and 1.002 move the dish's
-                      edge by about a pixel, which no colony notices; compare with a run without
+                      edge by about a pixel, which no colony notices; compare with a run
+                      without it
   -h, --help          show this help
 
 Exit status: 0 scored, 1 a photo could not be counted, 2 usage or truth-file error.
