@@ -33,6 +33,7 @@ function colony(id: number, x: number, y: number, over: Partial<RegionStats> = {
     steepest: 4,
     component: id,
     bumps: 1,
+    neighbours: 0,
     ...over,
   };
 }
@@ -356,5 +357,42 @@ describe('selectCandidates: chroma noise', () => {
 
   it('keeps a faint region as much lighter than the agar', () => {
     expect(faint([74, 0, 18])).toEqual([1]);
+  });
+});
+
+describe('the piece between touching colonies', () => {
+  // Three colonies of radius R touching in a triangle: the middle of the gap between them lies
+  // only R·(2/√3 − 1) ≈ 0.15 R outside each disc (plane geometry), so their soft edges fill it
+  // and the foreground is thickest there. The distance map peaks in it and the watershed gives it
+  // a small concave piece bounded by all three. A piece meeting three regions and filling a fifth
+  // of the disc of its thickness is that junction; a colony cut by its neighbours fills most of
+  // its disc.
+  const trio = (centre: Partial<RegionStats>) => {
+    const third = (id: number, x: number, y: number) =>
+      colony(id, x, y, { component: 1, neighbours: 3 });
+    const regions = [
+      third(1, 20, 20),
+      third(2, 30, 20),
+      third(3, 25, 28.7),
+      colony(4, 25, 23, {
+        component: 1,
+        area: 0.2 * Math.PI * RADIUS ** 2,
+        halfWidth: RADIUS,
+        bumps: 0,
+        neighbours: 3,
+        ...centre,
+      }),
+    ];
+    return keptIds(regions, [blob(1, 3.5 * Math.PI * RADIUS ** 2, { regions: 4, bumps: 3 })]);
+  };
+
+  it('drops a domeless piece meeting three colonies that fills little of its disc', () => {
+    expect(trio({})).toEqual([1, 2, 3]);
+  });
+
+  it('keeps it when it is a dome, fills its disc, or meets fewer than three regions', () => {
+    expect(trio({ bumps: 1 })).toEqual([1, 2, 3, 4]);
+    expect(trio({ area: 0.8 * Math.PI * RADIUS ** 2 })).toEqual([1, 2, 3, 4]);
+    expect(trio({ neighbours: 2 })).toEqual([1, 2, 3, 4]);
   });
 });

@@ -36,6 +36,12 @@ import {
  * - Slivers and satellites: thin pieces the watershed cuts off the edge of a colony in a touching
  *   group (unless the piece is a dome of its own), and small blobs hugging a bigger colony (its
  *   blurred rim, cut loose by thresholding).
+ * - Junctions: where three or more colonies touch, the foreground is thick between them, so the
+ *   distance map has a peak there and the watershed a region: a small concave piece bounded by
+ *   the colonies round it. It meets at least JUNCTION_NEIGHBOURS other regions, holds no dome,
+ *   and fills less than JUNCTION_FILL of the disc of its own thickness (a colony cut by its
+ *   neighbours still fills most of its disc; elongationOf). On plates-dev and its four altered
+ *   copies this took 0.004–0.007 off the false share at the cost of 0.001–0.003 of recall.
  * - Strokes (marker-pen writing on the lid or the base, scratches, a lamp's line reflection):
  *   blobs far longer than they are thick and of even thickness, recognised by their shape, not
  *   their colour (pens come in every colour, and so do colonies). Even thickness is read from the
@@ -90,6 +96,9 @@ const GHOST_SHARE = 0.5;
 const CHROMA_BLOCK_PX = 16;
 /** Slivers: split-off pieces smaller than this share of a typical colony's disc. */
 const SLIVER = 0.15;
+/** Junctions: a domeless piece meeting this many regions and filling less than this of its disc. */
+const JUNCTION_NEIGHBOURS = 3;
+const JUNCTION_FILL = 0.5;
 /** Satellites: smaller than SATELLITE_AREA minimum colonies, within SATELLITE_GAP_MM of a bigger one. */
 const SATELLITE_AREA = 3;
 const SATELLITE_GAP_MM = 0.3;
@@ -230,6 +239,10 @@ export function selectCandidates(
       r.bumps === 0
     ) {
       rejected.specks++; // a sliver the watershed cut off a colony's edge
+      return false;
+    }
+    if (comp && comp.regions > 1 && isJunction(r)) {
+      rejected.specks++;
       return false;
     }
     if (comp && !isRound(comp) && (isPenPiece(r, pens) || (darkInk && isDarkInk(r)))) {
@@ -418,6 +431,11 @@ function isColonyOnStroke(
   if (r.bumps === 0 && line && (sameSideOfAgar(r, line) || hasPenColour(r, line))) return false;
   const inky = pens.some((p) => hasPenColour(r, p)) || (darkInk && isDarkInk(r));
   return !inky && r.halfWidth >= OTHER_COLOUR_ON_STROKE * lineHalfWidth;
+}
+
+/** The piece between three or more touching colonies (see Junctions above). */
+function isJunction(r: RegionStats): boolean {
+  return r.bumps === 0 && r.neighbours >= JUNCTION_NEIGHBOURS && elongationOf(r) < JUNCTION_FILL;
 }
 
 /** Lighter than the agar like the line, or darker like it: not a pale colony on dark ink. */

@@ -26,6 +26,8 @@ export interface RegionStats {
   component: number;
   /** Round contrast bumps (blob-seeds.ts) centred in the region: a colony's dome, not a line. */
   bumps: number;
+  /** Other regions it meets across a watershed line (see neighbourCounts). */
+  neighbours: number;
 }
 
 export interface ComponentStats {
@@ -120,6 +122,7 @@ export function measureRegions(
 
   const compRegions = new Int32Array(componentCount + 1);
   const rBumps = bumpsPer(regions, regionCount, bumps);
+  const rNeighbours = neighbourCounts(regions, components, regionCount);
   const out: RegionStats[] = [];
   for (let id = 1; id < n; id++) {
     const a = area[id]!;
@@ -139,6 +142,7 @@ export function measureRegions(
       steepest: rSteep[id]!,
       component: comp[id]!,
       bumps: rBumps[id]!,
+      neighbours: rNeighbours[id]!,
     });
   }
   const cBumps = bumpsPer(components, componentCount, bumps);
@@ -156,6 +160,40 @@ export function measureRegions(
     });
   }
   return { regions: out, components: comps };
+}
+
+/**
+ * How many other regions each region 1..n meets: the watershed leaves a line of unlabelled
+ * pixels between two regions that meet, so two labels among the 8 neighbours of an unlabelled
+ * foreground pixel are neighbours. Unlabelled foreground that only one region touches (the
+ * background's flood, split.ts) joins nothing.
+ */
+function neighbourCounts(regions: Mat, components: Mat, n: number): Int32Array {
+  const l = regions.data32S;
+  const c = components.data32S;
+  const w = regions.cols;
+  const pairs = new Set<number>();
+  const around = [-w - 1, -w, -w + 1, -1, 1, w - 1, w, w + 1];
+  const seen: number[] = [];
+  for (let y = 1; y < regions.rows - 1; y++) {
+    for (let i = y * w + 1; i < (y + 1) * w - 1; i++) {
+      if (l[i] !== 0 || c[i] === 0) continue;
+      seen.length = 0;
+      for (const o of around) {
+        const id = l[i + o]!;
+        if (id > 0 && !seen.includes(id)) seen.push(id);
+      }
+      for (let a = 0; a < seen.length; a++)
+        for (let b = a + 1; b < seen.length; b++)
+          pairs.add(Math.min(seen[a]!, seen[b]!) * (n + 1) + Math.max(seen[a]!, seen[b]!));
+    }
+  }
+  const count = new Int32Array(n + 1);
+  for (const key of pairs) {
+    count[Math.floor(key / (n + 1))]!++;
+    count[key % (n + 1)]!++;
+  }
+  return count;
 }
 
 /** How many of `bumps` are centred on each label 1..n of a label image. */

@@ -23,6 +23,7 @@ function piece(id: number, delta: Lab): RegionStats {
     steepest: 2,
     component: 1,
     bumps: 0,
+    neighbours: 2,
   };
 }
 
