@@ -26,7 +26,7 @@ export interface RegionStats {
   component: number;
   /** Round contrast bumps (blob-seeds.ts) centred in the region: a colony's dome, not a line. */
   bumps: number;
-  /** Other regions it meets across a watershed line (see neighbourCounts). */
+  /** Other regions it meets across a watershed line (see regionMeetings). */
   neighbours: number;
 }
 
@@ -95,6 +95,7 @@ export function measureRegions(
   const B = background8.data;
   const E = deltaE.data32F;
   const w = regions.cols;
+  const meetings = regionMeetings(regions, regionCount);
   for (let i = 0; i < r.length; i++) {
     const ci = c[i]!;
     if (ci > 0) {
@@ -105,7 +106,10 @@ export function measureRegions(
       if (ridgeData[i]) cRidge[ci]!.push(d[i]!);
     }
     const id = r[i]!;
-    if (id <= 0) continue;
+    if (id <= 0) {
+      if (ci > 0 && id === 0) meetings.note(i);
+      continue;
+    }
     area[id]!++;
     sx[id]! += i % w;
     sy[id]! += (i / w) | 0;
@@ -122,7 +126,7 @@ export function measureRegions(
 
   const compRegions = new Int32Array(componentCount + 1);
   const rBumps = bumpsPer(regions, regionCount, bumps);
-  const rNeighbours = neighbourCounts(regions, components, regionCount);
+  const rNeighbours = meetings.counts();
   const out: RegionStats[] = [];
   for (let id = 1; id < n; id++) {
     const a = area[id]!;
@@ -163,21 +167,23 @@ export function measureRegions(
 }
 
 /**
- * How many other regions each region 1..n meets: the watershed leaves a line of unlabelled
- * pixels between two regions that meet, so two labels among the 8 neighbours of an unlabelled
- * foreground pixel are neighbours. Unlabelled foreground that only one region touches (the
- * background's flood, split.ts) joins nothing.
+ * Which regions 1..n meet: the watershed leaves a line of unlabelled pixels between two regions
+ * that meet, so two labels among the 8 neighbours of an unlabelled foreground pixel are
+ * neighbours. `note` is called from the measuring pass for each such pixel; unlabelled foreground
+ * that only one region touches (the background's flood, split.ts) joins nothing. `counts` gives
+ * how many others each region meets.
  */
-function neighbourCounts(regions: Mat, components: Mat, n: number): Int32Array {
+function regionMeetings(regions: Mat, n: number) {
   const l = regions.data32S;
-  const c = components.data32S;
   const w = regions.cols;
+  const h = regions.rows;
   const pairs = new Set<number>();
   const around = [-w - 1, -w, -w + 1, -1, 1, w - 1, w, w + 1];
   const seen: number[] = [];
-  for (let y = 1; y < regions.rows - 1; y++) {
-    for (let i = y * w + 1; i < (y + 1) * w - 1; i++) {
-      if (l[i] !== 0 || c[i] === 0) continue;
+  return {
+    note(i: number): void {
+      const x = i % w;
+      if (x === 0 || x === w - 1 || i < w || i >= (h - 1) * w) return;
       seen.length = 0;
       for (const o of around) {
         const id = l[i + o]!;
@@ -186,14 +192,16 @@ function neighbourCounts(regions: Mat, components: Mat, n: number): Int32Array {
       for (let a = 0; a < seen.length; a++)
         for (let b = a + 1; b < seen.length; b++)
           pairs.add(Math.min(seen[a]!, seen[b]!) * (n + 1) + Math.max(seen[a]!, seen[b]!));
-    }
-  }
-  const count = new Int32Array(n + 1);
-  for (const key of pairs) {
-    count[Math.floor(key / (n + 1))]!++;
-    count[key % (n + 1)]!++;
-  }
-  return count;
+    },
+    counts(): Int32Array {
+      const count = new Int32Array(n + 1);
+      for (const key of pairs) {
+        count[Math.floor(key / (n + 1))]!++;
+        count[key % (n + 1)]!++;
+      }
+      return count;
+    },
+  };
 }
 
 /** How many of `bumps` are centred on each label 1..n of a label image. */
